@@ -1,0 +1,236 @@
+package format
+
+import (
+	"bytes"
+	"strings"
+)
+
+// OutlineHeader is the first line of every outline ramify writes.
+const OutlineHeader = "# ramify outline 1"
+
+// Outline is a parsed .outline file: the tree (the file itself is the root)
+// and the structure hash recorded in its header, if any.
+type Outline struct {
+	Root *Category
+	// Structure is the hash from the "# structure" line as read, or ""
+	// when the file has none (made by hand or imported).
+	Structure string
+}
+
+// Edited reports whether the tree's shape no longer matches the structure
+// hash ramify wrote: someone moved lines by hand. Outlines without a
+// structure line are never "edited"; they are previous versions.
+func (o *Outline) Edited() bool {
+	return o.Structure != "" && o.Structure != StructureHash(o.Root)
+}
+
+// ParseOutline reads an outline. file names it in error messages. Every
+// problem is reported; the returned error is a Diags.
+func ParseOutline(file string, data []byte) (*Outline, error) {
+	data, ds := CleanText(file, data)
+	if len(ds) > 0 {
+		return nil, ds
+	}
+	out := &Outline{}
+	root, structure, ds := parseTree(file, data, 1, true)
+	out.Root, out.Structure = root, structure
+	return out, ds.Err()
+}
+
+// parseTree parses outline lines. firstLine is the file line number of
+// data's first line (packets embed a tree after their header). When
+// header is true, leading comment lines may carry the format line and the
+// structure hash.
+func parseTree(file string, data []byte, firstLine int, header bool) (*Category, string, Diags) {
+	var ds Diags
+	root := &Category{}
+	// stack[d] is the open category at depth d; stack[0] is the root.
+	stack := []*Category{root}
+	seenItem := map[string]int{}
+	// siblingNames[cat] maps child names to their line, to catch duplicates.
+	siblingNames := map[*Category]map[string]int{}
+	structure := ""
+	inHeader := header
+	lines := strings.Split(string(data), "\n")
+	if len(lines) > 0 && lines[len(lines)-1] == "" {
+		lines = lines[:len(lines)-1]
+	}
+	for i, line := range lines {
+		lineNo := firstLine + i
+		at := func(byteCol int) Pos { return Pos{file, lineNo, RuneCol(line, byteCol)} }
+		if t := strings.IndexByte(line, '\t'); t >= 0 {
+			ds.Add(at(t), "tab character; indent with two spaces per level")
+			continue
+		}
+		trimmed := strings.TrimRight(line, " ")
+		if trimmed == "" {
+			continue
+		}
+		body := strings.TrimLeft(trimmed, " ")
+		indent := len(trimmed) - len(body)
+		if strings.HasPrefix(body, "#") {
+			if inHeader && indent == 0 {
+				if v, ok := strings.CutPrefix(body, "# ramify outline "); ok {
+					if v != "1" {
+						ds.Add(at(0), "unsupported outline version %q; this ramify reads version 1", v)
+					}
+				} else if v, ok := strings.CutPrefix(body, "# structure "); ok {
+					v = strings.TrimSpace(v)
+					if !isHex(v) || len(v) != 12 {
+						ds.Add(at(len("# structure ")), "structure hash %q is not 12 hex digits", v)
+					} else {
+						structure = v
+					}
+				}
+			}
+			continue
+		}
+		inHeader = false
+		if indent%2 != 0 {
+			ds.Add(at(0), "indentation of %d spaces; use exactly two spaces per level", indent)
+			continue
+		}
+		depth := indent / 2
+		if depth >= len(stack) {
+			ds.Add(at(0), "indented %d levels but the line above opens only %d; a line can be at most one level deeper than the category above it", depth, len(stack)-1)
+			continue
+		}
+		if depth >= MaxDepth {
+			ds.Add(at(0), "nesting deeper than %d levels", MaxDepth)
+			continue
+		}
+		stack = stack[:depth+1]
+		parent := stack[depth]
+		if name, ok := strings.CutSuffix(body, "/"); ok {
+			cat := &Category{Line: lineNo}
+			name = strings.TrimSpace(name)
+			if rest, ok := strings.CutPrefix(name, "~ "); ok {
+				cat.Provisional = true
+				name = strings.TrimSpace(rest)
+			}
+			cat.Name = name
+			if msg := CheckCategoryName(name); msg != "" {
+				ds.Add(at(indent), "%s", msg)
+			}
+			names := siblingNames[parent]
+			if names == nil {
+				names = map[string]int{}
+				siblingNames[parent] = names
+			}
+			if prev, dup := names[name]; dup && name != "" {
+				ds.Add(at(indent), "category %q appears twice in the same parent (first at line %d)", name, prev)
+			} else {
+				names[name] = lineNo
+			}
+			parent.Children = append(parent.Children, cat)
+			stack = append(stack, cat)
+			continue
+		}
+		if !ValidItemID(body) {
+			if strings.ContainsAny(body, " ") {
+				ds.Add(at(indent), "%q is not an item id (ids have no spaces); a category line ends with \"/\"", clip(body))
+			} else {
+				ds.Add(at(indent), "%q is not a valid item id: %s", clip(body), ItemIDRule)
+			}
+			continue
+		}
+		if prev, dup := seenItem[body]; dup {
+			ds.Add(at(indent), "item %q appears twice (first at line %d); every item appears exactly once", body, prev)
+			continue
+		}
+		seenItem[body] = lineNo
+		parent.Items = append(parent.Items, body)
+		parent.ItemLines = append(parent.ItemLines, lineNo)
+	}
+	root.Walk(func(c *Category, depth int) bool {
+		if depth > 0 && len(c.Children) == 0 && len(c.Items) == 0 {
+			ds.Add(Pos{file, c.Line, 1}, "category %q is empty; a category needs at least one item or subcategory", c.Name)
+		}
+		return true
+	})
+	ds.Sort()
+	return root, structure, ds
+}
+
+func clip(s string) string {
+	if len(s) > 60 {
+		return s[:57] + "..."
+	}
+	return s
+}
+
+func isHex(s string) bool {
+	for _, r := range s {
+		if !strings.ContainsRune("0123456789abcdef", r) {
+			return false
+		}
+	}
+	return s != ""
+}
+
+// FormatOutline prints root in canonical form with the header and a fresh
+// structure hash. root is sorted in place first.
+func FormatOutline(root *Category) []byte {
+	root.Sort()
+	var b bytes.Buffer
+	b.WriteString(OutlineHeader + "\n")
+	b.WriteString("# structure " + StructureHash(root) + "\n")
+	writeTree(&b, root)
+	return b.Bytes()
+}
+
+// FormatTree prints only the lines of the tree (no header), canonical order.
+func FormatTree(root *Category) []byte {
+	root.Sort()
+	var b bytes.Buffer
+	writeTree(&b, root)
+	return b.Bytes()
+}
+
+func writeTree(b *bytes.Buffer, root *Category) { writeNode(b, root, 0) }
+
+// writeNode prints c's subcategories (each followed by its contents), then
+// c's items. Recursion depth is bounded by the tree depth, which parsing
+// limits to MaxDepth and solving to max_depth.
+func writeNode(b *bytes.Buffer, c *Category, depth int) {
+	pad := strings.Repeat("  ", depth)
+	for _, ch := range c.Children {
+		b.WriteString(pad)
+		if ch.Provisional {
+			b.WriteString("~ ")
+		}
+		b.WriteString(ch.Name)
+		b.WriteString("/\n")
+		writeNode(b, ch, depth+1)
+	}
+	for _, it := range c.Items {
+		b.WriteString(pad)
+		b.WriteString(it)
+		b.WriteByte('\n')
+	}
+}
+
+// DisplayName is how a category is shown in reports: its name with the
+// provisional marker.
+func (c *Category) DisplayName() string {
+	if c.Provisional {
+		return "~ " + c.Name
+	}
+	return c.Name
+}
+
+// Paths lists, for every item, the display names from the root (excluded) down to each item.
+func Paths(root *Category) map[string][]string {
+	out := map[string][]string{}
+	var rec func(c *Category, path []string)
+	rec = func(c *Category, path []string) {
+		for _, it := range c.Items {
+			out[it] = append([]string(nil), path...)
+		}
+		for _, ch := range c.Children {
+			rec(ch, append(path, ch.DisplayName()))
+		}
+	}
+	rec(root, nil)
+	return out
+}

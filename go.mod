@@ -1,0 +1,14 @@
+module github.com/ramify-tax/ramify
+
+go 1.26.8
+
+require (
+	github.com/BurntSushi/toml v1.6.0 // indirect
+	github.com/google/go-cmp v0.7.0 // indirect
+	github.com/rogpeppe/go-internal v1.16.0 // indirect
+	github.com/sergi/go-diff v1.4.0 // indirect
+	github.com/spf13/pflag v1.1.0 // indirect
+	golang.org/x/sys v0.50.0 // indirect
+	golang.org/x/term v0.48.0 // indirect
+	gonum.org/v1/gonum v0.17.0 // indirect
+)

@@ -1,0 +1,119 @@
+// Package graph holds the similarity graph ramify clusters: a sparse,
+// symmetric, non-negative weighted graph in compressed sparse row form,
+// and the builders that turn items' tags, text, vectors and links into one.
+package graph
+
+import (
+	"fmt"
+	"math"
+	"sort"
+)
+
+// CSR is an undirected weighted graph on vertices 0..N-1. Row i lists the
+// neighbours of i in increasing order in Targets[Offsets[i]:Offsets[i+1]]
+// with their weights in Weights at the same positions. Every edge is stored
+// in both rows with the same weight; there are no self-loops and no
+// zero-weight entries.
+type CSR struct {
+	N       int
+	Offsets []int64
+	Targets []int32
+	Weights []float64
+}
+
+// Edge is one undirected similarity between two vertices.
+type Edge struct {
+	A, B int32
+	W    float64
+}
+
+// FromEdges builds a CSR from an edge list. Duplicate edges (in either
+// direction) are summed; self-loops and non-positive weights are dropped.
+// The result depends only on the multiset of edges, not their order, as
+// long as duplicates are summed in a fixed order: they are summed in sorted
+// order of (A, B, W), so the floating-point sum is deterministic too.
+func FromEdges(n int, edges []Edge) (*CSR, error) {
+	dir := make([]Edge, 0, 2*len(edges))
+	for _, e := range edges {
+		if e.A < 0 || e.B < 0 || int(e.A) >= n || int(e.B) >= n {
+			return nil, fmt.Errorf("edge %d-%d outside 0..%d", e.A, e.B, n-1)
+		}
+		if math.IsNaN(e.W) || math.IsInf(e.W, 0) {
+			return nil, fmt.Errorf("edge %d-%d has weight %v", e.A, e.B, e.W)
+		}
+		if e.A == e.B || e.W <= 0 {
+			continue
+		}
+		dir = append(dir, Edge{e.A, e.B, e.W}, Edge{e.B, e.A, e.W})
+	}
+	sort.Slice(dir, func(i, j int) bool {
+		if dir[i].A != dir[j].A {
+			return dir[i].A < dir[j].A
+		}
+		if dir[i].B != dir[j].B {
+			return dir[i].B < dir[j].B
+		}
+		return dir[i].W < dir[j].W
+	})
+	g := &CSR{N: n, Offsets: make([]int64, n+1)}
+	for i := 0; i < len(dir); {
+		j := i
+		w := 0.0
+		for j < len(dir) && dir[j].A == dir[i].A && dir[j].B == dir[i].B {
+			w += dir[j].W
+			j++
+		}
+		g.Targets = append(g.Targets, dir[i].B)
+		g.Weights = append(g.Weights, w)
+		g.Offsets[dir[i].A+1]++
+		i = j
+	}
+	for i := 0; i < n; i++ {
+		g.Offsets[i+1] += g.Offsets[i]
+	}
+	return g, nil
+}
+
+// Neighbors returns the neighbour ids and weights of v (shared slices; do
+// not modify).
+func (g *CSR) Neighbors(v int) ([]int32, []float64) {
+	a, b := g.Offsets[v], g.Offsets[v+1]
+	return g.Targets[a:b], g.Weights[a:b]
+}
+
+// NumEdges is the number of undirected edges.
+func (g *CSR) NumEdges() int { return len(g.Targets) / 2 }
+
+// Degree is the weighted degree of v.
+func (g *CSR) Degree(v int) float64 {
+	_, ws := g.Neighbors(v)
+	s := 0.0
+	for _, w := range ws {
+		s += w
+	}
+	return s
+}
+
+// Weight returns w(u,v), 0 when there is no edge (binary search in u's row).
+func (g *CSR) Weight(u, v int) float64 {
+	ts, ws := g.Neighbors(u)
+	k := sort.Search(len(ts), func(i int) bool { return int(ts[i]) >= v })
+	if k < len(ts) && int(ts[k]) == v {
+		return ws[k]
+	}
+	return 0
+}
+
+// Edges lists each undirected edge once, with A < B, in row order.
+func (g *CSR) Edges() []Edge {
+	out := make([]Edge, 0, g.NumEdges())
+	for u := 0; u < g.N; u++ {
+		ts, ws := g.Neighbors(u)
+		for k, t := range ts {
+			if int(t) > u {
+				out = append(out, Edge{int32(u), t, ws[k]})
+			}
+		}
+	}
+	return out
+}
