@@ -1,0 +1,240 @@
+package diff
+
+import (
+	"slices"
+
+	"github.com/ramify-tax/ramify/format"
+)
+
+// comparison holds the two flattened trees, their common items and the
+// category matching that every part of the report reads.
+type comparison struct {
+	old, new *flatTree
+	common   []string // items in both, sorted
+	oldCat   []int    // category of each common item in the old tree
+	newCat   []int    // and in the new
+	onlyOld  []placedItem
+	onlyNew  []placedItem
+	// overlap lists, per old category (index = id − 1), the new categories
+	// sharing members with it and how many.
+	overlap candidateGraph
+	// byNew lists the same overlaps per new category: (old id, count).
+	byNew    [][]catShare
+	matchOld []int // new category matched to each old one, −1 if none
+	matchNew []int
+	// Roles in splits and merges, filled by splitsAndMerges.
+	splitOf, pieceOld []bool // old: split source; part of a merge
+	mergeOf, pieceNew []bool // new: merge result; part of a split
+}
+
+type catShare struct {
+	cat   int
+	count int64
+}
+
+func newComparison(oldRoot, newRoot *format.Category) *comparison {
+	c := &comparison{old: flatten(oldRoot), new: flatten(newRoot)}
+	// Both item lists are sorted by id: merge them.
+	a, b := c.old.items, c.new.items
+	for len(a) > 0 || len(b) > 0 {
+		switch {
+		case len(b) == 0 || len(a) > 0 && a[0].id < b[0].id:
+			c.onlyOld = append(c.onlyOld, a[0])
+			a = a[1:]
+		case len(a) == 0 || b[0].id < a[0].id:
+			c.onlyNew = append(c.onlyNew, b[0])
+			b = b[1:]
+		default:
+			c.common = append(c.common, a[0].id)
+			c.oldCat = append(c.oldCat, a[0].cat)
+			c.newCat = append(c.newCat, b[0].cat)
+			a, b = a[1:], b[1:]
+		}
+	}
+	c.old.setMembers(c.oldCat)
+	c.new.setMembers(c.newCat)
+	// The root (id 0) takes no part in matching.
+	// Where overlaps tie exactly (a category and its only subcategory hold
+	// the same items), the pair with equal names wins.
+	c.overlap = candidates(c.old.members[1:], c.new.members[1:], func(r, x int) bool {
+		return c.old.cats[r+1].DisplayName() != c.new.cats[x+1].DisplayName()
+	})
+	c.byNew = make([][]catShare, len(c.new.cats))
+	for r := range len(c.old.cats) - 1 {
+		for e := c.overlap.start[r]; e < c.overlap.start[r+1]; e++ {
+			x := c.overlap.edges[e]
+			c.byNew[x.col+1] = append(c.byNew[x.col+1], catShare{r + 1, x.inter})
+		}
+	}
+	c.matchOld = make([]int, len(c.old.cats))
+	c.matchNew = make([]int, len(c.new.cats))
+	for i := range c.matchOld {
+		c.matchOld[i] = -1
+	}
+	for i := range c.matchNew {
+		c.matchNew[i] = -1
+	}
+	for r, e := range assign(len(c.old.cats)-1, len(c.new.cats)-1, c.overlap) {
+		if e < 0 {
+			continue
+		}
+		x := c.overlap.edges[e]
+		if float64(x.inter)/float64(x.union) >= MatchJaccard {
+			c.matchOld[r+1], c.matchNew[x.col+1] = int(x.col)+1, r+1
+		}
+	}
+	return c
+}
+
+func (c *comparison) added() []AddedItem {
+	out := make([]AddedItem, 0, len(c.onlyNew))
+	for _, it := range c.onlyNew {
+		out = append(out, AddedItem{Item: it.id, To: c.new.path[it.cat]})
+	}
+	return out
+}
+
+func (c *comparison) removed() []RemovedItem {
+	out := make([]RemovedItem, 0, len(c.onlyOld))
+	for _, it := range c.onlyOld {
+		out = append(out, RemovedItem{Item: it.id, From: c.old.path[it.cat]})
+	}
+	return out
+}
+
+// moved compares each common item's category chains through the
+// matching. The answer depends only on the item's two categories, so it is
+// worked out once per pair of categories.
+func (c *comparison) moved() []Move {
+	out := []Move{}
+	type place struct{ old, new int }
+	verdict := map[place]bool{}
+	var chainOld, chainNew []int
+	for i, it := range c.common {
+		p := place{c.oldCat[i], c.newCat[i]}
+		isMoved, seen := verdict[p]
+		if !seen {
+			chainOld = c.old.chain(p.old, chainOld)
+			chainNew = c.new.chain(p.new, chainNew)
+			isMoved = len(chainOld) != len(chainNew)
+			for k := 0; !isMoved && k < len(chainOld); k++ {
+				isMoved = c.matchOld[chainOld[k]] != chainNew[k]
+			}
+			verdict[p] = isMoved
+		}
+		if isMoved {
+			out = append(out, Move{Item: it, From: c.old.path[p.old], To: c.new.path[p.new]})
+		}
+	}
+	return out
+}
+
+func (c *comparison) renamed() []Rename {
+	out := []Rename{}
+	for o := 1; o < len(c.old.cats); o++ {
+		n := c.matchOld[o]
+		if n > 0 && c.old.cats[o].DisplayName() != c.new.cats[n].DisplayName() {
+			out = append(out, Rename{From: c.old.path[o], To: c.new.path[n]})
+		}
+	}
+	slices.SortFunc(out, func(a, b Rename) int { return comparePaths(a.From, b.From) })
+	return out
+}
+
+// mostly reports part ≥ 80% of whole, in integers.
+func mostly(part, whole int64) bool { return 5*part >= 4*whole }
+
+// share reports part ≥ 20% of whole.
+func share(part, whole int64) bool { return 5*part >= whole }
+
+// parts finds the pieces of category a of tree t in the other tree u (the
+// split rule when t is old, the merge rule when t is new; see Compare).
+// shares lists u's categories overlapping a with the overlap counts; match
+// maps u's categories to t's.
+func parts(a int, t, u *flatTree, shares []catShare, match []int) (pieces []int, covered int64) {
+	size := int64(len(t.members[a]))
+	inA := make(map[int]int64, len(shares))
+	for _, s := range shares {
+		if mostly(s.count, int64(len(u.members[s.cat]))) {
+			inA[s.cat] = s.count
+		}
+	}
+	for x, count := range inA {
+		maximal := true
+		for p := u.parent[x]; p > 0; p = u.parent[p] {
+			if _, ok := inA[p]; ok {
+				maximal = false
+				break
+			}
+		}
+		if !maximal || (match[x] >= 0 && match[x] != a) || !share(count, size) {
+			continue
+		}
+		pieces = append(pieces, x)
+		covered += count
+	}
+	slices.Sort(pieces)
+	return pieces, covered
+}
+
+func (c *comparison) splitsAndMerges() ([]Split, []Merge) {
+	splits, merges := []Split{}, []Merge{}
+	c.splitOf = make([]bool, len(c.old.cats))
+	c.pieceNew = make([]bool, len(c.new.cats))
+	c.mergeOf = make([]bool, len(c.new.cats))
+	c.pieceOld = make([]bool, len(c.old.cats))
+	for a := 1; a < len(c.old.cats); a++ {
+		r := a - 1
+		shares := make([]catShare, 0, c.overlap.start[r+1]-c.overlap.start[r])
+		for e := c.overlap.start[r]; e < c.overlap.start[r+1]; e++ {
+			x := c.overlap.edges[e]
+			shares = append(shares, catShare{int(x.col) + 1, x.inter})
+		}
+		pieces, covered := parts(a, c.old, c.new, shares, c.matchNew)
+		if len(pieces) < 2 || !mostly(covered, int64(len(c.old.members[a]))) {
+			continue
+		}
+		s := Split{From: c.old.path[a]}
+		for _, x := range pieces {
+			s.Into = append(s.Into, c.new.path[x])
+			c.pieceNew[x] = true
+		}
+		c.splitOf[a] = true
+		slices.SortFunc(s.Into, comparePaths)
+		splits = append(splits, s)
+	}
+	for x := 1; x < len(c.new.cats); x++ {
+		pieces, covered := parts(x, c.new, c.old, c.byNew[x], c.matchOld)
+		if len(pieces) < 2 || !mostly(covered, int64(len(c.new.members[x]))) {
+			continue
+		}
+		m := Merge{Into: c.new.path[x]}
+		for _, a := range pieces {
+			m.From = append(m.From, c.old.path[a])
+			c.pieceOld[a] = true
+		}
+		c.mergeOf[x] = true
+		slices.SortFunc(m.From, comparePaths)
+		merges = append(merges, m)
+	}
+	slices.SortFunc(splits, func(a, b Split) int { return comparePaths(a.From, b.From) })
+	slices.SortFunc(merges, func(a, b Merge) int { return comparePaths(a.Into, b.Into) })
+	return splits, merges
+}
+
+func (c *comparison) createdAndDissolved() (created, dissolved []Path) {
+	created, dissolved = []Path{}, []Path{}
+	for x := 1; x < len(c.new.cats); x++ {
+		if c.matchNew[x] < 0 && !c.pieceNew[x] && !c.mergeOf[x] {
+			created = append(created, c.new.path[x])
+		}
+	}
+	for a := 1; a < len(c.old.cats); a++ {
+		if c.matchOld[a] < 0 && !c.splitOf[a] && !c.pieceOld[a] {
+			dissolved = append(dissolved, c.old.path[a])
+		}
+	}
+	slices.SortFunc(created, comparePaths)
+	slices.SortFunc(dissolved, comparePaths)
+	return created, dissolved
+}

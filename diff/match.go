@@ -1,0 +1,156 @@
+package diff
+
+import (
+	"fmt"
+	"slices"
+)
+
+// Pair is one old cluster matched to one new cluster, with their Jaccard
+// overlap |old ∩ new| / |old ∪ new|.
+type Pair struct {
+	Old, New int
+	Jaccard  float64
+}
+
+// MatchClusters pairs old clusters with new ones so that the total Jaccard
+// overlap is as large as possible — a maximum-weight bipartite matching
+// (Kuhn 1955; Munkres 1957) — and then keeps the pairs whose overlap is at
+// least minJaccard. The threshold is applied after matching, as METHODS.md
+// section 10 specifies: a weak pair still takes part in the optimum, and a
+// cluster whose best partner is taken elsewhere is left unmatched rather
+// than given a worse partner that would lower the total.
+//
+// old and new hold leaf sets, each sorted ascending without repeats. Only
+// pairs that share a leaf are candidates, found through an inverted index
+// in time Σ_leaves (#old sets holding it × #new sets holding it).
+//
+// Ties are broken deterministically: weights are Jaccard values rounded to
+// 2⁻³⁰; among matchings of equal total weight the one with the larger sum
+// of squared weights wins (it prefers one strong pair to two middling
+// ones), and any tie left is decided by the fixed order of the search (old
+// clusters in index order, the smaller index first on equal distance).
+//
+// The assignment is solved by successive shortest augmenting paths with
+// node potentials (the Hungarian method in the sparse form of Jonker &
+// Volgenant 1987), each old cluster also having a private "unmatched"
+// option of weight 0. Every search starts at one old cluster and stops at
+// the first free partner, so it stays inside its component of the
+// candidate graph; the worst case is O(k·(E + k) log k) for a component
+// with k clusters and E candidate pairs, and on two versions of a
+// taxonomy most searches end after one step.
+//
+// The result is sorted by Old.
+func MatchClusters(old, new [][]int32, minJaccard float64) []Pair {
+	cand := candidates(old, new, nil)
+	matchOf := assign(len(old), len(new), cand)
+	var out []Pair
+	for r, e := range matchOf {
+		if e < 0 {
+			continue
+		}
+		c := cand.edges[e]
+		j := float64(c.inter) / float64(c.union)
+		if j >= minJaccard {
+			out = append(out, Pair{Old: r, New: int(c.col), Jaccard: j})
+		}
+	}
+	return out
+}
+
+// candidate is a pair of clusters that share at least one leaf.
+type candidate struct {
+	col          int32
+	inter, union int64
+	w            cost // 2·scale − weight, lexicographic (see weightCost)
+}
+
+// candidateGraph is the candidate pairs in compressed rows: the pairs of
+// old cluster r are edges[start[r]:start[r+1]], by increasing column.
+type candidateGraph struct {
+	start []int
+	edges []candidate
+}
+
+func checkSorted(sets [][]int32, which string) int32 {
+	top := int32(-1)
+	for i, s := range sets {
+		for k, v := range s {
+			if v < 0 || k > 0 && v <= s[k-1] {
+				panic(fmt.Sprintf("diff: %s cluster %d is not sorted without repeats", which, i))
+			}
+		}
+		if len(s) > 0 {
+			top = max(top, s[len(s)-1])
+		}
+	}
+	return top
+}
+
+// candidates lists the pairs of clusters that share leaves. differ, if not
+// nil, marks pairs that a third criterion should avoid when the weights
+// tie (Compare: pairs whose names differ).
+func candidates(old, new [][]int32, differ func(r, c int) bool) candidateGraph {
+	top := max(checkSorted(old, "old"), checkSorted(new, "new"))
+	// Inverted index of the new sets: holders[leafStart[l]:leafStart[l+1]].
+	leafStart := make([]int, top+2)
+	for _, s := range new {
+		for _, l := range s {
+			leafStart[l+1]++
+		}
+	}
+	for l := 1; l < len(leafStart); l++ {
+		leafStart[l] += leafStart[l-1]
+	}
+	holders := make([]int32, leafStart[len(leafStart)-1])
+	fill := slices.Clone(leafStart)
+	for j, s := range new {
+		for _, l := range s {
+			holders[fill[l]] = int32(j)
+			fill[l]++
+		}
+	}
+	g := candidateGraph{start: make([]int, len(old)+1)}
+	count := make([]int64, len(new))
+	var touched []int32
+	for r, s := range old {
+		touched = touched[:0]
+		for _, l := range s {
+			for _, j := range holders[leafStart[l]:leafStart[l+1]] {
+				if count[j] == 0 {
+					touched = append(touched, j)
+				}
+				count[j]++
+			}
+		}
+		slices.Sort(touched)
+		for _, j := range touched {
+			inter := count[j]
+			union := int64(len(s)) + int64(len(new[j])) - inter
+			w := weightCost(inter, union)
+			if differ != nil && differ(r, int(j)) {
+				w.c = 1
+			}
+			g.edges = append(g.edges, candidate{col: j, inter: inter, union: union, w: w})
+			count[j] = 0
+		}
+		g.start[r+1] = len(g.edges)
+	}
+	return g
+}
+
+// weightScale is the resolution of the matching weights, 2³⁰.
+const weightScale = 1 << 30
+
+// weightCost turns a Jaccard value into a cost to minimise: the rounded
+// weight q = J·2³⁰ and its square q² (rescaled) become the cost
+// (2³⁰ − q, 2³⁰ − q², 0), compared lexicographically. Integer arithmetic
+// makes ties exact and the result the same on every platform.
+func weightCost(inter, union int64) cost {
+	q := (inter<<30 + union/2) / union
+	q2 := (q*q + weightScale/2) >> 30
+	return cost{weightScale - q, weightScale - q2, 0}
+}
+
+// unmatchedCost is the cost of leaving an old cluster without a partner:
+// the cost of a pair of weight 0 that a tie-break would avoid.
+var unmatchedCost = cost{weightScale, weightScale, 1}

@@ -1,0 +1,126 @@
+package diff
+
+import (
+	"bufio"
+	"fmt"
+	"io"
+	"strings"
+)
+
+// collapseAfter is the longest list shown open in Markdown; longer ones
+// fold into a <details> block so a pull request stays readable.
+const collapseAfter = 10
+
+// Markdown writes the report for a pull request or review comment: a
+// heading and a one-line summary, a table of category changes, tables of
+// moved, added and removed items (folded when long), and the measures.
+func (r *Report) Markdown(w io.Writer) {
+	b := bufio.NewWriter(w)
+	defer b.Flush()
+	p := func(format string, args ...any) { fmt.Fprintf(b, format, args...) }
+	p("### Taxonomy changes\n\n")
+	m := r.Metrics
+	if r.Empty() {
+		p("**No changes**: %s in the same places.\n", counted(m.CommonItems, "item", "items"))
+	} else {
+		p("**%s** (%s in both versions)\n", strings.Join(r.summaryParts(), ", "), counted(m.CommonItems, "item", "items"))
+	}
+
+	var rows [][3]string
+	for _, s := range r.Split {
+		rows = append(rows, [3]string{"split", mdPath(s.From), mdPaths(s.Into)})
+	}
+	for _, g := range r.Merged {
+		rows = append(rows, [3]string{"merged", mdPaths(g.From), mdPath(g.Into)})
+	}
+	for _, n := range r.Renamed {
+		rows = append(rows, [3]string{"renamed", mdPath(n.From), mdPath(n.To)})
+	}
+	for _, c := range r.Created {
+		rows = append(rows, [3]string{"created", "", mdPath(c)})
+	}
+	for _, d := range r.Dissolved {
+		rows = append(rows, [3]string{"dissolved", mdPath(d), ""})
+	}
+	if len(rows) > 0 {
+		p("\n#### Categories\n\n")
+		folded(b, len(rows), counted(len(rows), "category change", "category changes"), func() {
+			p("| change | before | after |\n| --- | --- | --- |\n")
+			for _, row := range rows {
+				p("| %s | %s | %s |\n", row[0], row[1], row[2])
+			}
+		})
+	}
+
+	if len(r.Moved) > 0 {
+		p("\n#### Moved items\n\n")
+		folded(b, len(r.Moved), counted(len(r.Moved), "moved item", "moved items"), func() {
+			p("| item | from | to |\n| --- | --- | --- |\n")
+			for _, mv := range r.Moved {
+				p("| `%s` | %s | %s |\n", mv.Item, mdPath(mv.From), mdPath(mv.To))
+			}
+		})
+	}
+	if len(r.Added) > 0 {
+		p("\n#### Added items\n\n")
+		folded(b, len(r.Added), counted(len(r.Added), "added item", "added items"), func() {
+			p("| item | in |\n| --- | --- |\n")
+			for _, a := range r.Added {
+				p("| `%s` | %s |\n", a.Item, mdPath(a.To))
+			}
+		})
+	}
+	if len(r.Removed) > 0 {
+		p("\n#### Removed items\n\n")
+		folded(b, len(r.Removed), counted(len(r.Removed), "removed item", "removed items"), func() {
+			p("| item | was in |\n| --- | --- |\n")
+			for _, rm := range r.Removed {
+				p("| `%s` | %s |\n", rm.Item, mdPath(rm.From))
+			}
+		})
+	}
+
+	p("\n#### Tree comparison\n\n")
+	p("On the %s in both versions.\n\n", counted(m.CommonItems, "item", "items"))
+	p("| measure | value |\n| --- | --- |\n")
+	p("| triplet agreement | %s |\n", m.tripletText())
+	p("| Robinson–Foulds distance | %s |\n", m.rfText())
+	p("| cophenetic correlation | %s |\n", m.copheneticText())
+}
+
+// folded writes body directly when it has at most collapseAfter rows, and
+// inside a <details> block titled summary otherwise. The blank lines
+// around the body let the Markdown inside render.
+func folded(b *bufio.Writer, rows int, summary string, body func()) {
+	if rows <= collapseAfter {
+		body()
+		return
+	}
+	fmt.Fprintf(b, "<details><summary>%s</summary>\n\n", summary)
+	body()
+	b.WriteString("\n</details>\n")
+}
+
+func mdPath(p Path) string { return mdEscape(p.String()) }
+
+func mdPaths(ps []Path) string {
+	parts := make([]string, len(ps))
+	for i, p := range ps {
+		parts[i] = mdPath(p)
+	}
+	return strings.Join(parts, "<br>")
+}
+
+// mdEscape keeps a category name literal in a table cell: Markdown's
+// punctuation is backslash-escaped (CommonMark allows that before any ASCII
+// punctuation) and "|" cannot end the cell.
+func mdEscape(s string) string {
+	var b strings.Builder
+	for _, r := range s {
+		if strings.ContainsRune("\\`*_{}[]<>()#+!|~&", r) {
+			b.WriteByte('\\')
+		}
+		b.WriteRune(r)
+	}
+	return b.String()
+}

@@ -1,0 +1,422 @@
+package solve
+
+import "sort"
+
+// BUILD (Aho, Sagiv, Szymanski & Ullman, SIAM J. Comput. 10, 1981) extended
+// with cluster constraints (METHODS 4.1–4.2). At a set S the Aho graph joins
+// a and b for every triplet ab|c with a, b, c ∈ S, and all of C for every
+// cluster C ⊊ S; its components become the children of S. If the graph is
+// connected the constraints restricted to S are inconsistent. A triplet
+// whose c lands in another component than a, b is displayed from then on
+// and dropped; one that stays whole is handed to the child holding it, so
+// every triplet is active at exactly one split and a run costs
+// O((n + |R|) · depth) with one union-find pass per set.
+
+// Build runs BUILD on leaves 0..n-1 and returns the (generally multiway)
+// tree it produces, which displays every constraint, or ok = false when the
+// constraints are inconsistent. Children are ordered by smallest leaf.
+// Leaf ids must lie in 0..n-1.
+func Build(n int, c *Constraints) (*Tree, bool) {
+	p := compileBuild(n, c, nil)
+	if p.selfConflict >= 0 {
+		return nil, false
+	}
+	t, fail := p.run(true)
+	if fail != nil {
+		return nil, false
+	}
+	return t, true
+}
+
+// Consistent decides whether some tree on leaves 0..n-1 displays every
+// constraint. When none does, it also returns a minimal conflicting set of
+// record indices, ascending: the records together are inconsistent, and
+// dropping any one of them leaves a consistent set. The set is found by
+// shrinking BUILD's failure witness (the records whose Aho edges connect
+// the failing set) to a fixed point and then running a deletion filter, one
+// BUILD per record, over the survivors; it is deterministic.
+func Consistent(n int, c *Constraints) (bool, []int) {
+	p := compileBuild(n, c, nil)
+	if p.selfConflict >= 0 {
+		return false, []int{p.selfConflict}
+	}
+	_, fail := p.run(false)
+	if fail == nil {
+		return true, nil
+	}
+	// Shrink: the witness of a failing BUILD on the witness records alone
+	// is again inconsistent and no larger.
+	set := fail
+	for {
+		q := compileBuild(n, c, recordFilter(set))
+		_, f := q.run(false)
+		if f == nil || len(f) >= len(set) {
+			break
+		}
+		set = f
+	}
+	// Deletion filter: drop each record whose removal keeps the rest
+	// inconsistent.
+	keep := append([]int(nil), set...)
+	for _, r := range set {
+		trial := make([]int, 0, len(keep))
+		for _, k := range keep {
+			if k != r {
+				trial = append(trial, k)
+			}
+		}
+		q := compileBuild(n, c, recordFilter(trial))
+		if q.selfConflict >= 0 {
+			keep = trial
+			continue
+		}
+		if _, f := q.run(false); f != nil {
+			keep = trial
+		}
+	}
+	return false, keep
+}
+
+func recordFilter(records []int) map[int]bool {
+	m := make(map[int]bool, len(records))
+	for _, r := range records {
+		m[r] = true
+	}
+	return m
+}
+
+// buildProblem is a constraint set compiled for BUILD over a compact leaf
+// universe: only leaves some selected record mentions take part, because
+// leaves no constraint mentions can always be added to a displaying tree
+// (as extra children of its root) without changing what it displays.
+type buildProblem struct {
+	n        int     // size of the compact universe
+	leafOf   []int32 // compact id → original leaf id (ascending)
+	trips    []Triplet
+	clusters [][]int32 // deduplicated, ascending, compact ids, size ≥ 2
+	clusRec  []int
+	// selfConflict is the record of a triplet ab|a (never displayable), or -1.
+	selfConflict int
+}
+
+// compileBuild selects the records in keep (all when keep is nil) and maps
+// their leaves to the compact universe. With keep == nil the universe is all
+// n leaves, so that Build can return a tree over them.
+func compileBuild(n int, c *Constraints, keep map[int]bool) *buildProblem {
+	p := &buildProblem{selfConflict: -1}
+	if c == nil {
+		c = &Constraints{}
+	}
+	compact := make(map[int32]int32)
+	use := func(leaf int32) int32 {
+		if keep == nil {
+			return leaf
+		}
+		if id, ok := compact[leaf]; ok {
+			return id
+		}
+		id := int32(len(compact))
+		compact[leaf] = id
+		return id
+	}
+	// Compact ids are assigned in ascending order of the original id so that
+	// "smallest leaf" means the same in both universes.
+	if keep != nil {
+		var leaves []int32
+		for _, t := range c.Triplets {
+			if keep[t.Record] {
+				leaves = append(leaves, t.A, t.B, t.C)
+			}
+		}
+		for _, cl := range c.Clusters {
+			if keep[cl.Record] {
+				leaves = append(leaves, cl.Leaves...)
+			}
+		}
+		sort.Slice(leaves, func(i, j int) bool { return leaves[i] < leaves[j] })
+		for _, l := range leaves {
+			use(l)
+		}
+		p.n = len(compact)
+		p.leafOf = make([]int32, p.n)
+		for l, id := range compact {
+			p.leafOf[id] = l
+		}
+	} else {
+		p.n = n
+	}
+	for _, t := range c.Triplets {
+		if keep != nil && !keep[t.Record] {
+			continue
+		}
+		if t.C == t.A || t.C == t.B {
+			if p.selfConflict < 0 || t.Record < p.selfConflict {
+				p.selfConflict = t.Record
+			}
+			continue
+		}
+		if t.A == t.B {
+			continue // aa|c holds in every tree
+		}
+		p.trips = append(p.trips, Triplet{use(t.A), use(t.B), use(t.C), t.Record})
+	}
+	for _, cl := range c.Clusters {
+		if keep != nil && !keep[cl.Record] {
+			continue
+		}
+		ls := make([]int32, len(cl.Leaves))
+		for i, l := range cl.Leaves {
+			ls[i] = use(l)
+		}
+		ls = sortedUnique(ls)
+		if len(ls) < 2 {
+			continue // a single leaf is always a node
+		}
+		p.clusters = append(p.clusters, ls)
+		p.clusRec = append(p.clusRec, cl.Record)
+	}
+	return p
+}
+
+func sortedUnique(ls []int32) []int32 {
+	sort.Slice(ls, func(i, j int) bool { return ls[i] < ls[j] })
+	out := ls[:0]
+	for i, l := range ls {
+		if i == 0 || l != ls[i-1] {
+			out = append(out, l)
+		}
+	}
+	return out
+}
+
+// unionFind over leaf ids; reset only the leaves of the current set.
+type unionFind []int32
+
+func (u unionFind) find(x int32) int32 {
+	for u[x] != x {
+		u[x] = u[u[x]]
+		x = u[x]
+	}
+	return x
+}
+
+// union joins the sets of a and b, reporting whether they were apart. The
+// smaller root becomes the representative, so the result does not depend
+// on the order of unions.
+func (u unionFind) union(a, b int32) bool {
+	ra, rb := u.find(a), u.find(b)
+	if ra == rb {
+		return false
+	}
+	if ra < rb {
+		u[rb] = ra
+	} else {
+		u[ra] = rb
+	}
+	return true
+}
+
+// buildTask is one recursion set: order[lo:hi] are its leaves (ascending),
+// trip[tlo:thi] and clus[clo:chi] its active constraints, node its id.
+type buildTask struct {
+	lo, hi, tlo, thi, clo, chi int
+	node                       int32
+}
+
+// run executes BUILD. On failure it returns the records whose Aho edges
+// connect the failing set (ascending, without repeats).
+func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
+	n := p.n
+	if n == 0 {
+		return NewTree(0), nil
+	}
+	order := make([]int32, n)
+	for i := range order {
+		order[i] = int32(i)
+	}
+	trip := make([]int32, len(p.trips))
+	for i := range trip {
+		trip[i] = int32(i)
+	}
+	clus := make([]int32, 0, len(p.clusters))
+	for i, cl := range p.clusters {
+		if len(cl) < n {
+			clus = append(clus, int32(i))
+		}
+	}
+	uf := make(unionFind, n)
+	compOf := make([]int32, n) // leaf → child index within the current set
+	firstOf := make([]int32, n)
+	var tmp []int32
+	var counts []int
+	var t *Tree
+	if wantTree {
+		t = NewTree(n)
+	}
+	var stack []buildTask
+	root := int32(0)
+	if n > 1 && wantTree {
+		root = t.Add()
+	}
+	stack = append(stack, buildTask{0, n, 0, len(trip), 0, len(clus), root})
+	for len(stack) > 0 {
+		tk := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		set := order[tk.lo:tk.hi]
+		if len(set) < 2 {
+			continue
+		}
+		for _, l := range set {
+			uf[l] = l
+		}
+		var witness []int
+		for _, ti := range trip[tk.tlo:tk.thi] {
+			tr := p.trips[ti]
+			if uf.union(tr.A, tr.B) {
+				witness = append(witness, tr.Record)
+			}
+		}
+		for _, ci := range clus[tk.clo:tk.chi] {
+			cl := p.clusters[ci]
+			for _, l := range cl[1:] {
+				if uf.union(cl[0], l) {
+					witness = append(witness, p.clusRec[ci])
+				}
+			}
+		}
+		// Children in order of their smallest leaf: set is ascending, so
+		// first appearance of a root gives that order.
+		nc := int32(0)
+		for _, l := range set {
+			r := uf.find(l)
+			if r == l {
+				firstOf[l] = nc
+				nc++
+			}
+		}
+		if nc == 1 {
+			return nil, uniqueInts(witness)
+		}
+		for _, l := range set {
+			compOf[l] = firstOf[uf.find(l)]
+		}
+		counts = stablePartition(set, compOf, int(nc), &tmp, counts)
+		// Constraints go to the child that holds them whole.
+		tripSeg := trip[tk.tlo:tk.thi]
+		keepT := 0
+		for _, ti := range tripSeg {
+			tr := p.trips[ti]
+			if compOf[tr.A] == compOf[tr.C] {
+				tripSeg[keepT] = ti
+				keepT++
+			}
+		}
+		tripCounts := partitionByKey(tripSeg[:keepT], func(ti int32) int32 { return compOf[p.trips[ti].A] }, int(nc), &tmp)
+		clusSeg := clus[tk.clo:tk.chi]
+		keepC := 0
+		for _, ci := range clusSeg {
+			cl := p.clusters[ci]
+			if len(cl) < counts[compOf[cl[0]]] {
+				clusSeg[keepC] = ci
+				keepC++
+			}
+		}
+		clusCounts := partitionByKey(clusSeg[:keepC], func(ci int32) int32 { return compOf[p.clusters[ci][0]] }, int(nc), &tmp)
+		lo, tlo, clo := tk.lo, tk.tlo, tk.clo
+		var kids []int32
+		var childTasks []buildTask
+		for k := 0; k < int(nc); k++ {
+			sz := counts[k]
+			child := buildTask{lo, lo + sz, tlo, tlo + tripCounts[k], clo, clo + clusCounts[k], -1}
+			if sz == 1 {
+				child.node = order[lo]
+			} else if wantTree {
+				child.node = t.Add()
+			}
+			kids = append(kids, child.node)
+			if sz > 1 {
+				childTasks = append(childTasks, child)
+			}
+			lo += sz
+			tlo += tripCounts[k]
+			clo += clusCounts[k]
+		}
+		if wantTree {
+			t.Kids[tk.node] = kids
+		}
+		for k := len(childTasks) - 1; k >= 0; k-- {
+			stack = append(stack, childTasks[k])
+		}
+	}
+	if wantTree {
+		t.Root = root
+	}
+	return t, nil
+}
+
+// stablePartition reorders set by key[leaf] (0..k-1), keeping the order
+// within each key, and returns the count per key.
+func stablePartition(set []int32, key []int32, k int, tmp *[]int32, counts []int) []int {
+	if cap(counts) < k {
+		counts = make([]int, k)
+	}
+	counts = counts[:k]
+	for i := range counts {
+		counts[i] = 0
+	}
+	for _, l := range set {
+		counts[key[l]]++
+	}
+	if cap(*tmp) < len(set) {
+		*tmp = make([]int32, len(set))
+	}
+	buf := (*tmp)[:len(set)]
+	starts := make([]int, k)
+	s := 0
+	for i, c := range counts {
+		starts[i] = s
+		s += c
+	}
+	for _, l := range set {
+		buf[starts[key[l]]] = l
+		starts[key[l]]++
+	}
+	copy(set, buf)
+	return counts
+}
+
+// partitionByKey is stablePartition for items whose key is computed.
+func partitionByKey(items []int32, key func(int32) int32, k int, tmp *[]int32) []int {
+	counts := make([]int, k)
+	for _, it := range items {
+		counts[key(it)]++
+	}
+	if cap(*tmp) < len(items) {
+		*tmp = make([]int32, len(items))
+	}
+	buf := (*tmp)[:len(items)]
+	starts := make([]int, k)
+	s := 0
+	for i, c := range counts {
+		starts[i] = s
+		s += c
+	}
+	for _, it := range items {
+		kk := key(it)
+		buf[starts[kk]] = it
+		starts[kk]++
+	}
+	copy(items, buf)
+	return counts
+}
+
+func uniqueInts(xs []int) []int {
+	sort.Ints(xs)
+	out := xs[:0]
+	for i, x := range xs {
+		if i == 0 || x != xs[i-1] {
+			out = append(out, x)
+		}
+	}
+	return out
+}

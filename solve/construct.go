@@ -1,0 +1,866 @@
+package solve
+
+import (
+	"errors"
+	"math"
+	"math/bits"
+	"runtime"
+	"sync"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// The constrained top-down construction (DESIGN 8 step 3, METHODS 4.3).
+// Each recursion set S is a segment order[lo:hi] of one leaf permutation,
+// kept in ascending leaf order until it is finished. Per set:
+//
+//  1. the Aho graph of the constraints active in S is built by union-find;
+//     its components are super-nodes (with masses = their sizes), which no
+//     split may cut;
+//  2. small sets are finished by an exact subset DP over leaves that only
+//     splits along unions of Aho components (optimal for the subtree);
+//  3. otherwise G[S] is contracted onto the super-nodes; disconnected parts
+//     are split apart at zero cost; two super-nodes force the split; a few
+//     super-nodes are split by the DP over super-nodes; the rest by the
+//     Fiedler vector of the contracted graph and a sweep over uniform
+//     sparsity with masses;
+//  4. both sides are pushed on an explicit work stack with the constraints
+//     they hold whole.
+//
+// A split is recorded as the depth of its node at the gap between the two
+// sides in the final permutation, so the binary tree is the Cartesian tree
+// of those gap depths (treeFromGaps). Every step costs O(|S| + edges of
+// G[S] + active constraints), with buffers reused across sets.
+
+const (
+	// leafDPLimit: sets of at most this many leaves are finished exactly.
+	// The DP costs about 3^s/2 steps, so 10 keeps it cheap at n = 10^5.
+	leafDPLimit = 10
+	// superDPLimit: at most this many super-nodes are split by the DP over
+	// super-nodes instead of the spectral sweep.
+	superDPLimit = 10
+)
+
+type constructParams struct {
+	seed     uint64
+	progress func(stage string, done, total int)
+	// leafDP and superDP override the limits above (0 = default; a value
+	// of 1 turns the DP off, which tests use to check the spectral path).
+	leafDP, superDP int
+}
+
+// construct builds the binary tree. c must be consistent.
+func construct(g *graph.CSR, c *Constraints, p constructParams) (*Tree, error) {
+	n := g.N
+	if p.leafDP == 0 {
+		p.leafDP = leafDPLimit
+	}
+	if p.superDP == 0 {
+		p.superDP = superDPLimit
+	}
+	if p.progress == nil {
+		p.progress = func(string, int, int) {}
+	}
+	b := &builder{g: g, n: n, params: p}
+	b.compile(c)
+	if n == 1 {
+		return NewTree(1), nil
+	}
+	b.order = make([]int32, n)
+	for i := range b.order {
+		b.order[i] = int32(i)
+	}
+	b.gapDepth = make([]int32, n)
+	b.uf = make(unionFind, n)
+	b.local = make([]int32, n)
+	b.side = make([]int8, n)
+	if err := b.runWorkers(); err != nil {
+		return nil, err
+	}
+	p.progress("construct", n, n)
+	return treeFromGaps(n, b.order, b.gapDepth), nil
+}
+
+// runWorkers processes the work stack with one worker per available CPU
+// (at most maxConstructWorkers). The result does not depend on how many
+// run or in which order they take tasks: every set owns its segments of
+// the shared arrays and its leaves' entries, and nothing it computes
+// depends on other sets.
+func (b *builder) runWorkers() error {
+	workers := min(runtime.GOMAXPROCS(0), maxConstructWorkers)
+	var (
+		mu       sync.Mutex
+		cond     = sync.NewCond(&mu)
+		stack    = []ctask{{0, b.n, 0, len(b.trip), 0, len(b.clus), 0}}
+		busy     = 0
+		done     = 0
+		reported = 0
+		firstErr error
+	)
+	var wg sync.WaitGroup
+	for i := 0; i < workers; i++ {
+		wg.Add(1)
+		go func() {
+			defer wg.Done()
+			w := newConstructWorker(b.n)
+			mu.Lock()
+			for {
+				for len(stack) == 0 && busy > 0 && firstErr == nil {
+					cond.Wait()
+				}
+				if len(stack) == 0 || firstErr != nil {
+					mu.Unlock()
+					cond.Broadcast()
+					return
+				}
+				tk := stack[len(stack)-1]
+				stack = stack[:len(stack)-1]
+				busy++
+				mu.Unlock()
+				kids, finished, err := b.process(w, tk)
+				mu.Lock()
+				busy--
+				if err != nil && firstErr == nil {
+					firstErr = err
+				}
+				stack = append(stack, kids...)
+				done += finished
+				if done-reported >= b.n/100+1 {
+					b.params.progress("construct", done, b.n)
+					reported = done
+				}
+				cond.Broadcast()
+			}
+		}()
+	}
+	wg.Wait()
+	return firstErr
+}
+
+// maxConstructWorkers caps the parallelism of the construction.
+const maxConstructWorkers = 8
+
+type ctask struct {
+	lo, hi, tlo, thi, clo, chi int
+	depth                      int32
+}
+
+// builder holds the state shared by all recursion sets; each set owns its
+// segments of order, trip and clus and its leaves' entries in uf, local and
+// side.
+type builder struct {
+	g        *graph.CSR
+	n        int
+	params   constructParams
+	trips    []Triplet // non-trivial triplets (three distinct leaves)
+	clusters [][]int32 // deduplicated, ascending, at least two leaves
+	order    []int32
+	gapDepth []int32
+	trip     []int32
+	clus     []int32
+	uf       unionFind
+	local    []int32 // leaf → super-node index in its current set
+	side     []int8
+}
+
+func (b *builder) compile(c *Constraints) {
+	for _, t := range c.Triplets {
+		if t.A == t.B {
+			continue
+		}
+		b.trips = append(b.trips, t)
+	}
+	for _, cl := range c.Clusters {
+		ls := sortedUnique(append([]int32(nil), cl.Leaves...))
+		if len(ls) >= 2 && len(ls) < b.n {
+			b.clusters = append(b.clusters, ls)
+		}
+	}
+	b.trip = make([]int32, len(b.trips))
+	for i := range b.trip {
+		b.trip[i] = int32(i)
+	}
+	b.clus = make([]int32, len(b.clusters))
+	for i := range b.clus {
+		b.clus[i] = int32(i)
+	}
+}
+
+// constructWorker is the scratch space of one worker.
+type constructWorker struct {
+	mark   []int32 // leaf → stamp of the set it was last seen in
+	stamp  int32
+	first  []int32 // super-node → smallest leaf
+	memOff []int32
+	member []int32
+	hOff   []int64
+	hTgt   []int32
+	hW     []float64
+	accPos []int32
+	mass   []float64
+	vol    []float64
+	deg    []float64
+	comp   []int32
+	queue  []int32
+	sideU  []int8
+	tmp    []int32
+	sp     spectralWork
+	sw     sweepWork
+	dp     subsetDP
+}
+
+func newConstructWorker(n int) *constructWorker {
+	return &constructWorker{mark: make([]int32, n)}
+}
+
+func growInt32(buf []int32, n int) []int32 {
+	if cap(buf) < n {
+		return make([]int32, n, n+n/4)
+	}
+	return buf[:n]
+}
+
+func growInt8(buf []int8, n int) []int8 {
+	if cap(buf) < n {
+		return make([]int8, n, n+n/4)
+	}
+	return buf[:n]
+}
+
+var errInconsistent = errors.New("solve: constraints are inconsistent")
+
+// process splits one set and returns the child tasks and how many leaves
+// it finished.
+func (b *builder) process(w *constructWorker, tk ctask) ([]ctask, int, error) {
+	set := b.order[tk.lo:tk.hi]
+	s := len(set)
+	if s == 1 {
+		return nil, 1, nil
+	}
+	w.stamp++
+	for _, l := range set {
+		w.mark[l] = w.stamp
+		b.uf[l] = l
+	}
+	for _, ti := range b.trip[tk.tlo:tk.thi] {
+		tr := b.trips[ti]
+		b.uf.union(tr.A, tr.B)
+	}
+	for _, ci := range b.clus[tk.clo:tk.chi] {
+		cl := b.clusters[ci]
+		if len(cl) < s {
+			for _, l := range cl[1:] {
+				b.uf.union(cl[0], l)
+			}
+		}
+	}
+	// Super-nodes in order of their smallest leaf; a root is the smallest
+	// leaf of its component (union keeps the smaller root).
+	k := 0
+	w.first = w.first[:0]
+	for _, l := range set {
+		r := b.uf.find(l)
+		if r == l {
+			b.local[l] = int32(k)
+			w.first = append(w.first, l)
+			k++
+		} else {
+			b.local[l] = b.local[r]
+		}
+	}
+	if k == 1 {
+		return nil, 0, errInconsistent
+	}
+	if s <= b.params.leafDP {
+		b.finishExact(w, tk)
+		return nil, s, nil
+	}
+	b.contract(w, tk, k)
+	w.sideU = growInt8(w.sideU, k)
+	h := &graph.CSR{N: k, Offsets: w.hOff, Targets: w.hTgt, Weights: w.hW}
+	switch nc := w.components(h); {
+	case nc > 1:
+		w.splitComponents(nc)
+	case k == 2:
+		w.sideU[0], w.sideU[1] = 0, 1
+	case k <= b.params.superDP:
+		w.splitBySuperDP(h)
+	default:
+		w.splitSpectral(h, b.params.seed)
+	}
+	if w.sideU[0] != 0 {
+		for i := range w.sideU {
+			w.sideU[i] ^= 1
+		}
+	}
+	return b.apply(w, tk), 0, nil
+}
+
+// contract builds the contracted graph of G[S] onto the k super-nodes,
+// their masses (leaf counts) and volumes (weighted degree inside G[S],
+// edges within the super-node included).
+func (b *builder) contract(w *constructWorker, tk ctask, k int) {
+	set := b.order[tk.lo:tk.hi]
+	w.memOff = growInt32(w.memOff, k+1)
+	for i := range w.memOff {
+		w.memOff[i] = 0
+	}
+	for _, l := range set {
+		w.memOff[b.local[l]+1]++
+	}
+	for i := 0; i < k; i++ {
+		w.memOff[i+1] += w.memOff[i]
+	}
+	w.member = growInt32(w.member, len(set))
+	w.accPos = growInt32(w.accPos, k)
+	cursor := w.accPos // borrowed as fill cursor first
+	copy(cursor, w.memOff[:k])
+	for _, l := range set {
+		u := b.local[l]
+		w.member[cursor[u]] = l
+		cursor[u]++
+	}
+	for i := range w.accPos {
+		w.accPos[i] = -1
+	}
+	if cap(w.hOff) < k+1 {
+		w.hOff = make([]int64, k+1, k+1+k/4)
+	}
+	w.hOff = w.hOff[:k+1]
+	w.hTgt = w.hTgt[:0]
+	w.hW = w.hW[:0]
+	w.mass = grow(w.mass, k)
+	w.vol = grow(w.vol, k)
+	g := b.g
+	for u := 0; u < k; u++ {
+		w.hOff[u] = int64(len(w.hTgt))
+		rowStart := len(w.hTgt)
+		vol := 0.0
+		members := w.member[w.memOff[u]:w.memOff[u+1]]
+		for _, l := range members {
+			lo, hi := g.Offsets[l], g.Offsets[l+1]
+			for e := lo; e < hi; e++ {
+				t := g.Targets[e]
+				if w.mark[t] != w.stamp {
+					continue
+				}
+				wt := g.Weights[e]
+				vol += wt
+				v := b.local[t]
+				if int(v) == u {
+					continue
+				}
+				if p := w.accPos[v]; p >= 0 {
+					w.hW[p] += wt
+				} else {
+					w.accPos[v] = int32(len(w.hTgt))
+					w.hTgt = append(w.hTgt, v)
+					w.hW = append(w.hW, wt)
+				}
+			}
+		}
+		for _, v := range w.hTgt[rowStart:] {
+			w.accPos[v] = -1
+		}
+		w.mass[u] = float64(len(members))
+		w.vol[u] = vol
+	}
+	w.hOff[k] = int64(len(w.hTgt))
+}
+
+// components labels the connected components of h in w.comp (in order of
+// their smallest super-node) and returns their number.
+func (w *constructWorker) components(h *graph.CSR) int {
+	k := h.N
+	w.comp = growInt32(w.comp, k)
+	for i := range w.comp {
+		w.comp[i] = -1
+	}
+	nc := int32(0)
+	for s := 0; s < k; s++ {
+		if w.comp[s] >= 0 {
+			continue
+		}
+		w.comp[s] = nc
+		w.queue = append(w.queue[:0], int32(s))
+		for len(w.queue) > 0 {
+			u := w.queue[len(w.queue)-1]
+			w.queue = w.queue[:len(w.queue)-1]
+			for e := h.Offsets[u]; e < h.Offsets[u+1]; e++ {
+				t := h.Targets[e]
+				if w.comp[t] < 0 {
+					w.comp[t] = nc
+					w.queue = append(w.queue, t)
+				}
+			}
+		}
+		nc++
+	}
+	return int(nc)
+}
+
+// splitComponents separates disconnected parts, which costs nothing: the
+// components (in order of their smallest leaf) are cut at the prefix whose
+// mass is closest to half, so that many small parts give a shallow tree.
+func (w *constructWorker) splitComponents(nc int) {
+	compMass := make([]float64, nc)
+	total := 0.0
+	for u, c := range w.comp {
+		compMass[c] += w.mass[u]
+		total += w.mass[u]
+	}
+	best, bestGap := 1, math.Inf(1)
+	prefix := 0.0
+	for i := 0; i < nc-1; i++ {
+		prefix += compMass[i]
+		if gap := math.Abs(2*prefix - total); gap < bestGap {
+			best, bestGap = i+1, gap
+		}
+	}
+	for u, c := range w.comp {
+		if int(c) < best {
+			w.sideU[u] = 0
+		} else {
+			w.sideU[u] = 1
+		}
+	}
+}
+
+// splitSpectral cuts the contracted graph at the best sweep prefix of its
+// Fiedler vector. The spectral measure is the super-nodes' volume, so that
+// without contraction this is the normalised Laplacian and a contracted
+// super-node keeps the weight of the edges inside it; the sweep scores
+// uniform sparsity with masses.
+func (w *constructWorker) splitSpectral(h *graph.CSR, seed uint64) {
+	k := h.N
+	w.deg = grow(w.deg, k)
+	for u := 0; u < k; u++ {
+		d := 0.0
+		for e := h.Offsets[u]; e < h.Offsets[u+1]; e++ {
+			d += h.Weights[e]
+		}
+		w.deg[u] = d
+	}
+	w.sp.sparsestCut(h, w.deg, w.vol, w.mass, w.first, seed, &w.sw, w.sideU)
+	w.refineCut(h)
+}
+
+// refinePasses bounds the local refinement of a sweep cut.
+const refinePasses = 3
+
+// refineCut improves the split in w.sideU by moving single super-nodes
+// across it while that lowers ψ = w(A,B)/(m(A)·m(B)): a sweep is only as
+// good as the approximate eigenvector it orders by, and a few O(m) passes
+// repair what the vector got slightly wrong. Super-nodes are visited in
+// index order and never split; neither side is ever emptied.
+func (w *constructWorker) refineCut(h *graph.CSR) {
+	k := h.N
+	// Weight from each super-node to side 0 and to side 1 (the degree and
+	// volume buffers are free again and are reused for them).
+	w.deg, w.vol = grow(w.deg, k), grow(w.vol, k)
+	wt0, wt1 := w.deg, w.vol
+	for u := range wt0 {
+		wt0[u], wt1[u] = 0, 0
+	}
+	var mass [2]float64
+	cut := 0.0
+	for u := 0; u < k; u++ {
+		mass[w.sideU[u]] += w.mass[u]
+		for e := h.Offsets[u]; e < h.Offsets[u+1]; e++ {
+			t := h.Targets[e]
+			if w.sideU[t] == 0 {
+				wt0[u] += h.Weights[e]
+			} else {
+				wt1[u] += h.Weights[e]
+			}
+		}
+	}
+	for u := 0; u < k; u++ {
+		if w.sideU[u] == 0 {
+			cut += wt1[u]
+		}
+	}
+	count := [2]int{}
+	for u := 0; u < k; u++ {
+		count[w.sideU[u]]++
+	}
+	psi := cut / float64(mass[0]*mass[1])
+	for pass := 0; pass < refinePasses; pass++ {
+		moved := 0
+		for u := 0; u < k; u++ {
+			from := w.sideU[u]
+			if count[from] == 1 {
+				continue
+			}
+			own, other := wt0[u], wt1[u]
+			if from == 1 {
+				own, other = wt1[u], wt0[u]
+			}
+			newCut := cut - other + own
+			m := w.mass[u]
+			var m0, m1 float64
+			if from == 0 {
+				m0, m1 = mass[0]-m, mass[1]+m
+			} else {
+				m0, m1 = mass[0]+m, mass[1]-m
+			}
+			newPsi := newCut / float64(m0*m1)
+			if !(newPsi < psi*(1-1e-12)) {
+				continue
+			}
+			to := from ^ 1
+			w.sideU[u] = to
+			count[from]--
+			count[to]++
+			mass[0], mass[1] = m0, m1
+			cut, psi = newCut, newPsi
+			for e := h.Offsets[u]; e < h.Offsets[u+1]; e++ {
+				t := h.Targets[e]
+				if to == 1 {
+					wt0[t] -= h.Weights[e]
+					wt1[t] += h.Weights[e]
+				} else {
+					wt1[t] -= h.Weights[e]
+					wt0[t] += h.Weights[e]
+				}
+			}
+			moved++
+		}
+		if moved == 0 {
+			break
+		}
+	}
+}
+
+// splitBySuperDP takes the top split of the optimal tree over super-nodes
+// treated as atoms with masses.
+func (w *constructWorker) splitBySuperDP(h *graph.CSR) {
+	k := h.N
+	w.dp.reset(k)
+	for u := 0; u < k; u++ {
+		w.dp.mass[u] = w.mass[u]
+		for e := h.Offsets[u]; e < h.Offsets[u+1]; e++ {
+			w.dp.weight[u*k+int(h.Targets[e])] = h.Weights[e]
+		}
+	}
+	w.dp.solve(nil)
+	top := w.dp.split[(1<<k)-1]
+	for u := 0; u < k; u++ {
+		if top&(1<<u) != 0 {
+			w.sideU[u] = 0
+		} else {
+			w.sideU[u] = 1
+		}
+	}
+}
+
+// finishExact solves the set's whole subtree by the constrained subset DP
+// and writes its leaves and gaps.
+func (b *builder) finishExact(w *constructWorker, tk ctask) {
+	set := b.order[tk.lo:tk.hi]
+	s := len(set)
+	for i, l := range set {
+		b.local[l] = int32(i)
+	}
+	w.dp.reset(s)
+	for i, l := range set {
+		w.dp.mass[i] = 1
+		ts, ws := b.g.Neighbors(int(l))
+		for e, t := range ts {
+			if w.mark[t] == w.stamp {
+				w.dp.weight[i*s+int(b.local[t])] = ws[e]
+			}
+		}
+	}
+	var aho *ahoMasks
+	if tk.thi > tk.tlo || tk.chi > tk.clo {
+		aho = &ahoMasks{}
+		for _, ti := range b.trip[tk.tlo:tk.thi] {
+			tr := b.trips[ti]
+			a, bb, c := uint32(1)<<b.local[tr.A], uint32(1)<<b.local[tr.B], uint32(1)<<b.local[tr.C]
+			aho.pairs = append(aho.pairs, [2]uint32{a | bb, a | bb | c})
+		}
+		for _, ci := range b.clus[tk.clo:tk.chi] {
+			var m uint32
+			for _, l := range b.clusters[ci] {
+				m |= 1 << b.local[l]
+			}
+			aho.clusters = append(aho.clusters, m)
+		}
+	}
+	w.dp.solve(aho)
+	leaves := append([]int32(nil), set...)
+	type frame struct {
+		mask  uint32
+		start int
+		depth int32
+	}
+	stack := []frame{{uint32(1)<<s - 1, 0, tk.depth}}
+	for len(stack) > 0 {
+		f := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		if bits.OnesCount32(f.mask) == 1 {
+			set[f.start] = leaves[bits.TrailingZeros32(f.mask)]
+			continue
+		}
+		left := w.dp.split[f.mask]
+		right := f.mask &^ left
+		nl := bits.OnesCount32(left)
+		b.gapDepth[tk.lo+f.start+nl] = f.depth
+		stack = append(stack, frame{right, f.start + nl, f.depth + 1}, frame{left, f.start, f.depth + 1})
+	}
+}
+
+// apply partitions the set by w.sideU (left side first, each side still
+// ascending), records the split and hands each side its constraints.
+func (b *builder) apply(w *constructWorker, tk ctask) []ctask {
+	set := b.order[tk.lo:tk.hi]
+	nl := 0
+	for _, l := range set {
+		b.side[l] = w.sideU[b.local[l]]
+		if b.side[l] == 0 {
+			nl++
+		}
+	}
+	w.tmp = growInt32(w.tmp, len(set))
+	i, j := 0, nl
+	for _, l := range set {
+		if b.side[l] == 0 {
+			w.tmp[i] = l
+			i++
+		} else {
+			w.tmp[j] = l
+			j++
+		}
+	}
+	copy(set, w.tmp[:len(set)])
+	b.gapDepth[tk.lo+nl] = tk.depth
+
+	tripSeg := b.trip[tk.tlo:tk.thi]
+	tl := b.partitionTriplets(w, tripSeg)
+	clusSeg := b.clus[tk.clo:tk.chi]
+	cl := b.partitionClusters(w, clusSeg, nl, len(set)-nl)
+	left := ctask{tk.lo, tk.lo + nl, tk.tlo, tk.tlo + tl[0], tk.clo, tk.clo + cl[0], tk.depth + 1}
+	right := ctask{tk.lo + nl, tk.hi, tk.tlo + tl[0], tk.tlo + tl[0] + tl[1], tk.clo + cl[0], tk.clo + cl[0] + cl[1], tk.depth + 1}
+	return []ctask{right, left}
+}
+
+// partitionTriplets keeps the triplets whose three leaves fell on one side
+// (left ones first); a triplet whose c was cut off is now displayed.
+func (b *builder) partitionTriplets(w *constructWorker, seg []int32) [2]int {
+	var cnt [2]int
+	w.tmp = growInt32(w.tmp, len(seg))
+	for _, ti := range seg {
+		tr := b.trips[ti]
+		if sd := b.side[tr.A]; sd == b.side[tr.C] {
+			cnt[sd]++
+		}
+	}
+	i, j := 0, cnt[0]
+	for _, ti := range seg {
+		tr := b.trips[ti]
+		if sd := b.side[tr.A]; sd == b.side[tr.C] {
+			if sd == 0 {
+				w.tmp[i] = ti
+				i++
+			} else {
+				w.tmp[j] = ti
+				j++
+			}
+		}
+	}
+	copy(seg, w.tmp[:cnt[0]+cnt[1]])
+	return cnt
+}
+
+// partitionClusters keeps the clusters that are still proper subsets of
+// their side (a cluster equal to its side is now a node).
+func (b *builder) partitionClusters(w *constructWorker, seg []int32, nl, nr int) [2]int {
+	var cnt [2]int
+	size := [2]int{nl, nr}
+	keep := func(ci int32) (int8, bool) {
+		cl := b.clusters[ci]
+		sd := b.side[cl[0]]
+		return sd, len(cl) < size[sd]
+	}
+	w.tmp = growInt32(w.tmp, len(seg))
+	for _, ci := range seg {
+		if sd, ok := keep(ci); ok {
+			cnt[sd]++
+		}
+	}
+	i, j := 0, cnt[0]
+	for _, ci := range seg {
+		if sd, ok := keep(ci); ok {
+			if sd == 0 {
+				w.tmp[i] = ci
+				i++
+			} else {
+				w.tmp[j] = ci
+				j++
+			}
+		}
+	}
+	copy(seg, w.tmp[:cnt[0]+cnt[1]])
+	return cnt
+}
+
+// treeFromGaps turns a leaf order and the depths of the nodes owning each
+// gap (gapDepth[g] for the gap before order[g]) into the binary tree whose
+// splits they record: the Cartesian tree of the gap depths.
+func treeFromGaps(n int, order, gapDepth []int32) *Tree {
+	t := NewTree(n)
+	if n == 1 {
+		return t
+	}
+	type pending struct {
+		depth int32
+		left  int32
+	}
+	stack := make([]pending, 0, 64)
+	cur := order[0]
+	for g := 1; g < n; g++ {
+		d := gapDepth[g]
+		for len(stack) > 0 && stack[len(stack)-1].depth > d {
+			cur = t.Add(stack[len(stack)-1].left, cur)
+			stack = stack[:len(stack)-1]
+		}
+		stack = append(stack, pending{d, cur})
+		cur = order[g]
+	}
+	for len(stack) > 0 {
+		cur = t.Add(stack[len(stack)-1].left, cur)
+		stack = stack[:len(stack)-1]
+	}
+	t.Root = cur
+	return t
+}
+
+// ahoMasks are constraints over at most 32 atoms as bit masks: a triplet
+// ab|c as (a|b, a|b|c), a cluster as its mask.
+type ahoMasks struct {
+	pairs    [][2]uint32
+	clusters []uint32
+}
+
+// components returns the component masks of the Aho graph of set, in
+// order of their lowest atom.
+func (a *ahoMasks) components(set uint32, buf []uint32) []uint32 {
+	buf = buf[:0]
+	for m := set; m != 0; m &= m - 1 {
+		buf = append(buf, m&-m)
+	}
+	join := func(x uint32) {
+		// Merge every component that meets x into the first one meeting it.
+		into := -1
+		out := buf[:0]
+		for _, c := range buf {
+			if c&x == 0 {
+				out = append(out, c)
+				continue
+			}
+			if into < 0 {
+				into = len(out)
+				out = append(out, c)
+			} else {
+				out[into] |= c
+			}
+		}
+		buf = out
+	}
+	for _, p := range a.pairs {
+		if p[1]&set == p[1] {
+			join(p[0])
+		}
+	}
+	for _, c := range a.clusters {
+		if c&set == c && c != set {
+			join(c)
+		}
+	}
+	return buf
+}
+
+// subsetDP is the exact Dasgupta optimum over subsets of at most 16 atoms
+// with masses (METHODS 2.4): best[A] = min over admissible splits A = B ∪ C
+// of best[B] + best[C] + m(A)·w(B, C), where B contains A's lowest atom and
+// is a union of Aho components of A when constraints are given.
+type subsetDP struct {
+	k      int
+	weight []float64 // k×k
+	mass   []float64
+	win    []float64 // weight inside each mask
+	msum   []float64
+	best   []float64
+	split  []uint32
+	comps  []uint32
+	unions []uint32
+}
+
+func (d *subsetDP) reset(k int) {
+	d.k = k
+	d.weight = grow(d.weight, k*k)
+	for i := range d.weight {
+		d.weight[i] = 0
+	}
+	d.mass = grow(d.mass, k)
+}
+
+func (d *subsetDP) solve(aho *ahoMasks) {
+	k := d.k
+	full := 1 << k
+	d.win = grow(d.win, full)
+	d.msum = grow(d.msum, full)
+	d.best = grow(d.best, full)
+	if cap(d.split) < full {
+		d.split = make([]uint32, full)
+	}
+	d.split = d.split[:full]
+	d.win[0], d.msum[0], d.best[0] = 0, 0, 0
+	for m := 1; m < full; m++ {
+		low := bits.TrailingZeros32(uint32(m))
+		rest := m &^ (1 << low)
+		add := 0.0
+		for r := rest; r != 0; r &= r - 1 {
+			add += d.weight[low*k+bits.TrailingZeros32(uint32(r))]
+		}
+		d.win[m] = d.win[rest] + add
+		d.msum[m] = d.msum[rest] + d.mass[low]
+	}
+	for m := 1; m < full; m++ {
+		set := uint32(m)
+		if set&(set-1) == 0 {
+			d.best[m] = 0
+			continue
+		}
+		if aho != nil {
+			d.comps = aho.components(set, d.comps)
+		} else {
+			d.comps = d.comps[:0]
+			for x := set; x != 0; x &= x - 1 {
+				d.comps = append(d.comps, x&-x)
+			}
+		}
+		c := len(d.comps)
+		bestCost, bestSplit := math.Inf(1), uint32(0)
+		nsub := 1 << (c - 1)
+		if cap(d.unions) < nsub {
+			d.unions = make([]uint32, nsub)
+		}
+		u := d.unions[:nsub]
+		u[0] = 0
+		for sub := 0; sub < nsub-1; sub++ {
+			if sub > 0 {
+				u[sub] = u[sub&(sub-1)] | d.comps[1+bits.TrailingZeros32(uint32(sub))]
+			}
+			left := d.comps[0] | u[sub]
+			right := set &^ left
+			cross := d.win[set] - d.win[left] - d.win[right]
+			cost := d.best[left] + d.best[right] + float64(d.msum[set]*cross)
+			if cost < bestCost {
+				bestCost, bestSplit = cost, left
+			}
+		}
+		d.best[m], d.split[m] = bestCost, bestSplit
+	}
+}

@@ -1,0 +1,241 @@
+package solve
+
+import (
+	"errors"
+	"fmt"
+	"math"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// Cost is Dasgupta's cost of t on g: the sum over edges {i,j} of
+// w_ij·|L(lca(i,j))|, for any rooted tree (binary or multiway). It never
+// panics: a malformed tree or a graph that does not fit the tree gives NaN
+// (CostChecked says why). A single-leaf tree, or a graph without edges,
+// costs 0.
+func Cost(g *graph.CSR, t *Tree) float64 {
+	c, err := CostChecked(g, t)
+	if err != nil {
+		return math.NaN()
+	}
+	return c
+}
+
+// CostChecked is Cost with the reason for a NaN.
+func CostChecked(g *graph.CSR, t *Tree) (float64, error) {
+	cross, err := CrossWeights(g, t)
+	if err != nil {
+		return math.NaN(), err
+	}
+	size := t.Sizes()
+	// Node form of the cost (METHODS 2.1): Σ_v |L(v)|·(weight of the edges
+	// whose lca is v), summed in node-id order with compensation so the
+	// result does not depend on how large the terms are relative to each
+	// other.
+	var sum compensatedSum
+	for v, w := range cross {
+		if w != 0 {
+			sum.add(float64(float64(size[v]) * w))
+		}
+	}
+	return sum.value(), nil
+}
+
+// CrossWeights returns, for every node v of t, the total weight of the
+// edges of g whose lowest common ancestor is v (0 for leaves). Row v is
+// the weight that crosses between different children of v, which is what
+// the node form of Dasgupta's cost, rotations and folds need.
+//
+// It runs Tarjan's offline LCA over a depth-first walk of t: when a leaf u
+// is reached, every neighbour v of u already visited has lca(u,v) equal to
+// the highest still-open ancestor of v's union-find set. Each edge is
+// therefore handled once, at its later endpoint, in O((n+m)·α(n)) time and
+// O(n) extra memory. The walk, and hence the order of every floating-point
+// addition, depends only on t and g.
+func CrossWeights(g *graph.CSR, t *Tree) ([]float64, error) {
+	if err := costCheckTree(t); err != nil {
+		return nil, err
+	}
+	if err := costCheckGraph(g); err != nil {
+		return nil, err
+	}
+	nodes := t.NumNodes()
+	cross := make([]float64, nodes)
+	comp := make([]float64, nodes) // Neumaier compensation per node
+	uf := newLCAForest(nodes)
+	open := make([]int32, nodes) // open[find(x)] = highest open node of x's set
+	seen := make([]bool, g.N)    // leaf already reached by the walk
+	reached := 0
+
+	type frame struct {
+		v    int32
+		next int
+	}
+	stack := []frame{{t.Root, 0}}
+	open[t.Root] = t.Root
+	for len(stack) > 0 {
+		f := &stack[len(stack)-1]
+		v := f.v
+		if f.next < len(t.Kids[v]) {
+			c := t.Kids[v][f.next]
+			f.next++
+			open[c] = c
+			stack = append(stack, frame{c, 0})
+			continue
+		}
+		stack = stack[:len(stack)-1]
+		if t.IsLeaf(v) && int(v) < g.N {
+			ts, ws := g.Neighbors(int(v))
+			for k, u := range ts {
+				if !seen[u] {
+					continue
+				}
+				l := open[uf.find(u)]
+				addCompensated(&cross[l], &comp[l], ws[k])
+			}
+			seen[v] = true
+			reached++
+		}
+		if len(stack) > 0 {
+			p := stack[len(stack)-1].v
+			r := uf.union(p, v)
+			open[r] = p
+		}
+	}
+	for v := range cross {
+		cross[v] += comp[v]
+	}
+	if reached < g.N {
+		// A vertex the walk never reached may still be isolated; only an
+		// edge to it makes the tree unfit for the graph.
+		for v := 0; v < g.N; v++ {
+			if !seen[v] && g.Offsets[v+1] > g.Offsets[v] {
+				return nil, fmt.Errorf("vertex %d has edges but is not a leaf under the root", v)
+			}
+		}
+	}
+	return cross, nil
+}
+
+// costCheckTree reports why t cannot be walked safely: ids out of range, a
+// leaf with children, or a node reachable twice (which would also catch a
+// cycle).
+func costCheckTree(t *Tree) error {
+	if t == nil {
+		return errors.New("nil tree")
+	}
+	nodes := len(t.Kids)
+	if t.N < 0 || t.N > nodes {
+		return fmt.Errorf("tree has %d leaves but %d nodes", t.N, nodes)
+	}
+	if nodes == 0 {
+		return errors.New("tree has no nodes")
+	}
+	if t.Root < 0 || int(t.Root) >= nodes {
+		return fmt.Errorf("root %d outside 0..%d", t.Root, nodes-1)
+	}
+	seen := make([]bool, nodes)
+	seen[t.Root] = true
+	stack := []int32{t.Root}
+	for len(stack) > 0 {
+		v := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		if int(v) < t.N && len(t.Kids[v]) > 0 {
+			return fmt.Errorf("leaf %d has children", v)
+		}
+		for _, c := range t.Kids[v] {
+			if c < 0 || int(c) >= nodes {
+				return fmt.Errorf("node %d has child %d outside 0..%d", v, c, nodes-1)
+			}
+			if seen[c] {
+				return fmt.Errorf("node %d is reachable twice", c)
+			}
+			seen[c] = true
+			stack = append(stack, c)
+		}
+	}
+	return nil
+}
+
+// costCheckGraph reports why g's arrays cannot be read safely.
+func costCheckGraph(g *graph.CSR) error {
+	if g == nil {
+		return errors.New("nil graph")
+	}
+	if g.N < 0 || len(g.Offsets) != g.N+1 || len(g.Weights) != len(g.Targets) {
+		return errors.New("graph arrays have inconsistent lengths")
+	}
+	if g.N == 0 {
+		return nil
+	}
+	if g.Offsets[0] != 0 || g.Offsets[g.N] != int64(len(g.Targets)) {
+		return errors.New("graph offsets do not span the targets")
+	}
+	for v := 0; v < g.N; v++ {
+		if g.Offsets[v] > g.Offsets[v+1] {
+			return fmt.Errorf("graph offsets decrease at vertex %d", v)
+		}
+	}
+	for _, u := range g.Targets {
+		if u < 0 || int(u) >= g.N {
+			return fmt.Errorf("graph target %d outside 0..%d", u, g.N-1)
+		}
+	}
+	return nil
+}
+
+// compensatedSum is a running sum with Neumaier's variant of Kahan's
+// compensation, so long sums of mixed-magnitude terms stay accurate to
+// about one rounding.
+type compensatedSum struct{ sum, comp float64 }
+
+func (s *compensatedSum) add(x float64) { addCompensated(&s.sum, &s.comp, x) }
+
+func (s *compensatedSum) value() float64 { return s.sum + s.comp }
+
+func addCompensated(sum, comp *float64, x float64) {
+	t := *sum + x
+	if math.Abs(*sum) >= math.Abs(x) {
+		*comp += (*sum - t) + x
+	} else {
+		*comp += (x - t) + *sum
+	}
+	*sum = t
+}
+
+// lcaForest is a disjoint-set forest with path halving and union by size.
+type lcaForest struct {
+	parent []int32
+	size   []int32
+}
+
+func newLCAForest(n int) *lcaForest {
+	u := &lcaForest{parent: make([]int32, n), size: make([]int32, n)}
+	for i := range u.parent {
+		u.parent[i] = int32(i)
+		u.size[i] = 1
+	}
+	return u
+}
+
+func (u *lcaForest) find(x int32) int32 {
+	for u.parent[x] != x {
+		u.parent[x] = u.parent[u.parent[x]]
+		x = u.parent[x]
+	}
+	return x
+}
+
+// union joins the sets of a and b and returns the new representative.
+func (u *lcaForest) union(a, b int32) int32 {
+	ra, rb := u.find(a), u.find(b)
+	if ra == rb {
+		return ra
+	}
+	if u.size[ra] < u.size[rb] {
+		ra, rb = rb, ra
+	}
+	u.parent[rb] = ra
+	u.size[ra] += u.size[rb]
+	return ra
+}

@@ -1,0 +1,515 @@
+package solve
+
+import (
+	"container/heap"
+	"math"
+	"sort"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// Folding the binary tree into a multiway taxonomy (DESIGN 8 step 5,
+// METHODS 5). Folding (contracting) a node u into its parent v makes u's
+// children v's children.
+//
+// Tightness. A node's split is scored by the mean similarity across its
+// children, the linkage value of average linkage:
+//
+//	ψ(v) = w(between v's children) / Σ_{children a<b} |a|·|b|.
+//
+// The rule: u is folded into its parent v when its split is not
+// meaningfully tighter than v's, that is when ψ(u) < foldTightness · ψ(v).
+// Under a planted hierarchy the binary nodes that only regroup siblings of
+// one level have ψ(u) ≈ ψ(v) and fold, while a real level is markedly
+// tighter than the one above it and stays. Folds go least-tight first (by
+// ψ(u)/ψ(v)), and a fold updates the parent by the mediant
+// ψ(v) ← (w_v + w_u)/(p_v + p_u), which is exact. Folding never increases
+// the number of categories a leaf sits in and costs Δ = (|L(v)|−|L(u)|)·w_u
+// of Dasgupta's cost.
+//
+// Order of the passes: (1) categories smaller than MinSize are folded away,
+// bottom-up; (2) the tightness rule; (3) while some item sits deeper than
+// MaxDepth categories, the least-tight category above it is folded; (4) the
+// MinSize pass once more, for folds that the earlier ones made legal. No fold
+// may give a node more than MaxChildren children, dissolve a cluster
+// constraint, or dissolve the node lca(a,b) of a triplet ab|c whose c lies
+// in the parent (the uncollapsible rule of METHODS 5), so MinSize and
+// MaxDepth are met as far as those allow.
+
+// foldTightness: a split must be this many times tighter than its parent's
+// to stay a category of its own.
+const foldTightness = 1.5
+
+type foldParams struct {
+	minSize, maxChildren, maxDepth int
+	ratio                          float64
+	// prior: the previous outline's categories; a binary node that is one
+	// of them (up to priorMatch overlap) is exempt from the tightness rule.
+	prior [][]int32
+}
+
+// folder is the mutable multiway tree over the binary tree's node ids.
+type folder struct {
+	t       *Tree
+	p       foldParams
+	kids    [][]int32
+	parent  []int32
+	cross   []float64 // weight between the current children
+	pairs   []float64 // Σ over pairs of current children of |a|·|b|
+	alive   []bool
+	pinned  []bool
+	rep     []int32 // folded node → node it went into (union-find)
+	tripsAt [][]int32
+	tripTop []int32 // triplet → binary lca(a,b,c)
+	keep    []bool  // exempt from the tightness rule
+}
+
+// fold turns the binary tree t into a multiway taxonomy under p. t must
+// satisfy c.
+func fold(g *graph.CSR, t *Tree, c *Constraints, p foldParams, progress func(string, int, int)) *Tree {
+	if t.N < 3 {
+		return copyTree(t)
+	}
+	progress("fold", 0, 3)
+	f := newFolder(g, t, c, p)
+	if p.minSize > 1 {
+		f.foldSmall()
+	}
+	progress("fold", 1, 3)
+	if p.ratio > 0 {
+		f.foldLoose()
+	}
+	progress("fold", 2, 3)
+	if p.maxDepth > 0 {
+		f.foldDeep()
+	}
+	if p.minSize > 1 {
+		f.foldSmall() // folds above may have made a blocked one legal
+	}
+	progress("fold", 3, 3)
+	return f.result()
+}
+
+func copyTree(t *Tree) *Tree {
+	out := NewTree(t.N)
+	out.Kids = make([][]int32, len(t.Kids))
+	for i, k := range t.Kids {
+		out.Kids[i] = append([]int32(nil), k...)
+	}
+	out.Root = t.Root
+	return out
+}
+
+func newFolder(g *graph.CSR, t *Tree, c *Constraints, p foldParams) *folder {
+	lay := newLayout(t)
+	b := bucketEdges(g, t, lay)
+	pinned, _ := constraintPins(t, c, lay)
+	nodes := t.NumNodes()
+	f := &folder{
+		t: t, p: p,
+		kids:    make([][]int32, nodes),
+		parent:  lay.parent,
+		cross:   b.cross,
+		pairs:   make([]float64, nodes),
+		alive:   make([]bool, nodes),
+		pinned:  pinned,
+		rep:     make([]int32, nodes),
+		tripsAt: make([][]int32, nodes),
+	}
+	for v := range f.rep {
+		f.rep[v] = int32(v)
+	}
+	for v := t.N; v < nodes; v++ {
+		if lay.parent[v] < 0 && int32(v) != t.Root {
+			continue
+		}
+		f.kids[v] = append([]int32(nil), t.Kids[v]...)
+		f.alive[v] = true
+		sum, sq := 0.0, 0.0
+		for _, k := range t.Kids[v] {
+			s := float64(lay.hi[k] - lay.lo[k])
+			sum += s
+			sq += float64(s * s)
+		}
+		f.pairs[v] = (float64(sum*sum) - sq) / 2
+	}
+	if len(p.prior) > 0 {
+		f.keep = priorMatches(t, lay, p.prior)
+	}
+	if c != nil {
+		f.tripTop = make([]int32, len(c.Triplets))
+		for i, tr := range c.Triplets {
+			if tr.A == tr.B {
+				f.tripTop[i] = -1
+				continue
+			}
+			x := lay.lca(tr.A, tr.B)
+			pa, pb, pc := lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]
+			f.tripTop[i] = lay.lcaPos(min(pa, pb, pc), max(pa, pb, pc))
+			f.tripsAt[x] = append(f.tripsAt[x], int32(i))
+		}
+	}
+	return f
+}
+
+func (f *folder) find(v int32) int32 {
+	for f.rep[v] != v {
+		f.rep[v] = f.rep[f.rep[v]]
+		v = f.rep[v]
+	}
+	return v
+}
+
+// psi is the mean similarity across v's children.
+func (f *folder) psi(v int32) float64 {
+	if f.pairs[v] <= 0 {
+		return 0
+	}
+	return f.cross[v] / f.pairs[v]
+}
+
+// gain is how many times tighter u's split is than its parent's.
+func (f *folder) gain(u int32) float64 {
+	pu, pv := f.psi(u), f.psi(f.parent[u])
+	if pv <= 0 {
+		if pu <= 0 {
+			return 0
+		}
+		return math.Inf(1)
+	}
+	return pu / pv
+}
+
+// legal reports whether folding u into its parent keeps every limit and
+// every constraint.
+func (f *folder) legal(u int32) bool {
+	if !f.alive[u] || f.t.IsLeaf(u) || u == f.t.Root || f.pinned[u] {
+		return false
+	}
+	v := f.parent[u]
+	if f.p.maxChildren > 0 && len(f.kids[v])-1+len(f.kids[u]) > f.p.maxChildren {
+		return false
+	}
+	for _, ti := range f.tripsAt[u] {
+		if f.find(f.tripTop[ti]) == v {
+			return false // lca(a,b) = u and c under v: u must stay
+		}
+	}
+	return true
+}
+
+// contract folds u into its parent.
+func (f *folder) contract(u int32) {
+	v := f.parent[u]
+	out := make([]int32, 0, len(f.kids[v])-1+len(f.kids[u]))
+	for _, k := range f.kids[v] {
+		if k == u {
+			out = append(out, f.kids[u]...)
+		} else {
+			out = append(out, k)
+		}
+	}
+	f.kids[v] = out
+	for _, k := range f.kids[u] {
+		f.parent[k] = v
+	}
+	f.cross[v] += f.cross[u]
+	f.pairs[v] += f.pairs[u]
+	f.tripsAt[v] = append(f.tripsAt[v], f.tripsAt[u]...)
+	f.tripsAt[u] = nil
+	f.kids[u] = nil
+	f.alive[u] = false
+	f.rep[u] = v
+}
+
+// postOrder lists the alive internal nodes, children first.
+func (f *folder) postOrder() []int32 {
+	var out []int32
+	type frame struct {
+		v    int32
+		next int
+	}
+	stack := []frame{{f.t.Root, 0}}
+	for len(stack) > 0 {
+		fr := &stack[len(stack)-1]
+		if fr.next < len(f.kids[fr.v]) {
+			c := f.kids[fr.v][fr.next]
+			fr.next++
+			if !f.t.IsLeaf(c) {
+				stack = append(stack, frame{c, 0})
+			}
+			continue
+		}
+		out = append(out, fr.v)
+		stack = stack[:len(stack)-1]
+	}
+	return out
+}
+
+// leafCounts returns the number of leaves under every alive node.
+func (f *folder) leafCounts() []int {
+	cnt := make([]int, len(f.kids))
+	for i := 0; i < f.t.N; i++ {
+		cnt[i] = 1
+	}
+	for _, v := range f.postOrder() {
+		for _, k := range f.kids[v] {
+			cnt[v] += cnt[k]
+		}
+	}
+	return cnt
+}
+
+func (f *folder) foldSmall() {
+	cnt := f.leafCounts()
+	for _, u := range f.postOrder() {
+		if u != f.t.Root && cnt[u] < f.p.minSize && f.legal(u) {
+			f.contract(u)
+		}
+	}
+}
+
+// gainHeap orders fold candidates by gain, then node id.
+type gainEntry struct {
+	gain float64
+	node int32
+}
+type gainHeap []gainEntry
+
+func (h gainHeap) Len() int { return len(h) }
+func (h gainHeap) Less(i, j int) bool {
+	if h[i].gain != h[j].gain {
+		return h[i].gain < h[j].gain
+	}
+	return h[i].node < h[j].node
+}
+func (h gainHeap) Swap(i, j int)            { h[i], h[j] = h[j], h[i] }
+func (h *gainHeap) Push(x any)              { *h = append(*h, x.(gainEntry)) }
+func (h *gainHeap) Pop() any                { old := *h; x := old[len(old)-1]; *h = old[:len(old)-1]; return x }
+func (h *gainHeap) push(u int32, g float64) { heap.Push(h, gainEntry{g, u}) }
+
+// stale reports whether a popped entry's key is out of date; if so it was
+// pushed again with its current gain.
+func (f *folder) stale(h *gainHeap, e gainEntry) (float64, bool) {
+	g := f.gain(e.node)
+	if g > e.gain && !(math.IsInf(g, 1) && math.IsInf(e.gain, 1)) {
+		h.push(e.node, g)
+		return g, true
+	}
+	return g, false
+}
+
+func (f *folder) candidates() *gainHeap {
+	h := &gainHeap{}
+	for _, u := range f.postOrder() {
+		if u != f.t.Root {
+			*h = append(*h, gainEntry{f.gain(u), u})
+		}
+	}
+	heap.Init(h)
+	return h
+}
+
+// foldLoose applies the tightness rule, least tight first.
+func (f *folder) foldLoose() {
+	h := f.candidates()
+	for h.Len() > 0 {
+		e := heap.Pop(h).(gainEntry)
+		u := e.node
+		if !f.alive[u] {
+			continue
+		}
+		if f.keep != nil && f.keep[u] {
+			continue
+		}
+		g, st := f.stale(h, e)
+		if st || g >= f.p.ratio || !f.legal(u) {
+			continue
+		}
+		v := f.parent[u]
+		before := f.psi(v)
+		moved := f.kids[u]
+		f.contract(u)
+		// The parent's ψ changed: its own gain, and if it grew, its
+		// children's gains fell; the moved grandchildren have a new parent.
+		if v != f.t.Root {
+			h.push(v, f.gain(v))
+		}
+		if f.psi(v) > before {
+			for _, k := range f.kids[v] {
+				if !f.t.IsLeaf(k) {
+					h.push(k, f.gain(k))
+				}
+			}
+		} else {
+			for _, k := range moved {
+				if !f.t.IsLeaf(k) {
+					h.push(k, f.gain(k))
+				}
+			}
+		}
+	}
+}
+
+// foldDeep folds categories on too-deep paths, least tight first, keeping
+// the number of categories above each leaf in a segment tree over the
+// depth-first leaf positions (a fold lowers it on u's range by one).
+func (f *folder) foldDeep() {
+	lay := newLayout(f.t)
+	depth := make([]int, f.t.N)
+	// Categories above each leaf in the current multiway tree.
+	var walk func()
+	walk = func() {
+		type frame struct {
+			v int32
+			d int
+		}
+		stack := []frame{{f.t.Root, 0}}
+		for len(stack) > 0 {
+			fr := stack[len(stack)-1]
+			stack = stack[:len(stack)-1]
+			for _, k := range f.kids[fr.v] {
+				if f.t.IsLeaf(k) {
+					depth[lay.pos[k]] = fr.d
+				} else {
+					stack = append(stack, frame{k, fr.d + 1})
+				}
+			}
+		}
+	}
+	walk()
+	st := newMaxAddTree(depth)
+	h := f.candidates()
+	for h.Len() > 0 {
+		e := heap.Pop(h).(gainEntry)
+		u := e.node
+		if !f.alive[u] {
+			continue
+		}
+		if _, s := f.stale(h, e); s {
+			continue
+		}
+		lo, hi := int(lay.lo[u]), int(lay.hi[u])
+		if st.max(lo, hi) <= f.p.maxDepth || !f.legal(u) {
+			continue
+		}
+		v := f.parent[u]
+		f.contract(u)
+		st.add(lo, hi, -1)
+		if v != f.t.Root {
+			h.push(v, f.gain(v))
+		}
+		for _, k := range f.kids[v] {
+			if !f.t.IsLeaf(k) {
+				h.push(k, f.gain(k))
+			}
+		}
+	}
+}
+
+// result builds the folded tree with fresh internal ids in post-order and
+// children sorted by their smallest leaf.
+func (f *folder) result() *Tree {
+	out := NewTree(f.t.N)
+	minLeaf := make([]int32, len(f.kids))
+	newID := make([]int32, len(f.kids))
+	for i := 0; i < f.t.N; i++ {
+		minLeaf[i] = int32(i)
+		newID[i] = int32(i)
+	}
+	for _, v := range f.postOrder() {
+		kids := append([]int32(nil), f.kids[v]...)
+		sort.Slice(kids, func(i, j int) bool { return minLeaf[kids[i]] < minLeaf[kids[j]] })
+		minLeaf[v] = minLeaf[kids[0]]
+		for i, k := range kids {
+			kids[i] = newID[k]
+		}
+		newID[v] = out.Add(kids...)
+	}
+	return out
+}
+
+// maxAddTree is a segment tree over positions with range add and range
+// maximum.
+type maxAddTree struct {
+	n        int
+	mx, lazy []int
+}
+
+func newMaxAddTree(vals []int) *maxAddTree {
+	n := len(vals)
+	s := &maxAddTree{n: n, mx: make([]int, 4*n), lazy: make([]int, 4*n)}
+	var build func(node, lo, hi int)
+	build = func(node, lo, hi int) {
+		if hi-lo == 1 {
+			s.mx[node] = vals[lo]
+			return
+		}
+		mid := (lo + hi) / 2
+		build(2*node, lo, mid)
+		build(2*node+1, mid, hi)
+		s.mx[node] = max(s.mx[2*node], s.mx[2*node+1])
+	}
+	build(1, 0, n)
+	return s
+}
+
+func (s *maxAddTree) add(lo, hi, d int) { s.addRange(1, 0, s.n, lo, hi, d) }
+
+func (s *maxAddTree) addRange(node, nlo, nhi, lo, hi, d int) {
+	if hi <= nlo || nhi <= lo {
+		return
+	}
+	if lo <= nlo && nhi <= hi {
+		s.mx[node] += d
+		s.lazy[node] += d
+		return
+	}
+	mid := (nlo + nhi) / 2
+	s.addRange(2*node, nlo, mid, lo, hi, d)
+	s.addRange(2*node+1, mid, nhi, lo, hi, d)
+	s.mx[node] = max(s.mx[2*node], s.mx[2*node+1]) + s.lazy[node]
+}
+
+func (s *maxAddTree) max(lo, hi int) int { return s.query(1, 0, s.n, lo, hi) }
+
+func (s *maxAddTree) query(node, nlo, nhi, lo, hi int) int {
+	if hi <= nlo || nhi <= lo {
+		return -1 << 40 // below any depth, and safe to add to
+	}
+	if lo <= nlo && nhi <= hi {
+		return s.mx[node]
+	}
+	mid := (nlo + nhi) / 2
+	return max(s.query(2*node, nlo, mid, lo, hi), s.query(2*node+1, mid, nhi, lo, hi)) + s.lazy[node]
+}
+
+// priorMatch is the Jaccard overlap at which a node counts as a previous
+// category: the node is the LCA of the category's members, and at least
+// this share of its leaves were in that category.
+const priorMatch = 0.8
+
+// priorMatches marks the binary nodes that reproduce a previous category.
+func priorMatches(t *Tree, lay *layout, prior [][]int32) []bool {
+	keep := make([]bool, t.NumNodes())
+	for _, cat := range prior {
+		lo, hi, cnt := int32(math.MaxInt32), int32(-1), 0
+		seen := map[int32]bool{}
+		for _, l := range cat {
+			if l < 0 || int(l) >= t.N || seen[l] {
+				continue
+			}
+			seen[l] = true
+			cnt++
+			lo, hi = min(lo, lay.pos[l]), max(hi, lay.pos[l])
+		}
+		if cnt < 2 {
+			continue
+		}
+		v := lay.lcaPos(lo, hi)
+		if float64(cnt) >= priorMatch*float64(lay.hi[v]-lay.lo[v]) {
+			keep[v] = true
+		}
+	}
+	return keep
+}

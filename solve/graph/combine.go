@@ -1,0 +1,103 @@
+package graph
+
+import (
+	"fmt"
+	"math"
+	"sort"
+)
+
+// Combine adds similarity graphs over the same items: each part is first
+// divided by its median positive edge weight, so that a typical edge weighs
+// 1 in every source and the weights say how much each source counts, then
+// the parts are summed with those weights. A part without edges, or with
+// weight 0, contributes nothing. The result is summed in part order for
+// every edge, so it is deterministic and exactly symmetric. Scaling all
+// weights by one factor (e.g. making them sum to 1) scales the Dasgupta
+// cost of every tree alike and so does not change which tree is best.
+func Combine(parts []*CSR, weights []float64) (*CSR, error) {
+	if len(parts) == 0 {
+		return nil, fmt.Errorf("combine: no graphs")
+	}
+	if len(weights) != len(parts) {
+		return nil, fmt.Errorf("combine: %d graphs but %d weights", len(parts), len(weights))
+	}
+	n := -1
+	for p, g := range parts {
+		if g == nil {
+			return nil, fmt.Errorf("combine: graph %d is missing", p)
+		}
+		if n >= 0 && g.N != n {
+			return nil, fmt.Errorf("combine: graph %d has %d items, graph 0 has %d", p, g.N, n)
+		}
+		n = g.N
+		if w := weights[p]; math.IsNaN(w) || math.IsInf(w, 0) || w < 0 {
+			return nil, fmt.Errorf("combine: weight %d must be finite and >= 0, got %v", p, w)
+		}
+	}
+
+	scale := make([]float64, len(parts))
+	for p, g := range parts {
+		if med := MedianWeight(g); med > 0 {
+			scale[p] = weights[p] / med
+		}
+	}
+
+	out := &CSR{N: n, Offsets: make([]int64, n+1)}
+	heads := make([]int64, len(parts))
+	for i := 0; i < n; i++ {
+		for p, g := range parts {
+			heads[p] = g.Offsets[i]
+		}
+		for {
+			// The smallest target among the parts' unread entries of row i.
+			t := int32(-1)
+			for p, g := range parts {
+				if scale[p] > 0 && heads[p] < g.Offsets[i+1] {
+					if c := g.Targets[heads[p]]; t < 0 || c < t {
+						t = c
+					}
+				}
+			}
+			if t < 0 {
+				break
+			}
+			w := 0.0
+			for p, g := range parts {
+				if scale[p] > 0 && heads[p] < g.Offsets[i+1] && g.Targets[heads[p]] == t {
+					w += float64(scale[p] * g.Weights[heads[p]])
+					heads[p]++
+				}
+			}
+			if w > 0 {
+				out.Targets = append(out.Targets, t)
+				out.Weights = append(out.Weights, w)
+			}
+		}
+		out.Offsets[i+1] = int64(len(out.Targets))
+	}
+	return out, nil
+}
+
+// MedianWeight is the median of g's positive edge weights, each undirected
+// edge counted once (the mean of the two middle ones for an even count), or
+// 0 when g has no edges.
+func MedianWeight(g *CSR) float64 {
+	var ws []float64
+	for u := 0; u < g.N; u++ {
+		ts, w := g.Neighbors(u)
+		for p, t := range ts {
+			if int(t) > u && w[p] > 0 {
+				ws = append(ws, w[p])
+			}
+		}
+	}
+	if len(ws) == 0 {
+		return 0
+	}
+	sort.Float64s(ws)
+	m := len(ws) / 2
+	if len(ws)%2 == 1 {
+		return ws[m]
+	}
+	return ws[m-1]/2 + ws[m]/2
+}

@@ -1,0 +1,263 @@
+package graph
+
+import (
+	"fmt"
+	"math"
+	"sort"
+	"testing"
+
+	"gonum.org/v1/gonum/floats"
+	"gonum.org/v1/gonum/stat"
+)
+
+// gonumZScores is the reference standardisation, computed with gonum
+// v0.17.0: stat.PopMeanStdDev per column (population sd), constant columns
+// left out. Returns one slice per item.
+func gonumZScores(values []float64, n, dim int) [][]float64 {
+	rows := make([][]float64, n)
+	col := make([]float64, n)
+	for c := 0; c < dim; c++ {
+		constant := true
+		for i := 0; i < n; i++ {
+			col[i] = values[i*dim+c]
+			constant = constant && col[i] == col[0]
+		}
+		if constant {
+			continue
+		}
+		mean, sd := stat.PopMeanStdDev(col, nil)
+		for i := 0; i < n; i++ {
+			rows[i] = append(rows[i], (col[i]-mean)/sd)
+		}
+	}
+	return rows
+}
+
+// withConstantColumn appends a constant feature to every row, which the
+// builders must ignore.
+func withConstantColumn(x []float64, n, dim int) []float64 {
+	out := make([]float64, 0, n*(dim+1))
+	for i := 0; i < n; i++ {
+		out = append(out, x[i*dim:(i+1)*dim]...)
+		out = append(out, 5)
+	}
+	return out
+}
+
+func TestVectorsCosineMatchesBruteForce(t *testing.T) {
+	const n, dim = 300, 6
+	values := withConstantColumn(clusteredVectors(n, dim, 5, 11), n, dim)
+	z := gonumZScores(values, n, dim+1)
+	// Reference cosine via gonum v0.17.0 floats.Dot and floats.Norm(·, 2).
+	cos := func(i, j int) float64 {
+		return floats.Dot(z[i], z[j]) / (floats.Norm(z[i], 2) * floats.Norm(z[j], 2))
+	}
+	for _, k := range []int{1, 5, 15, 0} {
+		t.Run(fmt.Sprintf("k=%d", k), func(t *testing.T) {
+			g, err := Vectors(values, n, dim+1, k, Cosine)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkGraph(t, g)
+			want := bruteUnionKNN(n, k, cos, func(i, j int) float64 { return max(cos(i, j), 0) })
+			compareEdges(t, edgeMap(g), want, 1e-9)
+		})
+	}
+}
+
+func TestVectorsGaussianMatchesBruteForce(t *testing.T) {
+	const n, dim = 250, 4
+	values := withConstantColumn(clusteredVectors(n, dim, 4, 12), n, dim)
+	z := gonumZScores(values, n, dim+1)
+	// Reference distances via gonum v0.17.0 floats.Distance(·, ·, 2); σ_i is
+	// the distance to the 7th nearest other item (METHODS 1.1).
+	dist := func(i, j int) float64 { return floats.Distance(z[i], z[j], 2) }
+	sigma := make([]float64, n)
+	for i := range sigma {
+		var ds []float64
+		for j := 0; j < n; j++ {
+			if j != i {
+				ds = append(ds, dist(i, j))
+			}
+		}
+		sort.Float64s(ds)
+		sigma[i] = ds[6]
+	}
+	weight := func(i, j int) float64 {
+		d := dist(i, j)
+		return math.Exp(-d * d / (sigma[i] * sigma[j]))
+	}
+	for _, k := range []int{1, 3, 10, 0} {
+		t.Run(fmt.Sprintf("k=%d", k), func(t *testing.T) {
+			g, err := Vectors(values, n, dim+1, k, Gaussian)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkGraph(t, g)
+			want := bruteUnionKNN(n, k, func(i, j int) float64 { return -dist(i, j) }, weight)
+			compareEdges(t, edgeMap(g), want, 1e-9)
+		})
+	}
+}
+
+// refTagCosine is METHODS 1.1's IDF-weighted tag cosine written out
+// directly: cos = Σ_{t∈A∩B} u_t² / (‖u_A‖·‖u_B‖), u_t = ln(N/df_t), 0 for a
+// zero vector. Empty tag names are ignored, as Tags documents.
+func refTagCosine(tags [][]string) func(i, j int) float64 {
+	n := len(tags)
+	sets := make([]map[string]bool, n)
+	df := map[string]int{}
+	for i, ts := range tags {
+		sets[i] = map[string]bool{}
+		for _, t := range ts {
+			if t != "" && !sets[i][t] {
+				sets[i][t] = true
+				df[t]++
+			}
+		}
+	}
+	u := func(t string) float64 { return math.Log(float64(n) / float64(df[t])) }
+	sorted := make([][]string, n)
+	norm := make([]float64, n)
+	for i := range sets {
+		for t := range sets[i] {
+			sorted[i] = append(sorted[i], t)
+		}
+		sort.Strings(sorted[i])
+		for _, t := range sorted[i] {
+			norm[i] += u(t) * u(t)
+		}
+		norm[i] = math.Sqrt(norm[i])
+	}
+	return func(i, j int) float64 {
+		if norm[i] == 0 || norm[j] == 0 {
+			return 0
+		}
+		s := 0.0
+		for _, t := range sorted[i] {
+			if sets[j][t] {
+				s += u(t) * u(t)
+			}
+		}
+		return s / (norm[i] * norm[j])
+	}
+}
+
+// refTextCosine is textbook TF-IDF (raw tf × ln(N/df), METHODS 1.1)
+// written out with maps over the same tokens Text uses.
+func refTextCosine(texts []string) func(i, j int) float64 {
+	n := len(texts)
+	counts := make([]map[string]int, n)
+	df := map[string]int{}
+	for i, s := range texts {
+		counts[i] = map[string]int{}
+		for _, w := range Tokens(s) {
+			counts[i][PluralStem(w)]++
+		}
+		for w := range counts[i] {
+			df[w]++
+		}
+	}
+	vec := make([]map[string]float64, n)
+	norm := make([]float64, n)
+	for i := range counts {
+		vec[i] = map[string]float64{}
+		words := make([]string, 0, len(counts[i]))
+		for w := range counts[i] {
+			words = append(words, w)
+		}
+		sort.Strings(words)
+		for _, w := range words {
+			x := float64(counts[i][w]) * math.Log(float64(n)/float64(df[w]))
+			vec[i][w] = x
+			norm[i] += x * x
+		}
+		norm[i] = math.Sqrt(norm[i])
+	}
+	return func(i, j int) float64 {
+		if norm[i] == 0 || norm[j] == 0 {
+			return 0
+		}
+		s := 0.0
+		for w, x := range vec[i] {
+			s += x * vec[j][w]
+		}
+		return s / (norm[i] * norm[j])
+	}
+}
+
+// checkUnionOf asserts that g is exactly the union-kNN graph of lists with
+// the listed scores as weights (positive ones only), and that every weight
+// matches the reference similarity.
+func checkUnionOf(t *testing.T, g *CSR, l *neighborLists, ref func(i, j int) float64, tol float64) {
+	t.Helper()
+	want := map[[2]int32]float64{}
+	for i := 0; i < l.n; i++ {
+		ids, sims := l.row(i)
+		for p, j := range ids {
+			if sims[p] > 0 {
+				want[[2]int32{int32(min(i, int(j))), int32(max(i, int(j)))}] = sims[p]
+			}
+		}
+	}
+	compareEdges(t, edgeMap(g), want, 0)
+	for e, w := range edgeMap(g) {
+		if r := ref(int(e[0]), int(e[1])); math.Abs(w-r) > tol {
+			t.Errorf("edge %v: weight %v, reference %v", e, w, r)
+		}
+	}
+}
+
+func TestTagsMatchBruteForce(t *testing.T) {
+	// Few tags over a small vocabulary: many exact ties, which the checks
+	// must tolerate.
+	tags := topicTags(400, 60, 6, 3, 13)
+	tags[7] = nil                    // an item without tags
+	tags[8] = []string{"", "tag001"} // empty names are ignored
+	ref := refTagCosine(tags)
+	for _, k := range []int{1, 5, 10, 0} {
+		t.Run(fmt.Sprintf("k=%d", k), func(t *testing.T) {
+			l := exactSparse(tagRows(tags), effectiveK(k, len(tags)), nil)
+			checkTopLists(t, l, len(tags), k, true, ref, 1e-12)
+			g, err := Tags(tags, k)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkGraph(t, g)
+			checkUnionOf(t, g, l, ref, 1e-12)
+		})
+	}
+}
+
+func TestTextMatchesBruteForce(t *testing.T) {
+	texts := topicTexts(300, 80, 5, 14)
+	texts[3] = "the and of"
+	ref := refTextCosine(texts)
+	for _, k := range []int{1, 4, 12, 0} {
+		t.Run(fmt.Sprintf("k=%d", k), func(t *testing.T) {
+			l := exactSparse(Builder{}.textRows(texts), effectiveK(k, len(texts)), nil)
+			checkTopLists(t, l, len(texts), k, true, ref, 1e-12)
+			g, err := Text(texts, k)
+			if err != nil {
+				t.Fatal(err)
+			}
+			checkGraph(t, g)
+			checkUnionOf(t, g, l, ref, 1e-12)
+		})
+	}
+}
+
+func TestTiesGoToSmallerIndex(t *testing.T) {
+	// Items 0-3 have identical tags (cosine 1 with each other), item 4 is
+	// different. With k = 2 each of 0-3 keeps the two smallest other indices
+	// (METHODS 1.3: ties broken by item ID), so 2-3 is not an edge: worked
+	// by hand.
+	tags := [][]string{{"a"}, {"a"}, {"a"}, {"a"}, {"b"}}
+	g, err := Tags(tags, 2)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkGraph(t, g)
+	want := map[[2]int32]float64{{0, 1}: 1, {0, 2}: 1, {1, 2}: 1, {0, 3}: 1, {1, 3}: 1}
+	compareEdges(t, edgeMap(g), want, 1e-15)
+}

@@ -1,0 +1,46 @@
+package graph
+
+import (
+	"fmt"
+	"testing"
+)
+
+// Recall targets: Dong, Charikar & Li (WWW 2011, METHODS 1.3) report
+// typically above 90% recall; we require at least that on seeded data.
+
+func denseTestRows(n, dim int, gaussian bool, seed uint64) *denseRows {
+	x, d := standardize(clusteredVectors(n, dim, 20, seed), n, dim)
+	if !gaussian {
+		normalizeRows(x, n, d)
+	}
+	return &denseRows{n: n, d: d, x: x, gaussian: gaussian}
+}
+
+func TestNNDescentRecallVectors(t *testing.T) {
+	for _, gaussian := range []bool{false, true} {
+		t.Run(fmt.Sprintf("gaussian=%v", gaussian), func(t *testing.T) {
+			r := denseTestRows(5000, 16, gaussian, 21)
+			const k = 15
+			exact := exactDense(r, k, nil)
+			approx := approxDense(r, k, 1)
+			rec := listRecall(approx, exact, func(r int) int { return r })
+			t.Logf("neighbour recall %.4f", rec)
+			if rec < 0.9 {
+				t.Errorf("recall %.4f < 0.9", rec)
+			}
+		})
+	}
+}
+
+func TestNNDescentRecallTags(t *testing.T) {
+	tags := topicTags(5000, 500, 50, 5, 22)
+	rows := tagRows(tags)
+	const k = 15
+	exact := exactSparse(rows, k, nil)
+	approx := approxSparse(rows, k, 1)
+	rec := listRecall(approx, exact, func(r int) int { return r })
+	t.Logf("neighbour recall %.4f", rec)
+	if rec < 0.9 {
+		t.Errorf("recall %.4f < 0.9", rec)
+	}
+}

@@ -1,0 +1,244 @@
+package solve
+
+import (
+	"sort"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// Local improvement of the binary tree by rotations (METHODS 5). At a node
+// v with children u and Y, where u has children X1 and X2, the rotations
+//
+//	((X1,X2),Y) → ((X1,Y),X2)   Δcost = n_Y·w(X1,X2) − n_X2·w(X1,Y)
+//	((X1,X2),Y) → ((X2,Y),X1)   Δcost = n_Y·w(X1,X2) − n_X1·w(X2,Y)
+//
+// change Dasgupta's cost by exactly Δ. One pass buckets every edge by its
+// LCA and by the grandchild it enters (O(m) LCA queries on a depth-first
+// layout), scores all rotations, and applies the improving ones best first
+// as long as they do not touch a node an earlier rotation of the same pass
+// changed. A rotation removes the cluster X1∪X2 and flips exactly the
+// triples with one leaf in each of X1, X2, Y, so it is refused when X1∪X2
+// is a cluster constraint or some ab|c has lca(a,b) = u and c in Y.
+
+const defaultImprovePasses = 12
+
+// improveMinGain: passes stop once one lowers the cost by less than this
+// share (later passes then only shuffle a handful of nodes).
+const improveMinGain = 1e-4
+
+// rotation is one candidate move at node v: u is v's child that is broken
+// up and keep is u's child that joins the sibling.
+type rotation struct {
+	delta   float64
+	v, u    int32
+	keep    int32 // the grandchild that stays with Y: X1 in the first form
+	promote int32 // the grandchild that moves up to v
+}
+
+// improveRotations applies rotation passes to the binary tree t (in place)
+// until a pass saves less than the share minGain of the cost (0: until
+// nothing improves) or maxPasses passes ran. t must satisfy c; it still
+// does afterwards.
+func improveRotations(g *graph.CSR, t *Tree, c *Constraints, maxPasses int, minGain float64, progress func(string, int, int)) int {
+	applied := 0
+	for pass := 0; pass < maxPasses; pass++ {
+		progress("improve", pass, maxPasses)
+		k, gain, cost := rotationPass(g, t, c)
+		applied += k
+		if k == 0 || gain < minGain*cost {
+			break
+		}
+	}
+	progress("improve", maxPasses, maxPasses)
+	canonicalOrder(t)
+	return applied
+}
+
+// lcaBuckets are the edge weights bucketed by LCA in a binary tree:
+// cross[v] = w(P, Q) for v's children P, Q; leftP[v] = w(P's first child,
+// Q); leftQ[v] = w(Q's first child, P).
+type lcaBuckets struct {
+	cross, leftP, leftQ []float64
+}
+
+func bucketEdges(g *graph.CSR, t *Tree, lay *layout) lcaBuckets {
+	nodes := t.NumNodes()
+	b := lcaBuckets{make([]float64, nodes), make([]float64, nodes), make([]float64, nodes)}
+	for u := 0; u < g.N; u++ {
+		ts, ws := g.Neighbors(u)
+		for k, x := range ts {
+			if int(x) <= u {
+				continue
+			}
+			p, q := lay.pos[u], lay.pos[x]
+			if p > q {
+				p, q = q, p
+			}
+			v := lay.lcaPos(p, q)
+			wt := ws[k]
+			b.cross[v] += wt
+			if len(t.Kids[v]) != 2 {
+				continue
+			}
+			P, Q := t.Kids[v][0], t.Kids[v][1]
+			if !t.IsLeaf(P) && p < lay.hi[t.Kids[P][0]] {
+				b.leftP[v] += wt
+			}
+			if !t.IsLeaf(Q) && q < lay.hi[t.Kids[Q][0]] {
+				b.leftQ[v] += wt
+			}
+		}
+	}
+	return b
+}
+
+// constraintPins marks the nodes no move may break: pinned[v] when L(v) is
+// a cluster constraint; locked[v] when some ab|c has lca(a,b) = v and c
+// inside v's parent (so v may not be dissolved into its parent).
+func constraintPins(t *Tree, c *Constraints, lay *layout) (pinned, locked []bool) {
+	nodes := t.NumNodes()
+	pinned = make([]bool, nodes)
+	locked = make([]bool, nodes)
+	if c == nil {
+		return
+	}
+	for _, cl := range c.Clusters {
+		if len(cl.Leaves) == 0 {
+			continue
+		}
+		lo, hi := lay.pos[cl.Leaves[0]], lay.pos[cl.Leaves[0]]
+		for _, l := range cl.Leaves {
+			lo, hi = min(lo, lay.pos[l]), max(hi, lay.pos[l])
+		}
+		v := lay.lcaPos(lo, hi)
+		seen := map[int32]bool{}
+		for _, l := range cl.Leaves {
+			seen[l] = true
+		}
+		if int(lay.hi[v]-lay.lo[v]) == len(seen) {
+			pinned[v] = true
+		}
+	}
+	for _, tr := range c.Triplets {
+		if tr.A == tr.B {
+			continue
+		}
+		x := lay.lca(tr.A, tr.B)
+		p := lay.parent[x]
+		if p < 0 {
+			continue
+		}
+		if pc := lay.pos[tr.C]; pc >= lay.lo[p] && pc < lay.hi[p] {
+			locked[x] = true
+		}
+	}
+	return
+}
+
+// rotationPass runs one pass and returns the number of rotations applied,
+// the cost they saved and the cost before the pass.
+func rotationPass(g *graph.CSR, t *Tree, c *Constraints) (int, float64, float64) {
+	if t.N < 3 {
+		return 0, 0, 0
+	}
+	lay := newLayout(t)
+	b := bucketEdges(g, t, lay)
+	pinned, locked := constraintPins(t, c, lay)
+	size := func(v int32) float64 { return float64(lay.hi[v] - lay.lo[v]) }
+	cost := 0.0
+	for v, w := range b.cross {
+		cost += float64(size(int32(v)) * w)
+	}
+	var cands []rotation
+	for vi := t.N; vi < t.NumNodes(); vi++ {
+		v := int32(vi)
+		if len(t.Kids[v]) != 2 || (lay.parent[v] < 0 && v != t.Root) {
+			continue // not binary, or not in the tree
+		}
+		for _, u := range t.Kids[v] {
+			if t.IsLeaf(u) || pinned[u] || locked[u] {
+				continue
+			}
+			for _, r := range rotationsAt(t, lay, &b, v, u) {
+				if improves(r.loss, r.gain) {
+					cands = append(cands, rotation{r.loss - r.gain, v, u, r.keep, r.promote})
+				}
+			}
+		}
+	}
+	sort.Slice(cands, func(i, j int) bool {
+		if cands[i].delta != cands[j].delta {
+			return cands[i].delta < cands[j].delta
+		}
+		if cands[i].v != cands[j].v {
+			return cands[i].v < cands[j].v
+		}
+		return cands[i].promote < cands[j].promote
+	})
+	dirty := make([]bool, t.NumNodes())
+	applied, saved := 0, 0.0
+	for _, r := range cands {
+		p := lay.parent[r.v]
+		if dirty[r.v] || dirty[r.u] || (p >= 0 && dirty[p]) {
+			continue
+		}
+		y := t.Kids[r.v][0]
+		if y == r.u {
+			y = t.Kids[r.v][1]
+		}
+		t.Kids[r.u][0], t.Kids[r.u][1] = r.keep, y
+		t.Kids[r.v][0], t.Kids[r.v][1] = r.u, r.promote
+		dirty[r.v], dirty[r.u] = true, true
+		if p >= 0 {
+			dirty[p] = true
+		}
+		applied++
+		saved -= r.delta
+	}
+	return applied, saved, cost
+}
+
+// rotationTerms is one rotation with its cost change split into the
+// added loss and the saved gain (Δ = loss − gain).
+type rotationTerms struct {
+	loss, gain    float64
+	keep, promote int32
+}
+
+// rotationsAt returns the two rotations at v that break its internal
+// child u: ((X1,X2),Y) → ((X1,Y),X2) and → ((X2,Y),X1).
+func rotationsAt(t *Tree, lay *layout, b *lcaBuckets, v, u int32) [2]rotationTerms {
+	size := func(x int32) float64 { return float64(lay.hi[x] - lay.lo[x]) }
+	P, Q := t.Kids[v][0], t.Kids[v][1]
+	Y, wFirstY := Q, b.leftP[v]
+	if u == Q {
+		Y, wFirstY = P, b.leftQ[v]
+	}
+	X1, X2 := t.Kids[u][0], t.Kids[u][1]
+	wX2Y := b.cross[v] - wFirstY
+	stay := float64(size(Y) * b.cross[u]) // n_Y · w(X1,X2)
+	return [2]rotationTerms{
+		{stay, float64(size(X2) * wFirstY), X1, X2}, // X2 moves up
+		{stay, float64(size(X1) * wX2Y), X2, X1},    // X1 moves up
+	}
+}
+
+// improves reports whether a move that adds cost loss and saves gain is a
+// real improvement and not rounding noise relative to the two terms.
+func improves(loss, gain float64) bool {
+	return gain-loss > 1e-12*(loss+gain)
+}
+
+// canonicalOrder sorts every node's children by their smallest leaf.
+func canonicalOrder(t *Tree) {
+	minLeaf := make([]int32, t.NumNodes())
+	for _, v := range t.PostOrder() {
+		if t.IsLeaf(v) {
+			minLeaf[v] = v
+			continue
+		}
+		kids := t.Kids[v]
+		sort.Slice(kids, func(i, j int) bool { return minLeaf[kids[i]] < minLeaf[kids[j]] })
+		minLeaf[v] = minLeaf[kids[0]]
+	}
+}

@@ -1,0 +1,225 @@
+// Package naming gives the categories of a freshly solved taxonomy their
+// names: names decided by editors (named groups), names carried over from
+// the previous version by membership, and provisional names made up from
+// the members' most distinctive tags or words.
+package naming
+
+import (
+	"slices"
+	"strings"
+
+	"github.com/ramify-tax/ramify/diff"
+	"github.com/ramify-tax/ramify/format"
+)
+
+// Fixed is a named group constraint: exactly these items form one
+// category, and it is called Name.
+type Fixed struct {
+	Items []string
+	Name  string
+}
+
+// Counts says how the categories got their names.
+type Counts struct {
+	Fixed       int // from a named group
+	Carried     int // from the matching category of the previous version
+	Provisional int // made up from the members' words
+	Suffixed    int // given " 2", " 3", … to differ from a sibling
+}
+
+// CarryJaccard is the least Jaccard overlap, on the items both versions
+// hold, at which a category of the previous version hands its name to a
+// new one. At or above 1/2 a category's candidates are nested in the other
+// tree (METHODS.md section 10), so the matching stays small.
+const CarryJaccard = 0.5
+
+// Assign names every category below root (the root itself keeps no name),
+// in place, in this order of precedence:
+//
+//  1. A category whose items (all items below it) are exactly a named
+//     group's gets the group's name, confirmed (Provisional false). When
+//     several groups have the same items, the first in fixed wins; when a
+//     category and its only subcategory have them, the outer one. A name
+//     that format.CheckCategoryName rejects is ignored (the constraint
+//     parser reports it).
+//  2. Otherwise, if prev is not nil, the categories of prev are matched to
+//     the new ones by diff.MatchClusters on the Jaccard overlap of their
+//     items, counting only items present in both trees, kept at
+//     ≥ CarryJaccard; a matched category takes the old name and its
+//     Provisional flag.
+//  3. Any other category gets a provisional name from words, which lists
+//     the tags or words of an item (see ProvisionalName).
+//
+// Finally, names are made unique among siblings: the category with the
+// strongest claim keeps the name — fixed, then carried and confirmed,
+// then carried provisional, then made up; among equals the one with the
+// smallest item id — and the others get " 2", " 3", … (the first number
+// no sibling uses). The outcome depends only on the inputs.
+func Assign(root, prev *format.Category, fixed []Fixed, words func(item string) []string) Counts {
+	cats := categories(root)
+	claims := make([]claim, len(cats))
+	var counts Counts
+
+	byItems := map[string]string{}
+	sizes := map[int]bool{} // only categories of a group's size can match it
+	for _, g := range fixed {
+		key := setKey(g.Items)
+		if _, seen := byItems[key]; !seen && format.CheckCategoryName(g.Name) == "" {
+			byItems[key] = g.Name
+			sizes[len(g.Items)] = true
+		}
+	}
+	for i, c := range cats {
+		if !sizes[len(c.members)] {
+			continue
+		}
+		key := setKey(c.members)
+		if name, ok := byItems[key]; ok {
+			c.cat.Name, c.cat.Provisional = name, false
+			claims[i] = claimFixed
+			counts.Fixed++
+			// A category and its only subcategory can hold the same items;
+			// the outer one, first in walk order, takes the name.
+			delete(byItems, key)
+		}
+	}
+
+	if prev != nil {
+		old := categories(prev)
+		newSets, oldSets := commonSets(cats, old)
+		for _, p := range diff.MatchClusters(oldSets, newSets, CarryJaccard) {
+			if claims[p.New] != claimNone {
+				continue
+			}
+			from := old[p.Old].cat
+			cats[p.New].cat.Name, cats[p.New].cat.Provisional = from.Name, from.Provisional
+			claims[p.New] = claimCarried
+			if from.Provisional {
+				claims[p.New] = claimCarriedProvisional
+			}
+			counts.Carried++
+		}
+	}
+
+	maker := newWordCounter(words)
+	rootItems := root.AllItems()
+	slices.Sort(rootItems)
+	for i, c := range cats {
+		if claims[i] != claimNone {
+			continue
+		}
+		parentItems, parentName := rootItems, ""
+		if c.parent >= 0 {
+			parentItems, parentName = cats[c.parent].members, cats[c.parent].cat.Name
+		}
+		c.cat.Name = maker.name(i, c.members, c.parent, parentItems, parentName)
+		c.cat.Provisional = true
+		claims[i] = claimMade
+		counts.Provisional++
+	}
+
+	counts.Suffixed = makeUnique(root, cats, claims)
+	return counts
+}
+
+// claim ranks how strongly a category holds its name, strongest first.
+type claim int
+
+const (
+	claimNone claim = iota
+	claimFixed
+	claimCarried
+	claimCarriedProvisional
+	claimMade
+)
+
+// category is a non-root category with its members (all items below it,
+// sorted) and the index of its parent category (−1 for the top level).
+type category struct {
+	cat     *format.Category
+	members []string
+	parent  int
+}
+
+// categories lists the categories below root in walk order (parents
+// before children).
+func categories(root *format.Category) []category {
+	var out []category
+	index := map[*format.Category]int{}
+	var parentOf = map[*format.Category]int{}
+	root.Walk(func(c *format.Category, _ int) bool {
+		if c != root {
+			index[c] = len(out)
+			out = append(out, category{cat: c, parent: parentOf[c]})
+		}
+		for _, ch := range c.Children {
+			if c == root {
+				parentOf[ch] = -1
+			} else {
+				parentOf[ch] = index[c]
+			}
+		}
+		return true
+	})
+	// Members bottom-up: walk order puts children after parents.
+	for i := len(out) - 1; i >= 0; i-- {
+		out[i].members = append(out[i].members, out[i].cat.Items...)
+		slices.Sort(out[i].members)
+		if p := out[i].parent; p >= 0 {
+			out[p].members = append(out[p].members, out[i].members...)
+		}
+	}
+	return out
+}
+
+// setKey identifies a set of items regardless of order.
+func setKey(items []string) string {
+	s := slices.Clone(items)
+	slices.Sort(s)
+	s = slices.Compact(s)
+	return strings.Join(s, "\x00")
+}
+
+// commonSets turns both trees' member lists into sorted index sets over
+// the items they share, for the matching.
+func commonSets(cur, old []category) (curSets, oldSets [][]int32) {
+	inOld := map[string]bool{}
+	for _, c := range old {
+		for _, it := range c.members {
+			inOld[it] = true
+		}
+	}
+	index := map[string]int32{}
+	for _, c := range cur {
+		for _, it := range c.members {
+			if inOld[it] {
+				index[it] = 0
+			}
+		}
+	}
+	ids := make([]string, 0, len(index))
+	for it := range index {
+		ids = append(ids, it)
+	}
+	slices.Sort(ids)
+	for i, it := range ids {
+		index[it] = int32(i)
+	}
+	toSet := func(members []string) []int32 {
+		var s []int32
+		for _, it := range members {
+			if i, ok := index[it]; ok {
+				s = append(s, i)
+			}
+		}
+		slices.Sort(s)
+		return s
+	}
+	for _, c := range cur {
+		curSets = append(curSets, toSet(c.members))
+	}
+	for _, c := range old {
+		oldSets = append(oldSets, toSet(c.members))
+	}
+	return curSets, oldSets
+}

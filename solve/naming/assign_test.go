@@ -1,0 +1,275 @@
+package naming
+
+import (
+	"strings"
+	"testing"
+
+	"github.com/ramify-tax/ramify/format"
+)
+
+// outline parses a hand-written outline; in tests categories of a new tree
+// carry placeholder names ("_") that Assign overwrites.
+func outline(t *testing.T, text string) *format.Category {
+	t.Helper()
+	o, err := format.ParseOutline("test.outline", []byte(text))
+	if err != nil {
+		t.Fatalf("ParseOutline: %v", err)
+	}
+	return o.Root
+}
+
+// unnamed builds a tree from nested item lists: a string is an item, a
+// []any a category with a blank name.
+func unnamed(members ...any) *format.Category {
+	c := &format.Category{}
+	for _, m := range members {
+		switch v := m.(type) {
+		case string:
+			c.Items = append(c.Items, v)
+		case []any:
+			c.Children = append(c.Children, unnamed(v...))
+		}
+	}
+	return c
+}
+
+// tags is a words function from a table.
+func tags(table map[string]string) func(string) []string {
+	return func(item string) []string { return strings.Fields(table[item]) }
+}
+
+// names prints the tree's category lines, one per line, indented: the
+// shape and the names at a glance.
+func names(root *format.Category) string {
+	var b strings.Builder
+	root.Walk(func(c *format.Category, depth int) bool {
+		if c != root {
+			b.WriteString(strings.Repeat("  ", depth-1) + c.DisplayName() + "\n")
+		}
+		return true
+	})
+	return b.String()
+}
+
+var toolTags = map[string]string{
+	"claw-hammer":      "hammer hand striking",
+	"mallet-rubber":    "hammer hand striking rubber",
+	"drill-driver-18v": "power drill battery",
+	"laser-level":      "measure laser level",
+	"spirit-level-60":  "measure level spirit",
+	"tape-measure-8m":  "measure tape",
+}
+
+func TestAssignProvisionalNames(t *testing.T) {
+	root := unnamed(
+		[]any{[]any{"claw-hammer", "mallet-rubber"}, "drill-driver-18v"},
+		[]any{[]any{"laser-level", "spirit-level-60"}, "tape-measure-8m"},
+	)
+	counts := Assign(root, nil, nil, tags(toolTags))
+	// Scores hand-computed from the formula in ProvisionalName,
+	// p_C·ln(p_C/p_P):
+	// {claw, mallet, drill} in all 6: hammer, hand, striking 2/3·ln 2 =
+	// 0.462 each (byte order: hammer, hand); rubber, power, drill, battery
+	// 1/3·ln 2 = 0.231.
+	// {claw, mallet} in those 3: hammer, hand, striking 1·ln 1.5 = 0.405;
+	// "hammer · hand" is the parent's name, so the next pair is taken.
+	// {laser, spirit, tape} in all 6: measure 1·ln 2 = 0.693, level
+	// 2/3·ln 2 = 0.462.
+	// {laser, spirit} in those 3: level 1·ln 1.5 = 0.405; laser, spirit
+	// 0.5·ln 1.5 = 0.203 (byte order: laser); measure is everywhere: 0.
+	want := "~ hammer · hand\n" +
+		"  ~ hammer · striking\n" +
+		"~ measure · level\n" +
+		"  ~ level · laser\n"
+	if got := names(root); got != want {
+		t.Errorf("names:\n%s\nwant:\n%s", got, want)
+	}
+	if counts != (Counts{Provisional: 4}) {
+		t.Errorf("counts = %+v", counts)
+	}
+}
+
+// A category whose items equal a named group's takes that name,
+// confirmed; the group's item order does not matter; a group matching no
+// category, and a group whose name is not a valid category name, change
+// nothing.
+func TestAssignFixedNames(t *testing.T) {
+	root := unnamed(
+		[]any{[]any{"claw-hammer", "mallet-rubber"}, "drill-driver-18v"},
+		[]any{[]any{"laser-level", "spirit-level-60"}, "tape-measure-8m"},
+	)
+	fixed := []Fixed{
+		{Items: []string{"spirit-level-60", "laser-level"}, Name: "Levels"},
+		{Items: []string{"spirit-level-60", "laser-level"}, Name: "Second name for the same group"},
+		{Items: []string{"claw-hammer", "drill-driver-18v"}, Name: "Not a category"},
+		{Items: []string{"claw-hammer", "mallet-rubber"}, Name: "# comment-like"},
+	}
+	counts := Assign(root, nil, fixed, tags(toolTags))
+	want := "~ hammer · hand\n" +
+		"  ~ hammer · striking\n" +
+		"~ measure · level\n" +
+		"  Levels\n"
+	if got := names(root); got != want {
+		t.Errorf("names:\n%s\nwant:\n%s", got, want)
+	}
+	if counts != (Counts{Fixed: 1, Provisional: 3}) {
+		t.Errorf("counts = %+v", counts)
+	}
+}
+
+// Names travel with membership: each category of the previous outline
+// hands its name (and its provisional mark) to the new category it
+// overlaps most, at Jaccard ≥ 0.5 over the items both trees hold. New
+// items do not count against the overlap.
+func TestAssignCarriesPreviousNames(t *testing.T) {
+	prev := outline(t, `Fastening/
+  Hammers/
+    claw-hammer
+    mallet-rubber
+  drill-driver-18v
+Measuring/
+  ~ laser · level/
+    laser-level
+    spirit-level-60
+  tape-measure-8m
+`)
+	// New version: a new item, sledge-4lb, joins the hammers; over the
+	// common items Hammers still matches at 1 and Fastening at 1, while the
+	// crossed pairs would score 2/3 each. Measuring and its subcategory
+	// are unchanged and keep their names, the provisional mark included.
+	root := unnamed(
+		[]any{[]any{"claw-hammer", "mallet-rubber", "sledge-4lb"}, "drill-driver-18v"},
+		[]any{[]any{"laser-level", "spirit-level-60"}, "tape-measure-8m"},
+	)
+	counts := Assign(root, prev, nil, tags(toolTags))
+	want := "Fastening\n" +
+		"  Hammers\n" +
+		"Measuring\n" +
+		"  ~ laser · level\n"
+	if got := names(root); got != want {
+		t.Errorf("names:\n%s\nwant:\n%s", got, want)
+	}
+	if counts != (Counts{Carried: 4}) {
+		t.Errorf("counts = %+v", counts)
+	}
+}
+
+// A previous category that overlaps less than half gives no name: the new
+// category gets a provisional one. A group name beats a carried name.
+func TestAssignCarryThresholdAndPrecedence(t *testing.T) {
+	prev := outline(t, `Hand tools/
+  claw-hammer
+  mallet-rubber
+  drill-driver-18v
+Measuring/
+  laser-level
+  spirit-level-60
+  tape-measure-8m
+`)
+	// {claw, laser}: Jaccard 1/4 with Hand tools, 1/4 with Measuring.
+	root := unnamed(
+		[]any{"claw-hammer", "laser-level"},
+		[]any{"mallet-rubber", "drill-driver-18v"},
+		[]any{"spirit-level-60", "tape-measure-8m"},
+	)
+	fixed := []Fixed{{Items: []string{"mallet-rubber", "drill-driver-18v"}, Name: "Workshop"}}
+	Assign(root, prev, fixed, tags(toolTags))
+	var got []string
+	for _, c := range root.Children {
+		got = append(got, c.DisplayName())
+	}
+	// {mallet, drill}: Hand tools at 2/3, but the group's name wins.
+	// {spirit, tape}: Measuring at 2/3.
+	// {claw, laser}: no name carried, so made from words (hand-computed,
+	// p_C·ln(p_C/p_P) over the 6 items): laser 0.5·ln 3 = 0.549; hammer,
+	// hand, level, striking 0.5·ln 1.5 = 0.203 (byte order: hammer);
+	// measure 0.5·ln 1 = 0.
+	want := []string{"~ laser · hammer", "Workshop", "Measuring"}
+	if strings.Join(got, "|") != strings.Join(want, "|") {
+		t.Errorf("names = %q, want %q", got, want)
+	}
+}
+
+// Siblings never share a name: the stronger claim keeps it and the others
+// get " 2", " 3", skipping numbers a sibling already uses.
+func TestAssignMakesSiblingNamesUnique(t *testing.T) {
+	words := tags(map[string]string{
+		"a1": "red", "a2": "red",
+		"b1": "red", "b2": "red",
+		"c1": "red", "c2": "red",
+		"d1": "blue",
+	})
+	root := unnamed([]any{"a1", "a2"}, []any{"b1", "b2"}, []any{"c1", "c2"}, []any{"d1"})
+	fixed := []Fixed{{Items: []string{"c1", "c2"}, Name: "red"}, {Items: []string{"d1"}, Name: "red 2"}}
+	counts := Assign(root, nil, fixed, words)
+	var got []string
+	for _, c := range root.Children {
+		got = append(got, c.DisplayName())
+	}
+	// The fixed "red" keeps its name; the made-up "red" names of {a} and
+	// {b} become "red 3" and "red 4" (in order of their smallest item),
+	// since a fixed sibling holds "red 2".
+	want := []string{"~ red 3", "~ red 4", "red", "red 2"}
+	if strings.Join(got, "|") != strings.Join(want, "|") {
+		t.Errorf("names = %q, want %q", got, want)
+	}
+	if counts.Suffixed != 2 {
+		t.Errorf("counts = %+v, want 2 suffixed", counts)
+	}
+}
+
+// Words that cannot start a category name are skipped; with no usable
+// word the smallest member id names the category.
+func TestProvisionalNameFallbacks(t *testing.T) {
+	words := tags(map[string]string{
+		"x1": "#hash ~ \x01ctl", "x2": "#hash",
+		"y1": "plain", "y2": "",
+	})
+	tests := []struct {
+		name            string
+		members, parent []string
+		want            string
+	}{
+		{"only unusable words", []string{"x2", "x1"}, []string{"x1", "x2", "y1"}, "x1"},
+		{"one usable word", []string{"y1", "y2"}, []string{"x1", "x2", "y1", "y2"}, "plain"},
+		{"no words anywhere", []string{"y2"}, []string{"y2", "x1"}, "y2"},
+		// Every word is everywhere in the parent: no positive score, the
+		// most frequent words are used.
+		{"nothing distinctive", []string{"y1"}, []string{"y1"}, "plain"},
+	}
+	for _, tc := range tests {
+		got := ProvisionalName(tc.members, tc.parent, words)
+		if got != tc.want {
+			t.Errorf("%s: ProvisionalName(%q, %q) = %q, want %q", tc.name, tc.members, tc.parent, got, tc.want)
+		}
+		if msg := format.CheckCategoryName(got); msg != "" {
+			t.Errorf("%s: %q: %s", tc.name, got, msg)
+		}
+	}
+}
+
+// The named tree is a valid outline: it prints and parses back to the
+// same names, and naming a copy again gives the same result.
+func TestAssignRoundTripsAndIsDeterministic(t *testing.T) {
+	build := func() *format.Category {
+		return unnamed(
+			[]any{[]any{"claw-hammer", "mallet-rubber"}, "drill-driver-18v"},
+			[]any{[]any{"laser-level", "spirit-level-60"}, "tape-measure-8m"},
+			[]any{"x-1", "x-2"}, []any{"x-3", "x-4"}, // no words: named by id
+		)
+	}
+	a, b := build(), build()
+	Assign(a, nil, nil, tags(toolTags))
+	Assign(b, nil, nil, tags(toolTags))
+	ta, tb := string(format.FormatOutline(a)), string(format.FormatOutline(b))
+	if ta != tb {
+		t.Fatalf("two runs differ:\n%s\n%s", ta, tb)
+	}
+	o, err := format.ParseOutline("named.outline", []byte(ta))
+	if err != nil {
+		t.Fatalf("named tree does not parse: %v\n%s", err, ta)
+	}
+	if got := string(format.FormatOutline(o.Root)); got != ta {
+		t.Errorf("round trip changed the outline:\n%s\nwant:\n%s", got, ta)
+	}
+}

@@ -1,0 +1,402 @@
+package solve
+
+import (
+	"errors"
+	"fmt"
+	"math/bits"
+	"math/rand/v2"
+	"sort"
+	"strings"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// Options steer Solve. Zero values mean "no limit" / "off".
+type Options struct {
+	// MinSize: a category with fewer items is folded into its parent unless
+	// a constraint needs it or the fold would exceed MaxChildren.
+	MinSize int
+	// MaxChildren bounds the children of a category; folding never exceeds
+	// it (the binary tree it starts from has two children everywhere).
+	MaxChildren int
+	// MaxDepth bounds how many categories may nest on a path from the root
+	// (the root, which is the outline file itself, is not counted): an item
+	// sits at tree depth at most MaxDepth+1. Folding goes on until every path
+	// fits or no legal fold is left.
+	MaxDepth int
+	// Seed fixes the spectral start vectors and every other pseudo-random
+	// choice.
+	Seed uint64
+	// Stability > 0 pulls the tree toward Prior (see stability in solve.go).
+	Stability float64
+	// Prior lists the leaf sets of the previous outline's categories.
+	Prior [][]int32
+	// Progress, if set, is told how far each stage has come.
+	Progress func(stage string, done, total int)
+}
+
+// Result is what Solve produces.
+type Result struct {
+	// Binary is the constrained binary hierarchy after local improvement.
+	Binary *Tree
+	// Taxonomy is Binary folded into a multiway tree of categories.
+	Taxonomy *Tree
+}
+
+// ConflictError reports inconsistent constraints: Records is a minimal
+// conflicting set of record indices (dropping any one makes the rest
+// consistent), ascending.
+type ConflictError struct {
+	Records []int
+}
+
+func (e *ConflictError) Error() string {
+	parts := make([]string, len(e.Records))
+	for i, r := range e.Records {
+		parts[i] = fmt.Sprint(r)
+	}
+	return "solve: constraints conflict (records " + strings.Join(parts, ", ") + ")"
+}
+
+// Solve builds the taxonomy for g under the constraints c (nil: none).
+// Consistency is decided first, before any clustering; inconsistent
+// constraints give a *ConflictError. The binary tree is built top-down
+// (construct.go), improved by rotations (improve.go) and folded into the
+// multiway taxonomy (fold.go); every step keeps every constraint.
+func Solve(g *graph.CSR, c *Constraints, opt Options) (*Result, error) {
+	return solveWith(g, c, opt, constructParams{})
+}
+
+// solveWith is Solve with the construction's internal limits exposed, so
+// that tests can switch the exact DP off and check the spectral path.
+func solveWith(g *graph.CSR, c *Constraints, opt Options, cp constructParams) (*Result, error) {
+	if g == nil || g.N == 0 {
+		return nil, errors.New("solve: empty graph")
+	}
+	if c == nil {
+		c = &Constraints{}
+	}
+	if err := checkLeaves(g.N, c); err != nil {
+		return nil, err
+	}
+	if opt.MaxChildren == 1 {
+		return nil, errors.New("solve: max children must be at least 2")
+	}
+	progress := opt.Progress
+	if progress == nil {
+		progress = func(string, int, int) {}
+	}
+	progress("constraints", 0, 1)
+	if ok, recs := Consistent(g.N, c); !ok {
+		return nil, &ConflictError{Records: recs}
+	}
+	progress("constraints", 1, 1)
+	work := g
+	if opt.Stability > 0 && len(opt.Prior) > 0 {
+		var err error
+		work, err = stabilityGraph(g, opt.Prior, opt.Stability, opt.Seed)
+		if err != nil {
+			return nil, err
+		}
+	}
+	cp.seed, cp.progress = opt.Seed, progress
+	binary, err := construct(work, c, cp)
+	if err != nil {
+		return nil, err
+	}
+	improveRotations(work, binary, c, defaultImprovePasses, improveMinGain, progress)
+	tax := fold(work, binary, c, foldParams{
+		minSize:     opt.MinSize,
+		maxChildren: opt.MaxChildren,
+		maxDepth:    opt.MaxDepth,
+		ratio:       foldTightness,
+		prior:       priorForFold(opt),
+	}, progress)
+	return &Result{Binary: binary, Taxonomy: tax}, nil
+}
+
+func checkLeaves(n int, c *Constraints) error {
+	bad := func(l int32) bool { return l < 0 || int(l) >= n }
+	for _, t := range c.Triplets {
+		if bad(t.A) || bad(t.B) || bad(t.C) {
+			return fmt.Errorf("solve: record %d names an item outside 0..%d", t.Record, n-1)
+		}
+	}
+	for _, cl := range c.Clusters {
+		for _, l := range cl.Leaves {
+			if bad(l) {
+				return fmt.Errorf("solve: record %d names an item outside 0..%d", cl.Record, n-1)
+			}
+		}
+	}
+	return nil
+}
+
+// Satisfies returns the indices of the records that t violates (ascending,
+// each once): a triplet ab|c is violated unless lca(a,b) lies strictly below
+// lca(a,b,c); a cluster unless its leaves are exactly the leaf set of a
+// node. t may be multiway.
+func Satisfies(t *Tree, c *Constraints) []int {
+	if c == nil {
+		return nil
+	}
+	lay := newLayout(t)
+	bad := map[int]bool{}
+	outside := func(l int32) bool { return l < 0 || int(l) >= t.N || lay.pos[l] < 0 }
+	for _, tr := range c.Triplets {
+		if outside(tr.A) || outside(tr.B) || outside(tr.C) {
+			bad[tr.Record] = true
+			continue
+		}
+		if tr.A == tr.B {
+			continue
+		}
+		if tr.C == tr.A || tr.C == tr.B {
+			bad[tr.Record] = true
+			continue
+		}
+		x := lay.lca(tr.A, tr.B)
+		y := lay.lcaPos(min(lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]), max(lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]))
+		if x == y {
+			bad[tr.Record] = true
+		}
+	}
+	for _, cl := range c.Clusters {
+		if len(cl.Leaves) == 0 {
+			bad[cl.Record] = true
+			continue
+		}
+		lo, hi := int32(1<<30), int32(-1)
+		seen := map[int32]bool{}
+		ok := true
+		for _, l := range cl.Leaves {
+			if outside(l) {
+				ok = false
+				break
+			}
+			seen[l] = true
+			lo = min(lo, lay.pos[l])
+			hi = max(hi, lay.pos[l])
+		}
+		if !ok {
+			bad[cl.Record] = true
+			continue
+		}
+		v := lay.lcaPos(lo, hi)
+		if int(lay.hi[v]-lay.lo[v]) != len(seen) {
+			bad[cl.Record] = true
+		}
+	}
+	out := make([]int, 0, len(bad))
+	for r := range bad {
+		out = append(out, r)
+	}
+	return uniqueInts(out)
+}
+
+// layout places the leaves of a tree in depth-first order so that every
+// node covers a contiguous range of positions. The gap g (between
+// positions g-1 and g) belongs to the lowest node containing both; the LCA
+// of positions p < q is the shallowest owner of the gaps p+1..q, found by a
+// sparse-table range minimum in O(1) per query.
+type layout struct {
+	t        *Tree
+	pos      []int32 // leaf → position (-1 if unreachable)
+	leafAt   []int32 // position → leaf
+	lo, hi   []int32 // node → its positions [lo, hi)
+	depth    []int32 // node → depth (root 0)
+	parent   []int32
+	gapNode  []int32   // gap g+1 → owning node
+	gapDepth []int32   // gap g+1 → depth of its owner
+	table    [][]int32 // table[k][g] = gap of minimum depth in [g, g+2^k)
+}
+
+func newLayout(t *Tree) *layout {
+	nodes := t.NumNodes()
+	l := &layout{
+		t:      t,
+		pos:    make([]int32, t.N),
+		lo:     make([]int32, nodes),
+		hi:     make([]int32, nodes),
+		depth:  make([]int32, nodes),
+		parent: make([]int32, nodes),
+	}
+	for i := range l.pos {
+		l.pos[i] = -1
+	}
+	for i := range l.parent {
+		l.parent[i] = -1
+	}
+	gapDepthOf := make([]int32, 0, t.N)
+	l.gapNode = make([]int32, 0, t.N)
+	l.leafAt = make([]int32, 0, t.N)
+	if t.N == 0 {
+		return l
+	}
+	type frame struct {
+		v    int32
+		next int
+	}
+	stack := []frame{{t.Root, 0}}
+	l.lo[t.Root] = 0
+	for len(stack) > 0 {
+		f := &stack[len(stack)-1]
+		v := f.v
+		if t.IsLeaf(v) {
+			p := int32(len(l.leafAt))
+			l.pos[v] = p
+			l.leafAt = append(l.leafAt, v)
+			l.lo[v], l.hi[v] = p, p+1
+			stack = stack[:len(stack)-1]
+			continue
+		}
+		kids := t.Kids[v]
+		if f.next < len(kids) {
+			if f.next > 0 {
+				// The gap before the next child's first leaf belongs to v.
+				l.gapNode = append(l.gapNode, v)
+				gapDepthOf = append(gapDepthOf, l.depth[v])
+			} else {
+				l.lo[v] = int32(len(l.leafAt))
+			}
+			c := kids[f.next]
+			f.next++
+			l.parent[c] = v
+			l.depth[c] = l.depth[v] + 1
+			stack = append(stack, frame{c, 0})
+			continue
+		}
+		l.hi[v] = int32(len(l.leafAt))
+		stack = stack[:len(stack)-1]
+	}
+	// gapNode[i] describes gap i+1; index the table by gap-1.
+	m := len(l.gapNode)
+	if m == 0 {
+		return l
+	}
+	levels := bits.Len(uint(m))
+	l.table = make([][]int32, levels)
+	l.table[0] = make([]int32, m)
+	for i := range l.table[0] {
+		l.table[0][i] = int32(i)
+	}
+	for k := 1; k < levels; k++ {
+		prev := l.table[k-1]
+		cur := make([]int32, m-(1<<k)+1)
+		half := 1 << (k - 1)
+		for i := range cur {
+			a, b := prev[i], prev[i+half]
+			if gapDepthOf[b] < gapDepthOf[a] {
+				a = b
+			}
+			cur[i] = a
+		}
+		l.table[k] = cur
+	}
+	l.gapDepth = gapDepthOf
+	return l
+}
+
+// lcaPos returns the lowest common ancestor of the leaves at positions
+// p ≤ q.
+func (l *layout) lcaPos(p, q int32) int32 {
+	if p == q {
+		return l.leafAt[p]
+	}
+	// gaps p+1..q are table indices p..q-1
+	a, b := int(p), int(q-1)
+	k := bits.Len(uint(b-a+1)) - 1
+	x, y := l.table[k][a], l.table[k][b-(1<<k)+1]
+	if l.gapDepth[y] < l.gapDepth[x] {
+		x = y
+	}
+	return l.gapNode[x]
+}
+
+// lca returns the lowest common ancestor of leaves a and b.
+func (l *layout) lca(a, b int32) int32 {
+	p, q := l.pos[a], l.pos[b]
+	if p > q {
+		p, q = q, p
+	}
+	return l.lcaPos(p, q)
+}
+
+func priorForFold(opt Options) [][]int32 {
+	if opt.Stability > 0 {
+		return opt.Prior
+	}
+	return nil
+}
+
+// Stability. With Stability > 0 the previous outline's categories pull the
+// new tree toward themselves: the members of each previous category are
+// joined by a sparse expander — a ring through them in a seeded random order
+// plus the chords halfway round it, about three extra edges per member — of
+// weight Stability × the graph's mean edge weight × stabilityScale each. An
+// expander makes every split of the category cost in proportion to its
+// smaller side, as a clique would, with O(|category|) edges instead of
+// O(|category|²). The random order depends only on the seed and the
+// category's members, not on where the category is listed.
+const stabilityScale = 1.0
+
+func stabilityGraph(g *graph.CSR, prior [][]int32, stability float64, seed uint64) (*graph.CSR, error) {
+	edges := g.Edges()
+	if len(edges) == 0 {
+		return g, nil
+	}
+	total := 0.0
+	for _, e := range edges {
+		total += e.W
+	}
+	beta := float64(stability*total/float64(len(edges))) * stabilityScale
+	type pair struct{ a, b int32 }
+	added := map[pair]bool{}
+	var extra []graph.Edge
+	link := func(a, b int32) {
+		if a == b {
+			return
+		}
+		if a > b {
+			a, b = b, a
+		}
+		if !added[pair{a, b}] {
+			added[pair{a, b}] = true
+			extra = append(extra, graph.Edge{A: a, B: b, W: beta})
+		}
+	}
+	for _, cat := range prior {
+		ms := make([]int32, 0, len(cat))
+		for _, l := range cat {
+			if l >= 0 && int(l) < g.N {
+				ms = append(ms, l)
+			}
+		}
+		ms = sortedUnique(ms)
+		if len(ms) < 2 {
+			continue
+		}
+		h := seed
+		for _, l := range ms {
+			h = h*0x100000001B3 ^ uint64(uint32(l))
+		}
+		rng := rand.New(rand.NewPCG(seed, h))
+		rng.Shuffle(len(ms), func(i, j int) { ms[i], ms[j] = ms[j], ms[i] })
+		s := len(ms)
+		for i := range ms {
+			link(ms[i], ms[(i+1)%s])
+			if s >= 4 {
+				link(ms[i], ms[(i+s/2)%s])
+			}
+		}
+	}
+	// Merge each bonus into its pair (FromEdges sums duplicates in a fixed
+	// order).
+	sort.Slice(extra, func(i, j int) bool {
+		if extra[i].A != extra[j].A {
+			return extra[i].A < extra[j].A
+		}
+		return extra[i].B < extra[j].B
+	})
+	return graph.FromEdges(g.N, append(edges, extra...))
+}
