@@ -3,7 +3,7 @@ package diff
 import (
 	"fmt"
 
-	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/review/bounds"
 	"github.com/ramify-tax/ramify/solve"
 )
 
@@ -44,7 +44,7 @@ func TripletAgreementSampled(a, b *solve.Tree, samples int, seed uint64) (est, l
 	}
 	x, y := newTreeIndex(a), newTreeIndex(b)
 	agree := sampleTriplets(newLCATable(a, x), newLCATable(b, y), a.N, samples, seed)
-	lo, hi = review.ClopperPearson(agree, samples, 0.95)
+	lo, hi = bounds.ClopperPearson(agree, samples, 0.95)
 	return float64(agree) / float64(samples), lo, hi
 }
 

@@ -1,4 +1,4 @@
-package review
+package bounds
 
 import (
 	"encoding/csv"

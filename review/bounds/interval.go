@@ -1,5 +1,7 @@
-// Package review chooses review packets, absorbs verdicts and estimates reject rates.
-package review
+// Package bounds holds the exact binomial intervals ramify reports: the
+// Clopper-Pearson interval for a reject rate estimated from random audits,
+// and for triplet agreement estimated from sampled triplets.
+package bounds
 
 import (
 	"fmt"
