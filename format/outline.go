@@ -42,6 +42,16 @@ func ParseOutline(file string, data []byte) (*Outline, error) {
 // header is true, leading comment lines may carry the format line and the
 // structure hash.
 func parseTree(file string, data []byte, firstLine int, header bool) (*Category, string, Diags) {
+	lines := strings.Split(string(data), "\n")
+	return parseTreeLines(file, lines, func(i int) lineCol { return lineCol{firstLine + i, 1} }, header, nil)
+}
+
+// parseTreeLines parses outline lines whose places in the file are given
+// by start: the line and column of the first character of lines[i]. A
+// shape's outline sits inside a TOML string, so its lines need not start
+// at column 1 or follow one another in the file. onItem, if not nil, hears
+// of every item accepted, with its place, in file order.
+func parseTreeLines(file string, lines []string, start func(i int) lineCol, header bool, onItem func(id string, at Pos)) (*Category, string, Diags) {
 	var ds Diags
 	root := &Category{}
 	// stack[d] is the open category at depth d; stack[0] is the root.
@@ -49,17 +59,31 @@ func parseTree(file string, data []byte, firstLine int, header bool) (*Category,
 	seenItem := map[string]int{}
 	// siblingNames[cat] maps child names to their line, to catch duplicates.
 	siblingNames := map[*Category]map[string]int{}
+	// catPos is where each category line starts, for the empty check.
+	catPos := map[*Category]Pos{}
+	// damaged marks categories under which a line was dropped for an
+	// error; they are not also reported as empty.
+	damaged := map[*Category]bool{}
+	// After an indentation error, lines indented deeper than skipDeeper
+	// levels are dropped silently: they belong to the bad line, and
+	// reporting each of them would bury the one mistake.
+	skipDeeper := -1
 	structure := ""
 	inHeader := header
-	lines := strings.Split(string(data), "\n")
 	if len(lines) > 0 && lines[len(lines)-1] == "" {
 		lines = lines[:len(lines)-1]
 	}
 	for i, line := range lines {
-		lineNo := firstLine + i
-		at := func(byteCol int) Pos { return Pos{file, lineNo, RuneCol(line, byteCol)} }
+		first := start(i)
+		lineNo := first.Line
+		at := func(byteCol int) Pos { return Pos{file, lineNo, first.Col - 1 + RuneCol(line, byteCol)} }
 		if t := strings.IndexByte(line, '\t'); t >= 0 {
-			ds.Add(at(t), "tab character; indent with two spaces per level")
+			if strings.TrimLeft(line[:t], " ") == "" {
+				ds.Add(at(t), "tab in the indentation; indent with two spaces per level")
+			} else {
+				ds.Add(at(t), "tab character; category names and item ids cannot hold tabs")
+			}
+			damaged[stack[len(stack)-1]] = true
 			continue
 		}
 		trimmed := strings.TrimRight(line, " ")
@@ -72,12 +96,12 @@ func parseTree(file string, data []byte, firstLine int, header bool) (*Category,
 			if inHeader && indent == 0 {
 				if v, ok := strings.CutPrefix(body, "# ramify outline "); ok {
 					if v != "1" {
-						ds.Add(at(0), "unsupported outline version %q; this ramify reads version 1", v)
+						ds.Add(at(0), "unsupported outline version %q; this ramify reads version 1", clip(v))
 					}
 				} else if v, ok := strings.CutPrefix(body, "# structure "); ok {
 					v = strings.TrimSpace(v)
 					if !isHex(v) || len(v) != 12 {
-						ds.Add(at(len("# structure ")), "structure hash %q is not 12 hex digits", v)
+						ds.Add(at(len("# structure ")), "structure hash %q is not 12 hex digits", clip(v))
 					} else {
 						structure = v
 					}
@@ -87,26 +111,44 @@ func parseTree(file string, data []byte, firstLine int, header bool) (*Category,
 		}
 		inHeader = false
 		if indent%2 != 0 {
-			ds.Add(at(0), "indentation of %d spaces; use exactly two spaces per level", indent)
+			ds.Add(at(0), "indentation of %s; use exactly two spaces per level", plural(indent, "space"))
+			damaged[stack[len(stack)-1]] = true
+			if skipDeeper < 0 {
+				skipDeeper = len(stack) - 1
+			}
 			continue
 		}
 		depth := indent / 2
+		if skipDeeper >= 0 {
+			if depth > skipDeeper {
+				continue
+			}
+			skipDeeper = -1
+		}
 		if depth >= len(stack) {
-			ds.Add(at(0), "indented %d levels but the line above opens only %d; a line can be at most one level deeper than the category above it", depth, len(stack)-1)
+			ds.Add(at(0), "indented %s, but here a line can be indented at most %s (one level deeper than the category above it)", plural(depth, "level"), plural(len(stack)-1, "level"))
+			damaged[stack[len(stack)-1]] = true
+			skipDeeper = len(stack) - 1
 			continue
 		}
 		if depth >= MaxDepth {
 			ds.Add(at(0), "nesting deeper than %d levels", MaxDepth)
+			damaged[stack[len(stack)-1]] = true
+			skipDeeper = MaxDepth - 1
 			continue
 		}
 		stack = stack[:depth+1]
 		parent := stack[depth]
 		if name, ok := strings.CutSuffix(body, "/"); ok {
 			cat := &Category{Line: lineNo}
+			catPos[cat] = at(indent)
 			name = strings.TrimSpace(name)
 			if rest, ok := strings.CutPrefix(name, "~ "); ok {
 				cat.Provisional = true
 				name = strings.TrimSpace(rest)
+			} else if name == "~" { // "~ /": a provisional marker with no name
+				cat.Provisional = true
+				name = ""
 			}
 			cat.Name = name
 			if msg := CheckCategoryName(name); msg != "" {
@@ -118,7 +160,7 @@ func parseTree(file string, data []byte, firstLine int, header bool) (*Category,
 				siblingNames[parent] = names
 			}
 			if prev, dup := names[name]; dup && name != "" {
-				ds.Add(at(indent), "category %q appears twice in the same parent (first at line %d)", name, prev)
+				ds.Add(at(indent), "category %q appears twice in the same parent (first at line %d)", clip(name), prev)
 			} else {
 				names[name] = lineNo
 			}
@@ -127,36 +169,37 @@ func parseTree(file string, data []byte, firstLine int, header bool) (*Category,
 			continue
 		}
 		if !ValidItemID(body) {
-			if strings.ContainsAny(body, " ") {
+			switch {
+			case strings.Contains(body, " "):
 				ds.Add(at(indent), "%q is not an item id (ids have no spaces); a category line ends with \"/\"", clip(body))
-			} else {
+			case len(body) > MaxIDLen:
+				ds.Add(at(indent), "item id is %d bytes long; the limit is %d", len(body), MaxIDLen)
+			default:
 				ds.Add(at(indent), "%q is not a valid item id: %s", clip(body), ItemIDRule)
 			}
+			damaged[parent] = true
 			continue
 		}
 		if prev, dup := seenItem[body]; dup {
 			ds.Add(at(indent), "item %q appears twice (first at line %d); every item appears exactly once", body, prev)
+			damaged[parent] = true
 			continue
 		}
 		seenItem[body] = lineNo
+		if onItem != nil {
+			onItem(body, at(indent))
+		}
 		parent.Items = append(parent.Items, body)
 		parent.ItemLines = append(parent.ItemLines, lineNo)
 	}
 	root.Walk(func(c *Category, depth int) bool {
-		if depth > 0 && len(c.Children) == 0 && len(c.Items) == 0 {
-			ds.Add(Pos{file, c.Line, 1}, "category %q is empty; a category needs at least one item or subcategory", c.Name)
+		if depth > 0 && len(c.Children) == 0 && len(c.Items) == 0 && !damaged[c] {
+			ds.Add(catPos[c], "category %q is empty; a category needs at least one item or subcategory", clip(c.Name))
 		}
 		return true
 	})
 	ds.Sort()
 	return root, structure, ds
-}
-
-func clip(s string) string {
-	if len(s) > 60 {
-		return s[:57] + "..."
-	}
-	return s
 }
 
 func isHex(s string) bool {

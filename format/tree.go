@@ -3,7 +3,6 @@ package format
 import (
 	"crypto/sha256"
 	"encoding/hex"
-	"regexp"
 	"sort"
 	"strings"
 	"unicode"
@@ -27,14 +26,27 @@ type Category struct {
 	ItemLines []int
 }
 
-var itemIDPattern = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9._:-]*$`)
-
 // MaxIDLen bounds an item id; longer ids are refused as malformed.
 const MaxIDLen = 256
 
-// ValidItemID reports whether id is a well-formed item id.
+// ValidItemID reports whether id is a well-formed item id: it matches
+// [A-Za-z0-9][A-Za-z0-9._:-]* and is at most MaxIDLen bytes. Checked by
+// hand rather than by a regular expression because every row of a
+// million-item file goes through it.
 func ValidItemID(id string) bool {
-	return len(id) <= MaxIDLen && itemIDPattern.MatchString(id)
+	if id == "" || len(id) > MaxIDLen || !isAlnum(id[0]) {
+		return false
+	}
+	for i := 1; i < len(id); i++ {
+		if c := id[i]; !isAlnum(c) && c != '.' && c != '_' && c != ':' && c != '-' {
+			return false
+		}
+	}
+	return true
+}
+
+func isAlnum(c byte) bool {
+	return c >= 'a' && c <= 'z' || c >= 'A' && c <= 'Z' || c >= '0' && c <= '9'
 }
 
 // ItemIDRule says in words what ValidItemID accepts, for error messages.

@@ -1,0 +1,143 @@
+package main
+
+import (
+	"bytes"
+	"fmt"
+	"strconv"
+
+	"github.com/ramify-tax/ramify/diff"
+	"github.com/ramify-tax/ramify/solve"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
+)
+
+func init() {
+	register(&command{
+		name:    "check",
+		summary: "validate every file; the CI gate for pull requests",
+		help: `Reads ramify.toml, the items, vectors and links, every constraint file
+and the committed taxonomy, and reports every problem found, each as
+FILE:LINE:COL: what is wrong (exit status 2).
+
+Then it checks that the taxonomy is current (exit status 1 otherwise):
+every item is placed exactly once, the outline was not reshaped by hand
+since ramify wrote it (run "ramify absorb" to record such edits), the
+constraints agree with each other, the outline honours every one of them,
+and it is what "ramify solve" would write now.
+
+check never writes a file.`,
+		run: runCheck,
+	})
+}
+
+func runCheck(e *env, args []string) error {
+	if len(args) > 0 {
+		return usagef("check takes no arguments (got %q)", args[0])
+	}
+	p, ds := project.Load(e.dir())
+	if len(ds) > 0 {
+		return ds
+	}
+	e.report["items"] = len(p.Items)
+	counts := countRecords(p.Constraints)
+	e.report["constraints"] = counts
+	rel := p.Settings.Taxonomy.File
+	if p.Outline == nil {
+		return failf("%s does not exist yet; run `ramify solve` to write it", rel)
+	}
+	if ms := p.OutlineMembership(); len(ms) > 0 {
+		lines := make([]string, 0, len(ms)+1)
+		for _, d := range ms {
+			lines = append(lines, d.String())
+		}
+		lines = append(lines, rel+" is out of date with the items; run `ramify solve`")
+		e.report["problems"] = problemsJSON(ms)
+		return &failure{lines: lines}
+	}
+	if p.Outline.Edited() {
+		return failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints", rel)
+	}
+	root := p.Outline.Root
+	e.report["categories"] = root.CountCategories()
+	e.report["depth"] = root.Depth()
+	if err := checkConstraints(e, p); err != nil {
+		return err
+	}
+	sol, err := p.Regenerate(project.MethodConstrained, e.progressFunc())
+	e.endProgress()
+	if err != nil {
+		return solveError(e, err)
+	}
+	if !bytes.Equal(sol.Text, p.OutlineText) {
+		rep := diff.Compare(root, sol.Root)
+		e.report["current"] = false
+		return failf("%s is not what `ramify solve` writes now (%s would move, %s would be renamed); run `ramify solve` and commit the result",
+			rel, plural(len(rep.Moved), "item", "items"), plural(len(rep.Renamed), "category", "categories"))
+	}
+	e.report["current"] = true
+	e.say("ok: %d items in %d categories (depth %d); %s, all holding", len(p.Items), root.CountCategories(), root.Depth(), describeRecords(counts))
+	return nil
+}
+
+// checkConstraints fails when the records contradict each other or the
+// committed outline breaks one of them, naming each record.
+func checkConstraints(e *env, p *project.Project) error {
+	compiled := p.Compile()
+	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
+		conflict := &project.ConflictError{}
+		for _, r := range recs {
+			conflict.Records = append(conflict.Records, compiled.Records[r])
+		}
+		return solveError(e, conflict)
+	}
+	tree := project.FromCategory(p.Outline.Root, p.Index, len(p.Items))
+	violated := solve.Satisfies(tree, compiled.Constraints)
+	if len(violated) == 0 {
+		return nil
+	}
+	rel := p.Settings.Taxonomy.File
+	lines := []string{fmt.Sprintf("%s breaks %s:", rel, plural(len(violated), "constraint record", "constraint records"))}
+	var recs []map[string]any
+	for _, i := range violated {
+		r := compiled.Records[i]
+		lines = append(lines, "  "+describeRecord(r))
+		recs = append(recs, map[string]any{"kind": r.Kind, "file": r.Pos.File, "line": r.Pos.Line, "by": r.By, "note": r.Note})
+	}
+	lines = append(lines, "run `ramify solve` to regenerate it under every record")
+	e.report["violated"] = recs
+	return &failure{lines: lines}
+}
+
+// recordCounts counts constraint records by kind.
+type recordCounts struct {
+	Records  int `json:"records"`
+	Triplets int `json:"triplets"`
+	Groups   int `json:"groups"`
+	Shapes   int `json:"shapes"`
+}
+
+func countRecords(files []*format.ConstraintFile) recordCounts {
+	var c recordCounts
+	for _, f := range files {
+		c.Triplets += len(f.Triplets)
+		c.Groups += len(f.Groups)
+		c.Shapes += len(f.Shapes)
+	}
+	c.Records = c.Triplets + c.Groups + c.Shapes
+	return c
+}
+
+func describeRecords(c recordCounts) string {
+	return plural(c.Records, "constraint record", "constraint records") +
+		" (" + plural(c.Triplets, "triplet", "triplets") + ", " +
+		plural(c.Groups, "group", "groups") + ", " +
+		plural(c.Shapes, "shape", "shapes") + ")"
+}
+
+func plural(n int, one, many string) string {
+	if n == 1 {
+		return "1 " + one
+	}
+	return strconv.Itoa(n) + " " + many
+}

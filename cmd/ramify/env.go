@@ -1,0 +1,168 @@
+package main
+
+import (
+	"encoding/json"
+	"errors"
+	"fmt"
+	"io"
+	"os"
+	"path/filepath"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/spf13/pflag"
+	"golang.org/x/term"
+)
+
+// Exit statuses.
+const (
+	exitOK     = 0
+	exitFailed = 1 // a check or gate failed: conflict, violation, stale file
+	exitUsage  = 2 // bad input or bad usage
+)
+
+// env is what a command runs with: its options, output streams, and the
+// report it builds for --json.
+type env struct {
+	opt    *options
+	flags  *pflag.FlagSet
+	stdout io.Writer
+	stderr io.Writer
+	// report is printed as JSON on stdout when --json is given.
+	report map[string]any
+	// color is true when stdout is a terminal and NO_COLOR is unset.
+	color bool
+	// progress is true when stderr is a terminal and --quiet is off.
+	progress bool
+	// shownProgress is set once a progress line is on the terminal.
+	shownProgress bool
+}
+
+func newEnv(o *options, fs *pflag.FlagSet, stdout, stderr io.Writer) *env {
+	e := &env{opt: o, flags: fs, stdout: stdout, stderr: stderr, report: map[string]any{}}
+	_, noColor := os.LookupEnv("NO_COLOR")
+	e.color = !noColor && !o.json && isTerminal(stdout)
+	e.progress = !o.quiet && isTerminal(stderr)
+	return e
+}
+
+func isTerminal(w io.Writer) bool {
+	f, ok := w.(*os.File)
+	return ok && term.IsTerminal(int(f.Fd()))
+}
+
+// dir is the repository folder as given.
+func (e *env) dir() string { return filepath.Clean(e.opt.dir) }
+
+// say prints a line of human text unless --json or --quiet.
+func (e *env) say(format string, args ...any) {
+	if e.opt.json || e.opt.quiet {
+		return
+	}
+	fmt.Fprintf(e.stdout, format+"\n", args...)
+}
+
+// notice prints a line to stderr unless --quiet.
+func (e *env) notice(format string, args ...any) {
+	if e.opt.quiet {
+		return
+	}
+	fmt.Fprintf(e.stderr, format+"\n", args...)
+}
+
+// failure is an error that means "a check failed" (exit 1) rather than
+// "bad input" (exit 2). Its lines are printed as they are.
+type failure struct {
+	lines []string
+}
+
+func (f *failure) Error() string {
+	if len(f.lines) == 0 {
+		return "check failed"
+	}
+	return f.lines[0]
+}
+
+func failf(format string, args ...any) error {
+	return &failure{lines: []string{fmt.Sprintf(format, args...)}}
+}
+
+// usageError is bad usage of the command line (exit 2).
+type usageError struct{ msg string }
+
+func (u *usageError) Error() string { return u.msg }
+
+func usagef(format string, args ...any) error {
+	return &usageError{msg: fmt.Sprintf(format, args...)}
+}
+
+// problemJSON is one problem in a --json report.
+type problemJSON struct {
+	File    string `json:"file"`
+	Line    int    `json:"line"`
+	Col     int    `json:"col"`
+	Message string `json:"message"`
+}
+
+func problemsJSON(ds format.Diags) []problemJSON {
+	out := make([]problemJSON, 0, len(ds))
+	for _, d := range ds {
+		line, col := d.Line, d.Col
+		if line < 1 {
+			line = 1
+		}
+		if col < 1 {
+			col = 1
+		}
+		out = append(out, problemJSON{File: d.File, Line: line, Col: col, Message: d.Msg})
+	}
+	return out
+}
+
+// finish prints the outcome of a command and turns it into an exit status.
+func (e *env) finish(c *command, err error) int {
+	code := exitOK
+	var ds format.Diags
+	var fl *failure
+	var ue *usageError
+	switch {
+	case err == nil:
+	case errors.As(err, &ds):
+		code = exitUsage
+		e.report["problems"] = problemsJSON(ds)
+		for _, d := range ds {
+			fmt.Fprintln(e.stderr, d.String())
+		}
+		if len(ds) > 1 {
+			fmt.Fprintf(e.stderr, "%d problems; nothing was written\n", len(ds))
+		} else {
+			fmt.Fprintln(e.stderr, "nothing was written")
+		}
+	case errors.As(err, &fl):
+		code = exitFailed
+		for _, l := range fl.lines {
+			fmt.Fprintln(e.stderr, l)
+		}
+		e.report["failure"] = fl.lines
+	case errors.As(err, &ue):
+		code = exitUsage
+		fmt.Fprintf(e.stderr, "ramify %s: %s\n", c.name, ue.msg)
+		fmt.Fprintf(e.stderr, "run `ramify %s --help` for its options\n", c.name)
+		e.report["error"] = ue.msg
+	default:
+		code = exitUsage
+		fmt.Fprintf(e.stderr, "ramify %s: %v\n", c.name, err)
+		e.report["error"] = err.Error()
+	}
+	if e.opt.json {
+		e.report["ok"] = code == exitOK
+		e.report["command"] = c.name
+		enc := json.NewEncoder(e.stdout)
+		enc.SetIndent("", "  ")
+		enc.SetEscapeHTML(false)
+		if err := enc.Encode(e.report); err != nil {
+			fmt.Fprintf(e.stderr, "ramify: writing the report: %v\n", err)
+			return exitUsage
+		}
+	}
+	return code
+}

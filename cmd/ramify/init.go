@@ -1,0 +1,106 @@
+package main
+
+import (
+	"errors"
+	"io/fs"
+	"os"
+	"path/filepath"
+
+	"github.com/ramify-tax/ramify/format"
+)
+
+func init() {
+	register(&command{
+		name:    "init",
+		summary: "start a taxonomy repository: settings, an items template, folders",
+		help: `Writes ramify.toml (every setting, commented), items.toml (a template
+to fill in), the constraints/ and reviews/ folders, and .gitattributes.
+An existing file is never overwritten: it is left as it is and reported.
+
+Next steps: add your items to items.toml, then run "ramify solve".`,
+		run: runInit,
+	})
+}
+
+// itemsTemplate is the items file a new repository starts with.
+const itemsTemplate = `# The items of this taxonomy, one [[item]] table each.
+#
+#   id     required: letters, digits and . _ : - (starting with a letter or digit)
+#   label  what people call the item
+#   tags   short words that describe it; items that share tags end up together
+#   text   a one-line description; its words count too
+#
+# Remove the "# " in front of the lines below to start from this example.
+#
+# [[item]]
+# id = "claw-hammer"
+# label = "Claw hammer, 16 oz"
+# tags = ["hand", "fastening", "wood"]
+# text = "Drives and pulls nails; the everyday hammer."
+`
+
+// gitattributesTemplate keeps outlines in LF so git diffs stay exact.
+const gitattributesTemplate = `# Taxonomy files are plain text with LF line endings.
+*.outline text eol=lf
+*.toml text eol=lf
+*.tsv text eol=lf
+`
+
+type scaffoldFile struct {
+	path    string
+	content string
+}
+
+func runInit(e *env, args []string) error {
+	if len(args) > 0 {
+		return usagef("init takes no arguments (got %q); use --dir to choose the folder", args[0])
+	}
+	dir := e.dir()
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	files := []scaffoldFile{
+		{"ramify.toml", format.SettingsTemplate},
+		{"items.toml", itemsTemplate},
+		{".gitattributes", gitattributesTemplate},
+		{"constraints/.keep", ""},
+		{"reviews/open/.keep", ""},
+		{"reviews/done/.keep", ""},
+	}
+	var wrote, kept []string
+	for _, f := range files {
+		full := filepath.Join(dir, filepath.FromSlash(f.path))
+		if _, err := os.Lstat(full); err == nil {
+			kept = append(kept, f.path)
+			continue
+		} else if !errors.Is(err, fs.ErrNotExist) {
+			return err
+		}
+		if err := os.MkdirAll(filepath.Dir(full), 0o755); err != nil {
+			return err
+		}
+		if err := format.WriteFileAtomic(full, []byte(f.content), 0o644); err != nil {
+			return err
+		}
+		wrote = append(wrote, f.path)
+	}
+	for _, p := range wrote {
+		e.say("wrote %s", p)
+	}
+	for _, p := range kept {
+		e.say("kept  %s (already there)", p)
+	}
+	if len(wrote) > 0 {
+		e.say("next: add your items to items.toml, then run `ramify solve`")
+	}
+	e.report["wrote"] = nonNil(wrote)
+	e.report["kept"] = nonNil(kept)
+	return nil
+}
+
+func nonNil(s []string) []string {
+	if s == nil {
+		return []string{}
+	}
+	return s
+}

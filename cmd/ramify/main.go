@@ -1,0 +1,172 @@
+// Command ramify keeps a taxonomy — a tree of named categories over items —
+// as plain text in a git repository: it checks the files, regenerates the
+// tree under every editorial decision, draws review packets, and diffs
+// versions. Run `ramify help` for the commands.
+package main
+
+import (
+	"fmt"
+	"io"
+	"os"
+	"sort"
+	"strings"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/spf13/pflag"
+)
+
+// command is one subcommand: its flags are added to a fresh FlagSet per
+// run, so tests can call run repeatedly in one process.
+type command struct {
+	name    string
+	summary string
+	usage   string // argument synopsis after the command name
+	help    string // longer help text, plain words
+	flags   func(fs *pflag.FlagSet, o *options)
+	run     func(e *env, args []string) error
+}
+
+var commands = map[string]*command{}
+
+func register(c *command) { commands[c.name] = c }
+
+// options are the flags every command takes plus the command's own.
+type options struct {
+	dir   string
+	json  bool
+	quiet bool
+	help  bool
+	extra map[string]any
+}
+
+func main() {
+	os.Exit(run(os.Args[1:], os.Stdout, os.Stderr))
+}
+
+// run executes one ramify invocation and returns its exit status:
+// 0 success, 1 a check or gate failed, 2 bad input or usage.
+func run(args []string, stdout, stderr io.Writer) int {
+	if len(args) == 0 {
+		printOverview(stderr)
+		return exitUsage
+	}
+	name := args[0]
+	switch name {
+	case "help", "-h", "--help":
+		if len(args) > 1 {
+			if c, ok := commands[args[1]]; ok {
+				printCommandHelp(stdout, c)
+				return 0
+			}
+		}
+		printOverview(stdout)
+		return 0
+	case "version", "--version":
+		fmt.Fprintln(stdout, "ramify", version)
+		return 0
+	}
+	// "review draw" style two-word commands.
+	if len(args) > 1 {
+		if c, ok := commands[name+" "+args[1]]; ok {
+			return runCommand(c, args[2:], stdout, stderr)
+		}
+	}
+	c, ok := commands[name]
+	if !ok {
+		msg := fmt.Sprintf("ramify: unknown command %q", name)
+		if s := suggestCommand(name); s != "" {
+			msg += fmt.Sprintf("; did you mean %q?", s)
+		}
+		fmt.Fprintln(stderr, msg)
+		fmt.Fprintln(stderr, "run `ramify help` for the list of commands")
+		return exitUsage
+	}
+	return runCommand(c, args[1:], stdout, stderr)
+}
+
+func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
+	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	fs.SortFlags = false
+	o := &options{extra: map[string]any{}}
+	fs.StringVar(&o.dir, "dir", ".", "the taxonomy repository")
+	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
+	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
+	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
+	if c.flags != nil {
+		c.flags(fs, o)
+	}
+	if err := fs.Parse(args); err != nil {
+		fmt.Fprintf(stderr, "ramify %s: %v\n", c.name, err)
+		fmt.Fprintf(stderr, "run `ramify %s --help` for its options\n", c.name)
+		return exitUsage
+	}
+	if o.help {
+		printCommandHelp(stdout, c)
+		return 0
+	}
+	e := newEnv(o, fs, stdout, stderr)
+	err := c.run(e, fs.Args())
+	return e.finish(c, err)
+}
+
+func printOverview(w io.Writer) {
+	fmt.Fprint(w, `ramify keeps a taxonomy as plain text in a git repository.
+
+Usage: ramify COMMAND [options]
+
+Commands:
+`)
+	names := make([]string, 0, len(commands))
+	for n := range commands {
+		names = append(names, n)
+	}
+	sort.Strings(names)
+	for _, n := range names {
+		fmt.Fprintf(w, "  %-15s %s\n", n, commands[n].summary)
+	}
+	fmt.Fprint(w, `
+Every command takes --dir DIR (the repository, default "."), --json,
+--quiet and --help. Exit status: 0 success, 1 a check or gate failed,
+2 bad input or usage.
+
+Run "ramify help COMMAND" for a command's details.
+`)
+}
+
+func printCommandHelp(w io.Writer, c *command) {
+	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
+	fs.SortFlags = false
+	o := &options{extra: map[string]any{}}
+	fs.StringVar(&o.dir, "dir", ".", "the taxonomy repository")
+	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
+	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
+	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
+	if c.flags != nil {
+		c.flags(fs, o)
+	}
+	fmt.Fprintf(w, "Usage: ramify %s [options]%s\n\n%s\n", c.name, prefixSpace(c.usage), c.summary)
+	if c.help != "" {
+		fmt.Fprintf(w, "\n%s\n", strings.TrimSpace(c.help))
+	}
+	fmt.Fprintf(w, "\nOptions:\n%s", fs.FlagUsages())
+}
+
+func prefixSpace(s string) string {
+	if s == "" {
+		return ""
+	}
+	return " " + s
+}
+
+func suggestCommand(name string) string {
+	names := make([]string, 0, len(commands))
+	for n := range commands {
+		names = append(names, strings.Fields(n)[0])
+	}
+	sort.Strings(names)
+	return format.Suggest(name, names)
+}
+
+// version is set at build time with -ldflags "-X main.version=...".
+var version = "dev"

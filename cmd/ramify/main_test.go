@@ -1,0 +1,65 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+	"testing"
+
+	"github.com/rogpeppe/go-internal/testscript"
+)
+
+// TestMain lets testscript run the ramify binary in-process: scripts call
+// `ramify ...` and get this package's run function.
+func TestMain(m *testing.M) {
+	testscript.Main(m, map[string]func(){
+		"ramify": func() { os.Exit(run(os.Args[1:], os.Stdout, os.Stderr)) },
+	})
+}
+
+// TestScripts runs the end-to-end scripts under testdata/script. Each
+// script gets a fresh folder; the demo repository is copied in as
+// $DEMO so scripts can work on a real taxonomy.
+func TestScripts(t *testing.T) {
+	demo, err := filepath.Abs(filepath.Join("..", "..", "examples", "tool-library"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	testscript.Run(t, testscript.Params{
+		Dir: filepath.Join("testdata", "script"),
+		Setup: func(env *testscript.Env) error {
+			env.Setenv("DEMO_SRC", demo)
+			env.Setenv("NO_COLOR", "1")
+			return nil
+		},
+		Cmds: map[string]func(ts *testscript.TestScript, neg bool, args []string){
+			"copydemo": cmdCopyDemo,
+		},
+		UpdateScripts: os.Getenv("RAMIFY_UPDATE") == "1",
+	})
+}
+
+// cmdCopyDemo copies the demo repository into the script's work folder:
+// copydemo DEST.
+func cmdCopyDemo(ts *testscript.TestScript, neg bool, args []string) {
+	if neg || len(args) != 1 {
+		ts.Fatalf("usage: copydemo DEST")
+	}
+	src := ts.Getenv("DEMO_SRC")
+	dst := ts.MkAbs(args[0])
+	err := filepath.Walk(src, func(path string, info os.FileInfo, err error) error {
+		if err != nil {
+			return err
+		}
+		rel, _ := filepath.Rel(src, path)
+		target := filepath.Join(dst, rel)
+		if info.IsDir() {
+			return os.MkdirAll(target, 0o755)
+		}
+		data, err := os.ReadFile(path)
+		if err != nil {
+			return err
+		}
+		return os.WriteFile(target, data, 0o644)
+	})
+	ts.Check(err)
+}

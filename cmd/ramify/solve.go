@@ -1,0 +1,182 @@
+package main
+
+import (
+	"bytes"
+	"errors"
+	"fmt"
+	"strings"
+
+	"github.com/ramify-tax/ramify/diff"
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
+	"github.com/spf13/pflag"
+)
+
+func init() {
+	register(&command{
+		name:    "solve",
+		summary: "regenerate the taxonomy under every constraint",
+		help: `Builds the similarity graph from the items (tags, text, vectors, links as
+ramify.toml says), checks that the constraint records agree with each
+other, and writes the tree that fits the similarities best (Dasgupta's
+cost) among the trees that honour every record. Category names are kept
+from the previous outline where a category keeps its members; new ones get
+a provisional name, written with "~ " in front, for an editor to confirm.
+
+When the constraints contradict each other, solve names the smallest set
+of records that cannot all hold, with file, line, author and reason, and
+exits with status 1 without writing anything.
+
+When taxonomy.outline was reshaped by hand, solve stops and asks you to
+run "ramify absorb" first, so the edit is kept as a decision.
+
+--method average writes plain average linkage on the same graph instead:
+a baseline to compare with, which ignores the constraints.`,
+		flags: func(fs *pflag.FlagSet, o *options) {
+			o.extra["method"] = fs.String("method", "constrained", "how to build the tree: constrained or average")
+			o.extra["dry-run"] = fs.Bool("dry-run", false, "report what would change without writing the outline")
+		},
+		run: runSolve,
+	})
+}
+
+func runSolve(e *env, args []string) error {
+	if len(args) > 0 {
+		return usagef("solve takes no arguments (got %q)", args[0])
+	}
+	method := project.Method(*e.opt.extra["method"].(*string))
+	if method != project.MethodConstrained && method != project.MethodAverage {
+		return usagef("--method must be constrained or average, not %q", method)
+	}
+	dryRun := *e.opt.extra["dry-run"].(*bool)
+	p, ds := project.Load(e.dir())
+	if len(ds) > 0 {
+		return ds
+	}
+	rel := p.Settings.Taxonomy.File
+	if p.Outline != nil && p.Outline.Edited() {
+		return failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints, then solve again", rel)
+	}
+	sol, err := p.Regenerate(method, e.progressFunc())
+	e.endProgress()
+	if err != nil {
+		return solveError(e, err)
+	}
+	var prev *format.Category
+	if p.Outline != nil {
+		prev = p.Outline.Root
+	}
+	fillSolveReport(e, p, sol, prev)
+	changed := !bytes.Equal(sol.Text, p.OutlineText)
+	if changed && !dryRun {
+		if err := format.WriteFileAtomic(p.OutlinePath(), sol.Text, 0o644); err != nil {
+			return err
+		}
+	}
+	e.report["written"] = changed && !dryRun
+	printSolveReport(e, p, sol)
+	switch {
+	case !changed:
+		e.say("%s is up to date", rel)
+	case dryRun:
+		e.say("%s would change (dry run: nothing written)", rel)
+	default:
+		e.say("wrote %s", rel)
+	}
+	return nil
+}
+
+// solveError turns a conflict into a report that names each record.
+func solveError(e *env, err error) error {
+	var ce *project.ConflictError
+	if !errors.As(err, &ce) {
+		return err
+	}
+	lines := []string{fmt.Sprintf("these %d constraint records cannot all hold:", len(ce.Records))}
+	var recs []map[string]any
+	for _, r := range ce.Records {
+		lines = append(lines, "  "+describeRecord(r))
+		recs = append(recs, map[string]any{
+			"kind": r.Kind, "file": r.Pos.File, "line": r.Pos.Line,
+			"by": r.By, "date": r.Date, "note": r.Note,
+		})
+	}
+	lines = append(lines, "change or remove one of them; dropping any one makes the rest agree. Nothing was written.")
+	e.report["conflict"] = recs
+	return &failure{lines: lines}
+}
+
+func describeRecord(r project.Record) string {
+	s := fmt.Sprintf("%s:%d: %s", r.Pos.File, r.Pos.Line, r.Kind)
+	if r.By != "" {
+		s += " by " + r.By
+	}
+	if r.Date != "" {
+		s += " (" + r.Date + ")"
+	}
+	if r.Note != "" {
+		s += ": " + quoteNote(r.Note)
+	}
+	return s
+}
+
+func quoteNote(n string) string {
+	n = strings.Join(strings.Fields(n), " ")
+	if len(n) > 100 {
+		n = n[:97] + "..."
+	}
+	return `"` + n + `"`
+}
+
+func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *format.Category) {
+	total := len(sol.Compiled.Records)
+	violated := len(sol.Violated)
+	e.report["items"] = len(p.Items)
+	e.report["categories"] = sol.Root.CountCategories()
+	e.report["depth"] = sol.Root.Depth()
+	e.report["cost"] = roundSig(sol.Cost, 10)
+	e.report["edges"] = sol.Graph.NumEdges()
+	counts := countRecords(p.Constraints)
+	e.report["constraints"] = map[string]any{
+		"records":   total,
+		"triplets":  sol.Compiled.Triplets,
+		"groups":    sol.Compiled.Groups,
+		"shapes":    counts.Shapes,
+		"satisfied": total - violated,
+		"violated":  violated,
+	}
+	moved := []string{}
+	if prev != nil {
+		rep := diff.Compare(prev, sol.Root)
+		for _, m := range rep.Moved {
+			moved = append(moved, m.Item)
+		}
+		e.report["added"] = len(rep.Added)
+		e.report["removed"] = len(rep.Removed)
+	}
+	e.report["moved"] = moved
+	e.report["seconds"] = roundSig(sol.Seconds, 3)
+}
+
+func printSolveReport(e *env, p *project.Project, sol *project.Solution) {
+	r := e.report
+	e.say("%d items in %d categories, depth %d", len(p.Items), r["categories"], r["depth"])
+	e.say("  cost         %s  (Dasgupta, on a graph of %d edges)", formatCost(sol.Cost), sol.Graph.NumEdges())
+	c := r["constraints"].(map[string]any)
+	if c["records"].(int) == 0 {
+		e.say("  constraints  none recorded")
+	} else if c["violated"].(int) == 0 {
+		e.say("  constraints  all %d records hold (%d triplets, %d groups)", c["records"], c["triplets"], c["groups"])
+	} else {
+		e.say("  constraints  %d of %d records broken (the average-linkage baseline ignores them)", c["violated"], c["records"])
+	}
+	if p.Outline != nil {
+		moved := r["moved"].([]string)
+		e.say("  moved        %s since the previous outline", plural(len(moved), "item", "items"))
+	}
+	e.say("  time         %.2f s", sol.Seconds)
+}
+
+func formatCost(c float64) string {
+	return fmt.Sprintf("%.6g", c)
+}

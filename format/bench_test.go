@@ -1,0 +1,122 @@
+package format
+
+import (
+	"fmt"
+	"math/rand/v2"
+	"strings"
+	"testing"
+)
+
+// Benchmarks measure the codecs at the sizes DESIGN section 9 aims for;
+// run with go test -bench . -benchmem ./format.
+
+func benchOutline(n int) []byte {
+	rng := rand.New(rand.NewPCG(7, 8))
+	return FormatOutline(randomTree(rng, n, 6))
+}
+
+func BenchmarkParseOutline100k(b *testing.B) {
+	data := benchOutline(100_000)
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseOutline("b.outline", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkFormatOutline100k(b *testing.B) {
+	o, err := ParseOutline("b.outline", benchOutline(100_000))
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		FormatOutline(o.Root)
+	}
+}
+
+func BenchmarkParseItemsTSV100k(b *testing.B) {
+	var sb strings.Builder
+	sb.WriteString("id\tlabel\ttags\ttext\n")
+	for i := range 100_000 {
+		fmt.Fprintf(&sb, "item-%d\tItem %d\tpower;wood;t%d\tA tool that does task %d well.\n", i, i, i%50, i%300)
+	}
+	data := []byte(sb.String())
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseItemsTable("b.tsv", data, '\t'); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkParseItemsTOML10k(b *testing.B) {
+	var sb strings.Builder
+	for i := range 10_000 {
+		fmt.Fprintf(&sb, "[[item]]\nid = \"item-%d\"\nlabel = \"Item %d\"\ntags = [\"power\", \"t%d\"]\ntext = \"Task %d.\"\n\n", i, i, i%50, i%300)
+	}
+	data := []byte(sb.String())
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseItemsTOML("b.toml", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkParseVectors100kx16(b *testing.B) {
+	var sb strings.Builder
+	sb.WriteString("id")
+	for j := range 16 {
+		fmt.Fprintf(&sb, "\tf%d", j)
+	}
+	sb.WriteByte('\n')
+	rng := rand.New(rand.NewPCG(9, 10))
+	for i := range 100_000 {
+		fmt.Fprintf(&sb, "item-%d", i)
+		for range 16 {
+			fmt.Fprintf(&sb, "\t%.5f", rng.NormFloat64())
+		}
+		sb.WriteByte('\n')
+	}
+	data := []byte(sb.String())
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseVectors("b.tsv", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkParseLinks1M(b *testing.B) {
+	var sb strings.Builder
+	sb.WriteString(LinksHeader + "\n")
+	for i := range 1_000_000 {
+		fmt.Fprintf(&sb, "item-%d\titem-%d\t%.3f\n", i%100_000, (i*7+1)%100_000, 0.5+float64(i%100)/200)
+	}
+	data := []byte(sb.String())
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseLinks("b.tsv", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+func BenchmarkParseConstraints10k(b *testing.B) {
+	rng := rand.New(rand.NewPCG(11, 12))
+	cf := &ConstraintFile{}
+	for len(cf.Triplets)+len(cf.Groups)+len(cf.Shapes) < 10_000 {
+		r := randomConstraints(rng)
+		cf.Triplets = append(cf.Triplets, r.Triplets...)
+		cf.Groups = append(cf.Groups, r.Groups...)
+		cf.Shapes = append(cf.Shapes, r.Shapes...)
+	}
+	data := FormatConstraints(cf)
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseConstraints("b.toml", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

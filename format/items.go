@@ -1,0 +1,133 @@
+package format
+
+import (
+	"path"
+	"strings"
+)
+
+// Item is one thing the taxonomy places: an id, and what is known about it
+// to tell how similar it is to others.
+type Item struct {
+	ID    string
+	Label string
+	Tags  []string
+	Text  string
+	// Pos is where the item is introduced: its [[item]] header or its row.
+	Pos Pos
+}
+
+// Limits on item files.
+const (
+	MaxItems       = 1_000_000
+	MaxTagsPerItem = 1_000
+	// TagSeparator separates tags in one .tsv or .csv cell.
+	TagSeparator = ";"
+)
+
+// ParseItems reads an items file, choosing the format by its extension:
+// .toml, .tsv or .csv.
+func ParseItems(file string, data []byte) ([]Item, error) {
+	switch strings.ToLower(path.Ext(file)) {
+	case ".toml":
+		return ParseItemsTOML(file, data)
+	case ".tsv":
+		return ParseItemsTable(file, data, '\t')
+	case ".csv":
+		return ParseItemsTable(file, data, ',')
+	}
+	return nil, Diags{{Pos: Pos{File: file}, Msg: "items files must end in .toml, .tsv or .csv"}}
+}
+
+// itemSet collects items, checking each as it arrives.
+type itemSet struct {
+	file  string
+	items []Item
+	first map[string]int // id -> line of its first appearance
+	ds    Diags
+}
+
+func newItemSet(file string) *itemSet {
+	return &itemSet{file: file, first: map[string]int{}}
+}
+
+// itemPlaces says where each part of an item is written, for messages.
+type itemPlaces struct {
+	id, label, tags, text Pos
+	tag                   func(i int) Pos // where the i-th tag is
+}
+
+// add checks it and keeps it if its id is usable. It reports false once
+// the file holds more items than MaxItems; the caller stops reading.
+func (s *itemSet) add(it Item, at itemPlaces) bool {
+	if len(s.items) >= MaxItems {
+		s.ds.Add(it.Pos, "more than %s items in one file", grouped(MaxItems))
+		return false
+	}
+	if len(it.Tags) == 0 {
+		it.Tags = nil // no tags reads the same from every format
+	}
+	ok := true
+	switch {
+	case it.ID == "":
+		s.ds.Add(at.id, "item has no id")
+		ok = false
+	case len(it.ID) > MaxIDLen:
+		s.ds.Add(at.id, "item id is %d bytes long; the limit is %d", len(it.ID), MaxIDLen)
+		ok = false
+	case !ValidItemID(it.ID):
+		s.ds.Add(at.id, "%q is not a valid item id: %s", clip(it.ID), ItemIDRule)
+		ok = false
+	default:
+		if prev, dup := s.first[it.ID]; dup {
+			s.ds.Add(at.id, "item %q appears twice (first at line %d)", it.ID, prev)
+			ok = false
+		} else {
+			s.first[it.ID] = it.Pos.Line
+		}
+	}
+	if hasControl(it.Label, "") {
+		s.ds.Add(at.label, "label contains a control character (such as a tab or line break)")
+	}
+	if hasControl(it.Text, "\n\t") {
+		s.ds.Add(at.text, "text contains a control character other than tab and line break")
+	}
+	s.checkTags(it, at)
+	if ok {
+		s.items = append(s.items, it)
+	}
+	return true
+}
+
+func (s *itemSet) checkTags(it Item, at itemPlaces) {
+	if len(it.Tags) > MaxTagsPerItem {
+		s.ds.Add(at.tags, "item has %d tags; the limit is %s", len(it.Tags), grouped(MaxTagsPerItem))
+		return
+	}
+	seen := make(map[string]bool, len(it.Tags))
+	for i, tag := range it.Tags {
+		switch {
+		case tag == "":
+			s.ds.Add(at.tag(i), "empty tag")
+		case strings.TrimSpace(tag) != tag:
+			s.ds.Add(at.tag(i), "tag %q has leading or trailing spaces", clip(tag))
+		case strings.Contains(tag, TagSeparator):
+			s.ds.Add(at.tag(i), "tag %q contains %q, which separates tags in .tsv and .csv files", clip(tag), TagSeparator)
+		case hasControl(tag, ""):
+			s.ds.Add(at.tag(i), "tag %q contains a control character", clip(tag))
+		case seen[tag]:
+			s.ds.Add(at.tag(i), "tag %q appears twice in this item", clip(tag))
+		}
+		seen[tag] = true
+	}
+}
+
+func (s *itemSet) result() ([]Item, error) {
+	if len(s.ds) > 0 {
+		s.ds.Sort()
+		return nil, s.ds
+	}
+	if s.items == nil {
+		s.items = []Item{}
+	}
+	return s.items, nil
+}

@@ -1,0 +1,61 @@
+package format
+
+import (
+	"testing"
+
+	"github.com/google/go-cmp/cmp"
+)
+
+func TestParseLinks(t *testing.T) {
+	got, err := ParseLinks("l.tsv", []byte("a\tb\tweight\r\nx\ty\t0.5\r\n\r\ny\tx\t2\r\nx\tz\t1e-3\r\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []Link{
+		{A: "x", B: "y", Weight: 0.5, Pos: Pos{"l.tsv", 2, 1}},
+		{A: "y", B: "x", Weight: 2, Pos: Pos{"l.tsv", 4, 1}},
+		{A: "x", B: "z", Weight: 0.001, Pos: Pos{"l.tsv", 5, 1}},
+	}
+	if diff := cmp.Diff(want, got); diff != "" {
+		t.Errorf("(-want +got):\n%s", diff)
+	}
+	empty, err := ParseLinks("l.tsv", []byte("a\tb\tweight\n"))
+	if err != nil || empty == nil || len(empty) != 0 {
+		t.Errorf("header only: %v, %v; want an empty list", empty, err)
+	}
+}
+
+func TestParseLinksErrors(t *testing.T) {
+	tests := []struct {
+		name string
+		in   string
+		want []string
+	}{
+		{"wrong header", "a\tb\tw\n", []string{
+			`l.tsv:1:1: the header must be a, b and weight separated by tabs ("a\tb\tweight"), not "a\tb\tw"`,
+		}},
+		{"header with spaces instead of tabs", "a  b  weight\n", []string{
+			`l.tsv:1:1: the header must be a, b and weight separated by tabs ("a\tb\tweight"), not "a  b  weight"`,
+		}},
+		{"bad rows", "a\tb\tweight\nx\tx\t1\nx\ty\t-1\nx\ty\t0\nx\ty\tNaN\nx\ty\nbad id\ty\t1\nx\ty\t+Inf\nx\ty\tabc\n", []string{
+			`l.tsv:2:3: item "x" is linked to itself`,
+			`l.tsv:3:5: weight "-1" must be greater than 0`,
+			`l.tsv:4:5: weight "0" must be greater than 0`,
+			`l.tsv:5:5: weight: "NaN" is not a finite number`,
+			"l.tsv:6:1: row has 2 cells; a link row has 3: a, b and weight",
+			`l.tsv:7:1: "bad id" is not a valid item id: ` + ItemIDRule,
+			`l.tsv:8:5: weight: "+Inf" is not a finite number`,
+			`l.tsv:9:5: weight: "abc" is not a number`,
+		}},
+		{"ragged long row", "a\tb\tweight\nx\ty\t1\textra\n", []string{
+			"l.tsv:2:7: row has 4 cells; a link row has 3: a, b and weight",
+		}},
+		{"empty file", "", []string{`l.tsv:1:1: the file is empty; it needs the header "a\tb\tweight"`}},
+	}
+	for _, tt := range tests {
+		t.Run(tt.name, func(t *testing.T) {
+			_, err := ParseLinks("l.tsv", []byte(tt.in))
+			checkErrors(t, err, tt.want)
+		})
+	}
+}

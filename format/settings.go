@@ -1,0 +1,160 @@
+package format
+
+import (
+	"strconv"
+	"strings"
+)
+
+// Settings is a parsed ramify.toml (DESIGN section 4). Keys a file leaves
+// out keep the values of DefaultSettings.
+type Settings struct {
+	Items      ItemsSettings
+	Similarity SimilaritySettings
+	Taxonomy   TaxonomySettings
+	Review     ReviewSettings
+	Release    ReleaseSettings
+	// File is the name the settings were parsed under ("" for defaults).
+	File string
+	// KeyPos holds where each key present in the file is written, by its
+	// dotted name: "items.files", "similarity.source[0].file" (array
+	// indices count from 0, like Similarity.Sources). Tables are recorded
+	// too ("taxonomy", "similarity.source[1]"), and the strings of an array
+	// ("items.files[1]"). Use PosOf to fall back to the nearest enclosing
+	// key.
+	KeyPos map[string]Pos
+}
+
+// ItemsSettings says where the items are.
+type ItemsSettings struct {
+	Files   []string // .toml, .tsv or .csv, relative to the repository
+	Vectors string   // optional vectors.tsv
+}
+
+// SimilaritySettings says how the similarity graph is built.
+type SimilaritySettings struct {
+	// Neighbors is k of the k-nearest-neighbour graph; 0 means all pairs.
+	Neighbors int
+	Sources   []Source
+}
+
+// Source is one ingredient of the similarity graph.
+type Source struct {
+	Kind   string // tags, text, vector or links
+	File   string // the links file, for kind links
+	Weight float64
+}
+
+// Source kinds.
+const (
+	SourceTags   = "tags"
+	SourceText   = "text"
+	SourceVector = "vector"
+	SourceLinks  = "links"
+)
+
+// SourceKinds lists the source kinds in the order messages name them.
+var SourceKinds = []string{SourceTags, SourceText, SourceVector, SourceLinks}
+
+// TaxonomySettings bounds the generated tree.
+type TaxonomySettings struct {
+	File        string
+	MinSize     int
+	MaxChildren int
+	MaxDepth    int
+	Stability   float64
+}
+
+// ReviewSettings shapes review packets.
+type ReviewSettings struct {
+	Size       int     // items per packet
+	AuditShare float64 // share of packets drawn uniformly at random
+	Committee  int     // trees in the committee that looks for disagreement
+}
+
+// ReleaseSettings are the gates and names of a release.
+type ReleaseSettings struct {
+	MinAudits     int
+	MaxRejectRate float64 // upper end of the 95% Clopper-Pearson interval
+	BaseIRI       string  // prefix of concept IRIs in the SKOS export
+}
+
+// DefaultSettings returns the settings a repository has when ramify.toml
+// says nothing.
+func DefaultSettings() *Settings {
+	return &Settings{
+		Items: ItemsSettings{Files: []string{"items.toml"}},
+		Similarity: SimilaritySettings{
+			Neighbors: 15,
+			Sources: []Source{
+				{Kind: SourceTags, Weight: 1.0},
+				{Kind: SourceText, Weight: 0.5},
+			},
+		},
+		Taxonomy: TaxonomySettings{
+			File:        "taxonomy.outline",
+			MinSize:     3,
+			MaxChildren: 12,
+			MaxDepth:    6,
+			Stability:   0.3,
+		},
+		Review:  ReviewSettings{Size: 8, AuditShare: 0.25, Committee: 20},
+		Release: ReleaseSettings{MinAudits: 20, MaxRejectRate: 0.10, BaseIRI: "https://example.org/taxonomy/"},
+		KeyPos:  map[string]Pos{},
+	}
+}
+
+// PosOf is where key (a dotted name as in KeyPos) is written, or where the
+// nearest enclosing key or table is, or the top of the file.
+func (s *Settings) PosOf(key string) Pos {
+	for key != "" {
+		if p, ok := s.KeyPos[key]; ok {
+			return p
+		}
+		cut := strings.LastIndexAny(key, ".[")
+		if cut < 0 {
+			break
+		}
+		key = key[:cut]
+	}
+	return Pos{File: s.File, Line: 1, Col: 1}
+}
+
+// keyPositions names every header and key of the file by its dotted path,
+// numbering arrays of tables from 0.
+func keyPositions(doc *tomlDoc) map[string]Pos {
+	out := map[string]Pos{}
+	put := func(k string, at lineCol) {
+		if _, ok := out[k]; !ok {
+			out[k] = doc.pos(at)
+		}
+	}
+	count := map[string]int{}
+	prefix := make([]string, len(doc.scan.Headers))
+	for i, h := range doc.scan.Headers {
+		p := strings.Join(h.Path, ".")
+		if h.Array {
+			n := count[p]
+			count[p]++
+			p += "[" + strconv.Itoa(n) + "]"
+		}
+		prefix[i] = p
+		put(p, h.At)
+	}
+	for _, k := range doc.scan.Keys {
+		base := ""
+		if k.Header >= 0 && k.Header < len(prefix) {
+			base = prefix[k.Header] + "."
+		}
+		for j := 1; j <= len(k.Path); j++ {
+			put(base+strings.Join(k.Path[:j], "."), k.At)
+		}
+		// Strings in an array value: "items.files[1]" is the second file.
+		if k.Array {
+			full := base + strings.Join(k.Path, ".")
+			for j, str := range k.Strings {
+				put(full+"["+strconv.Itoa(j)+"]", str.At)
+			}
+		}
+	}
+	return out
+}

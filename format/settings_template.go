@@ -1,0 +1,82 @@
+package format
+
+// SettingsTemplate is the ramify.toml that `ramify init` writes. It spells
+// out every setting with its default value and says what it does, so a
+// newcomer can tune the project without other documentation. It parses to
+// exactly DefaultSettings.
+const SettingsTemplate = `# ramify.toml: settings of this taxonomy repository.
+# Every path is relative to this folder. Every value below is the default;
+# delete a line to keep the default, change it to tune the project.
+
+[items]
+# The files that list the items: .toml ([[item]] tables), .tsv or .csv (a
+# header row with id and any of label, tags, text). Several files may be
+# listed; an item id must be unique across all of them.
+files = ["items.toml"]
+# An optional tab-separated file of numeric features: a header "id" then
+# one column per feature, one row per item. Uncomment to use it, and add a
+# source of kind "vector" below.
+# vectors = "vectors.tsv"
+
+[similarity]
+# How many nearest neighbours each item keeps in the similarity graph.
+# More neighbours give a finer graph and a slower solve. 0 compares all
+# pairs, which is only possible for up to 5000 items.
+neighbors = 15
+
+# The similarity graph is a weighted sum of sources. Each source is one
+# [[similarity.source]] table; listing any replaces this default list.
+#   kind   = "tags"   items that share rare tags are similar
+#            "text"   items whose texts share distinctive words are similar
+#            "vector" items whose feature vectors point the same way are
+#                     similar (needs items.vectors)
+#            "links"  similarities given explicitly in a file with the
+#                     header "a<TAB>b<TAB>weight" (needs file)
+#   weight = how much this source counts against the others (above 0)
+[[similarity.source]]
+kind = "tags"
+weight = 1.0
+
+[[similarity.source]]
+kind = "text"
+weight = 0.5
+
+# [[similarity.source]]
+# kind = "links"
+# file = "links.tsv"
+# weight = 0.5
+
+[taxonomy]
+# The generated tree, rewritten by ramify solve. Editors may move lines and
+# rename categories in it; ramify absorb records such edits as decisions.
+file = "taxonomy.outline"
+# The smallest category worth naming, in items.
+min_size = 3
+# At most this many children (subcategories and items) directly under one
+# category.
+max_children = 12
+# At most this many levels of categories.
+max_depth = 6
+# How strongly a new solve is pulled toward the previous tree, from 0 (not
+# at all) to 1 (strongest). Keeps categories steady when a few items are
+# added.
+stability = 0.3
+
+[review]
+# Items in one review packet: few enough to judge at a glance.
+size = 8
+# The share of packets drawn at random rather than where the tree is least
+# certain. Random packets are the audits that estimate the reject rate.
+audit_share = 0.25
+# How many alternative trees vote to find where the tree is uncertain.
+committee = 20
+
+[release]
+# A release needs at least this many answered audit packets...
+min_audits = 20
+# ...and the upper end of the 95% interval of the audit reject rate must be
+# at most this share.
+max_reject_rate = 0.10
+# The prefix of every concept address in the SKOS export.
+base_iri = "https://example.org/taxonomy/"
+`

@@ -1,0 +1,156 @@
+package format
+
+import (
+	"bytes"
+	"errors"
+	"math"
+	"strconv"
+	"strings"
+)
+
+// MaxFeatures bounds the columns of a vectors file.
+const MaxFeatures = 4096
+
+// Vectors holds numeric features, one row per item.
+type Vectors struct {
+	Features []string
+	IDs      []string
+	// Values is row-major: row i (item IDs[i]) is
+	// Values[i*len(Features) : (i+1)*len(Features)].
+	Values []float64
+	// RowPos is where each row begins.
+	RowPos []Pos
+}
+
+// Row returns the features of the i-th item.
+func (v *Vectors) Row(i int) []float64 {
+	n := len(v.Features)
+	return v.Values[i*n : (i+1)*n]
+}
+
+// ParseVectors reads a vectors.tsv: a header "id" followed by feature
+// names, then one row per item with a finite number in every cell.
+func ParseVectors(file string, data []byte) (*Vectors, error) {
+	text, ds := CleanText(file, data)
+	if len(ds) > 0 {
+		return nil, ds
+	}
+	v := &Vectors{}
+	rowsGuess := min(bytes.Count(text, []byte{'\n'}), MaxItems)
+	first := make(map[string]int, min(rowsGuess, 1<<16))
+	header := false
+	rows := 0
+	readTSV(string(text), func(row *tsvRow) bool {
+		if !header {
+			header = true
+			ok := readVectorHeader(file, row, v, &ds)
+			if ok {
+				// A row needs at least two bytes per feature, which bounds
+				// how many rows the text can hold.
+				rowsGuess = min(rowsGuess, len(text)/(2*len(v.Features)))
+				v.Values = make([]float64, 0, rowsGuess*len(v.Features))
+				v.IDs = make([]string, 0, rowsGuess)
+				v.RowPos = make([]Pos, 0, rowsGuess)
+			}
+			return ok
+		}
+		rows++
+		if rows > MaxItems {
+			ds.Add(row.pos(file, 0), "more than %s rows in one file", grouped(MaxItems))
+			return false
+		}
+		width := len(v.Features) + 1
+		if len(row.Cells) != width {
+			at := row.pos(file, 0)
+			if len(row.Cells) > width {
+				at = row.pos(file, width)
+			}
+			ds.Add(at, "row has %d cells but the header has %d", len(row.Cells), width)
+			return true
+		}
+		id := strings.TrimSpace(row.Cells[0])
+		switch {
+		case !ValidItemID(id):
+			ds.Add(row.pos(file, 0), "%q is not a valid item id: %s", clip(id), ItemIDRule)
+		case first[id] != 0:
+			ds.Add(row.pos(file, 0), "item %q has a second row (first at line %d)", id, first[id])
+		default:
+			first[id] = row.Line
+		}
+		for j, cell := range row.Cells[1:] {
+			x, msg := parseFinite(cell)
+			if msg != "" {
+				ds.Add(row.pos(file, j+1), "%s (feature %q)", msg, clip(v.Features[j]))
+			}
+			if len(ds) == 0 {
+				v.Values = append(v.Values, x)
+			}
+		}
+		if len(ds) == 0 {
+			v.IDs = append(v.IDs, strings.Clone(id))
+			v.RowPos = append(v.RowPos, Pos{file, row.Line, 1})
+		}
+		return true
+	})
+	if !header {
+		ds.Add(Pos{file, 1, 1}, "the file is empty; it needs a header row: id, then the feature names")
+	}
+	if len(ds) > 0 {
+		ds.Sort()
+		return nil, ds
+	}
+	return v, nil
+}
+
+func readVectorHeader(file string, row *tsvRow, v *Vectors, ds *Diags) bool {
+	if strings.TrimSpace(row.Cells[0]) != "id" {
+		ds.Add(row.pos(file, 0), "the first header cell must be \"id\", not %q", clip(row.Cells[0]))
+		return false
+	}
+	if len(row.Cells)-1 > MaxFeatures {
+		ds.Add(row.pos(file, MaxFeatures+1), "%d features; the limit is %d", len(row.Cells)-1, MaxFeatures)
+		return false
+	}
+	if len(row.Cells) == 1 {
+		ds.Add(row.pos(file, 1), "the header names no features; add a column per feature after id")
+		return false
+	}
+	seen := map[string]int{}
+	ok := true
+	for j, c := range row.Cells[1:] {
+		name := strings.TrimSpace(c)
+		switch {
+		case name == "":
+			ds.Add(row.pos(file, j+1), "feature name is empty")
+			ok = false
+		case hasControl(name, ""):
+			ds.Add(row.pos(file, j+1), "feature name %q contains a control character", clip(name))
+			ok = false
+		case seen[name] != 0:
+			ds.Add(row.pos(file, j+1), "feature %q appears twice in the header (first in column %d)", clip(name), seen[name])
+			ok = false
+		default:
+			seen[name] = j + 2
+		}
+		v.Features = append(v.Features, strings.Clone(name))
+	}
+	return ok
+}
+
+// parseFinite reads a finite number, saying what is wrong otherwise.
+func parseFinite(cell string) (float64, string) {
+	s := strings.TrimSpace(cell)
+	if s == "" {
+		return 0, "empty cell; every cell needs a number"
+	}
+	x, err := strconv.ParseFloat(s, 64)
+	switch {
+	case errors.Is(err, strconv.ErrRange):
+		return 0, "number " + quoteClip(s) + " is out of range"
+	case err != nil:
+		return 0, quoteClip(s) + " is not a number"
+	case math.IsNaN(x) || math.IsInf(x, 0):
+		return 0, quoteClip(s) + " is not a finite number"
+	}
+	return x, ""
+}

@@ -1,0 +1,102 @@
+package project
+
+import (
+	"slices"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/solve"
+)
+
+// ToCategory turns a solved multiway tree over item indices into an
+// unnamed category tree: every internal node below the root becomes a
+// category, every leaf an item placed in its parent's category.
+func ToCategory(t *solve.Tree, ids []string) *format.Category {
+	root := &format.Category{}
+	if t.N == 0 {
+		return root
+	}
+	if t.IsLeaf(t.Root) {
+		root.Items = []string{ids[t.Root]}
+		return root
+	}
+	type frame struct {
+		node int32
+		cat  *format.Category
+	}
+	stack := []frame{{t.Root, root}}
+	for len(stack) > 0 {
+		f := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		for _, k := range t.Kids[f.node] {
+			if t.IsLeaf(k) {
+				f.cat.Items = append(f.cat.Items, ids[k])
+				continue
+			}
+			child := &format.Category{}
+			f.cat.Children = append(f.cat.Children, child)
+			stack = append(stack, frame{k, child})
+		}
+	}
+	return root
+}
+
+// FromCategory turns a category tree into a solver tree over the given
+// item indices; items the index does not know are left out and
+// categories left empty are dropped. It is how an outline becomes
+// comparable with a solved tree.
+func FromCategory(root *format.Category, index map[string]int, n int) *solve.Tree {
+	t := solve.NewTree(n)
+	var build func(c *format.Category) (int32, bool)
+	build = func(c *format.Category) (int32, bool) {
+		var kids []int32
+		for _, ch := range c.Children {
+			if id, ok := build(ch); ok {
+				kids = append(kids, id)
+			}
+		}
+		for _, it := range c.Items {
+			if i, ok := index[it]; ok {
+				kids = append(kids, int32(i))
+			}
+		}
+		switch len(kids) {
+		case 0:
+			return 0, false
+		case 1:
+			return kids[0], true
+		}
+		return t.Add(kids...), true
+	}
+	if r, ok := build(root); ok {
+		t.Root = r
+	}
+	return t
+}
+
+// PriorClusters lists the leaf sets (item indices, sorted) of every
+// category of a previous outline, restricted to the current items, for
+// the solver's stability pull. Categories with fewer than two current
+// items say nothing and are skipped.
+func PriorClusters(root *format.Category, index map[string]int) [][]int32 {
+	var out [][]int32
+	var rec func(c *format.Category) []int32
+	rec = func(c *format.Category) []int32 {
+		var mine []int32
+		for _, ch := range c.Children {
+			mine = append(mine, rec(ch)...)
+		}
+		for _, it := range c.Items {
+			if i, ok := index[it]; ok {
+				mine = append(mine, int32(i))
+			}
+		}
+		if c != root && len(mine) >= 2 {
+			s := slices.Clone(mine)
+			slices.Sort(s)
+			out = append(out, s)
+		}
+		return mine
+	}
+	rec(root)
+	return out
+}

@@ -1,0 +1,78 @@
+package project
+
+import (
+	"fmt"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// Graph builds the similarity graph of the settings: one kNN graph per
+// configured source, each normalised and summed with its weight
+// (graph.Combine). Item i of the graph is p.Items[i].
+func (p *Project) Graph(seed uint64) (*graph.CSR, error) {
+	n := len(p.Items)
+	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
+	var parts []*graph.CSR
+	var weights []float64
+	for _, src := range p.Settings.Similarity.Sources {
+		g, err := p.sourceGraph(b, src)
+		if err != nil {
+			return nil, fmt.Errorf("similarity source %q: %w", src.Kind, err)
+		}
+		parts = append(parts, g)
+		weights = append(weights, src.Weight)
+	}
+	if len(parts) == 0 {
+		return graph.FromEdges(n, nil)
+	}
+	return graph.Combine(parts, weights)
+}
+
+func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, error) {
+	n := len(p.Items)
+	switch src.Kind {
+	case format.SourceTags:
+		tags := make([][]string, n)
+		for i, it := range p.Items {
+			tags[i] = it.Tags
+		}
+		return b.Tags(tags)
+	case format.SourceText:
+		texts := make([]string, n)
+		for i, it := range p.Items {
+			// The label is part of what an item says about itself.
+			texts[i] = it.Label + " " + it.Text
+		}
+		return b.Text(texts)
+	case format.SourceVector:
+		if p.Vectors == nil {
+			return nil, fmt.Errorf("no vectors file is configured (items.vectors)")
+		}
+		dim := len(p.Vectors.Features)
+		values := make([]float64, n*dim)
+		row := make(map[string]int, len(p.Vectors.IDs))
+		for i, id := range p.Vectors.IDs {
+			row[id] = i
+		}
+		for i, it := range p.Items {
+			r, ok := row[it.ID]
+			if !ok {
+				return nil, fmt.Errorf("item %q has no vector", it.ID)
+			}
+			copy(values[i*dim:(i+1)*dim], p.Vectors.Values[r*dim:(r+1)*dim])
+		}
+		return b.Vectors(values, n, dim, graph.Gaussian)
+	case format.SourceLinks:
+		var edges []graph.Edge
+		for _, l := range p.Links[src.File] {
+			a, okA := p.Index[l.A]
+			c, okB := p.Index[l.B]
+			if okA && okB {
+				edges = append(edges, graph.Edge{A: int32(a), B: int32(c), W: l.Weight})
+			}
+		}
+		return graph.Links(n, edges)
+	}
+	return nil, fmt.Errorf("unknown kind")
+}

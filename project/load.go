@@ -1,0 +1,361 @@
+package project
+
+import (
+	"errors"
+	"io/fs"
+	"os"
+	"path/filepath"
+	"sort"
+	"strconv"
+	"strings"
+
+	"github.com/ramify-tax/ramify/format"
+)
+
+// SettingsFile is the name of the settings file at a repository's root.
+const SettingsFile = "ramify.toml"
+
+// ConstraintsDir holds the constraint files, read in sorted order.
+const ConstraintsDir = "constraints"
+
+// MaxConstraintFiles bounds how many constraint files a repository may
+// hold, so a hostile pull request cannot make a check run for hours.
+const MaxConstraintFiles = 10000
+
+// Project is a loaded taxonomy repository.
+type Project struct {
+	Dir      string
+	Settings *format.Settings
+	Items    []format.Item
+	// Index maps an item id to its position in Items.
+	Index   map[string]int
+	Vectors *format.Vectors
+	// Links holds the explicit similarities of each links source, keyed
+	// by the source's file.
+	Links       map[string][]format.Link
+	Constraints []*format.ConstraintFile
+	// Outline is the committed taxonomy, nil when the file does not exist
+	// yet (a new repository before its first solve).
+	Outline *format.Outline
+	// OutlineText is the outline file's bytes as read.
+	OutlineText []byte
+	// itemsBroken is set when an items file failed to parse; references
+	// to items are then not checked.
+	itemsBroken bool
+}
+
+// OutlinePath is the taxonomy file's path on disk.
+func (p *Project) OutlinePath() string {
+	full, err := Resolve(p.Dir, p.Settings.Taxonomy.File)
+	if err != nil {
+		return filepath.Join(p.Dir, p.Settings.Taxonomy.File)
+	}
+	return full
+}
+
+// Load reads every input of the repository at dir and checks it. It
+// returns the project together with every problem found; callers decide
+// whether problems are fatal (they always are for commands that write).
+func Load(dir string) (*Project, format.Diags) {
+	p := &Project{Dir: dir, Index: map[string]int{}, Links: map[string][]format.Link{}}
+	var ds format.Diags
+	settingsData, err := format.ReadFileLimited(filepath.Join(dir, SettingsFile), SettingsFile, format.MaxSmallFileBytes)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			ds.Add(format.Pos{File: SettingsFile}, "no %s here; run `ramify init` to start a taxonomy repository, or pass --dir", SettingsFile)
+			return nil, ds
+		}
+		return nil, format.AsDiags(err, SettingsFile)
+	}
+	settings, err := format.ParseSettings(SettingsFile, settingsData)
+	if err != nil {
+		return nil, format.AsDiags(err, SettingsFile)
+	}
+	p.Settings = settings
+
+	// Problems are reported in load order (items before the files that
+	// refer to them), sorted by position within each step. When the items
+	// themselves are broken, references to them cannot be judged, so the
+	// "unknown item" checks are skipped rather than flooding the report.
+	itemDs := p.loadItems()
+	p.itemsBroken = len(itemDs) > 0
+	for _, step := range []func() format.Diags{
+		func() format.Diags { return itemDs },
+		p.loadVectors, p.loadLinks, p.loadConstraints, p.loadOutline,
+	} {
+		sds := step()
+		sds.Sort()
+		ds = append(ds, sds...)
+	}
+	return p, ds
+}
+
+// read opens a configured file through Resolve and the size limit.
+func (p *Project) read(rel string, limit int64, keyPos format.Pos) ([]byte, format.Diags) {
+	full, err := Resolve(p.Dir, rel)
+	if err != nil {
+		return nil, format.Diags{{Pos: keyPos, Msg: err.Error()}}
+	}
+	data, err := format.ReadFileLimited(full, rel, limit)
+	if err != nil {
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, format.Diags{{Pos: keyPos, Msg: "file " + rel + " does not exist"}}
+		}
+		return nil, format.AsDiags(err, rel)
+	}
+	return data, nil
+}
+
+func (p *Project) keyPos(key string) format.Pos {
+	if pos, ok := p.Settings.KeyPos[key]; ok {
+		return pos
+	}
+	return format.Pos{File: SettingsFile, Line: 1, Col: 1}
+}
+
+func (p *Project) loadItems() format.Diags {
+	var ds format.Diags
+	firstSeen := map[string]format.Pos{}
+	for _, rel := range p.Settings.Items.Files {
+		data, rds := p.read(rel, format.MaxDataFileBytes, p.keyPos("items.files"))
+		if len(rds) > 0 {
+			ds = append(ds, rds...)
+			continue
+		}
+		items, err := format.ParseItems(rel, data)
+		if err != nil {
+			ds = append(ds, format.AsDiags(err, rel)...)
+			continue
+		}
+		for _, it := range items {
+			if prev, dup := firstSeen[it.ID]; dup {
+				ds.Add(it.Pos, "item %q is defined twice (first at %s)", it.ID, prev)
+				continue
+			}
+			firstSeen[it.ID] = it.Pos
+			p.Index[it.ID] = len(p.Items)
+			p.Items = append(p.Items, it)
+		}
+	}
+	return ds
+}
+
+// usesKind reports whether a similarity source of this kind is configured.
+func (p *Project) usesKind(kind string) bool {
+	for _, s := range p.Settings.Similarity.Sources {
+		if s.Kind == kind {
+			return true
+		}
+	}
+	return false
+}
+
+func (p *Project) loadVectors() format.Diags {
+	rel := p.Settings.Items.Vectors
+	if rel == "" {
+		return nil
+	}
+	data, ds := p.read(rel, format.MaxDataFileBytes, p.keyPos("items.vectors"))
+	if len(ds) > 0 {
+		return ds
+	}
+	v, err := format.ParseVectors(rel, data)
+	if err != nil {
+		return format.AsDiags(err, rel)
+	}
+	p.Vectors = v
+	seen := make(map[string]bool, len(v.IDs))
+	for i, id := range v.IDs {
+		seen[id] = true
+		if _, ok := p.Index[id]; !ok && !p.itemsBroken {
+			ds.Add(v.RowPos[i], "vector row for unknown item %q", id)
+		}
+	}
+	if p.usesKind("vector") && !p.itemsBroken {
+		for _, it := range p.Items {
+			if !seen[it.ID] {
+				ds.Add(it.Pos, "item %q has no row in %s", it.ID, rel)
+			}
+		}
+	}
+	return ds
+}
+
+func (p *Project) loadLinks() format.Diags {
+	var ds format.Diags
+	for i, src := range p.Settings.Similarity.Sources {
+		if src.Kind != "links" || src.File == "" {
+			continue
+		}
+		if _, done := p.Links[src.File]; done {
+			continue
+		}
+		data, rds := p.read(src.File, format.MaxDataFileBytes, p.keyPos(sourceKey(i, "file")))
+		if len(rds) > 0 {
+			ds = append(ds, rds...)
+			continue
+		}
+		links, err := format.ParseLinks(src.File, data)
+		if err != nil {
+			ds = append(ds, format.AsDiags(err, src.File)...)
+			continue
+		}
+		for _, l := range links {
+			for _, id := range []string{l.A, l.B} {
+				if _, ok := p.Index[id]; !ok && !p.itemsBroken {
+					ds.Add(l.Pos, "link names unknown item %q", id)
+				}
+			}
+		}
+		p.Links[src.File] = links
+	}
+	return ds
+}
+
+func sourceKey(i int, key string) string {
+	return "similarity.source[" + strconv.Itoa(i) + "]." + key
+}
+
+// ConstraintFiles lists the constraint files of the repository in sorted
+// order, as repository-relative slash paths. Links and non-regular files
+// are skipped: nothing outside the repository is ever read through them.
+func ConstraintFiles(dir string) ([]string, error) {
+	entries, err := os.ReadDir(filepath.Join(dir, ConstraintsDir))
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil, nil
+	}
+	if err != nil {
+		return nil, err
+	}
+	var out []string
+	for _, e := range entries {
+		if !e.Type().IsRegular() || !strings.HasSuffix(e.Name(), ".toml") || strings.HasPrefix(e.Name(), ".") {
+			continue
+		}
+		out = append(out, ConstraintsDir+"/"+e.Name())
+	}
+	sort.Strings(out)
+	return out, nil
+}
+
+func (p *Project) loadConstraints() format.Diags {
+	var ds format.Diags
+	files, err := ConstraintFiles(p.Dir)
+	if err != nil {
+		return format.Diags{{Pos: format.Pos{File: ConstraintsDir}, Msg: err.Error()}}
+	}
+	if len(files) > MaxConstraintFiles {
+		ds.Add(format.Pos{File: ConstraintsDir}, "%d constraint files; the limit is %d", len(files), MaxConstraintFiles)
+		return ds
+	}
+	for _, rel := range files {
+		data, rds := p.read(rel, format.MaxSmallFileBytes, format.Pos{File: rel})
+		if len(rds) > 0 {
+			ds = append(ds, rds...)
+			continue
+		}
+		cf, err := format.ParseConstraints(rel, data)
+		if err != nil {
+			ds = append(ds, format.AsDiags(err, rel)...)
+			continue
+		}
+		ds = append(ds, p.checkRefs(cf)...)
+		p.Constraints = append(p.Constraints, cf)
+	}
+	return ds
+}
+
+// checkRefs reports constraint records that name items the repository
+// does not have.
+func (p *Project) checkRefs(cf *format.ConstraintFile) format.Diags {
+	var ds format.Diags
+	if p.itemsBroken {
+		return nil
+	}
+	check := func(refs []format.Ref) {
+		for _, r := range refs {
+			if _, ok := p.Index[r.ID]; !ok {
+				ds.Add(r.Pos, "unknown item %q%s", r.ID, p.suggestItem(r.ID))
+			}
+		}
+	}
+	for _, t := range cf.Triplets {
+		check(t.Refs)
+	}
+	for _, g := range cf.Groups {
+		check(g.Refs)
+	}
+	for _, s := range cf.Shapes {
+		check(s.Refs)
+	}
+	return ds
+}
+
+// suggestItem offers a did-you-mean for a mistyped item id, only for small
+// repositories where scanning every id is cheap.
+func (p *Project) suggestItem(id string) string {
+	if len(p.Items) > 20000 {
+		return ""
+	}
+	ids := make([]string, len(p.Items))
+	for i, it := range p.Items {
+		ids[i] = it.ID
+	}
+	if s := format.Suggest(id, ids); s != "" {
+		return "; did you mean " + `"` + s + `"?`
+	}
+	return ""
+}
+
+func (p *Project) loadOutline() format.Diags {
+	rel := p.Settings.Taxonomy.File
+	full, err := Resolve(p.Dir, rel)
+	if err != nil {
+		return format.Diags{{Pos: p.keyPos("taxonomy.file"), Msg: err.Error()}}
+	}
+	data, err := format.ReadFileLimited(full, rel, format.MaxOutlineBytes)
+	if errors.Is(err, fs.ErrNotExist) {
+		return nil
+	}
+	if err != nil {
+		return format.AsDiags(err, rel)
+	}
+	o, err := format.ParseOutline(rel, data)
+	if err != nil {
+		return format.AsDiags(err, rel)
+	}
+	p.Outline, p.OutlineText = o, data
+	return nil
+}
+
+// OutlineMembership reports items of the outline that the repository does
+// not have, and items the outline does not place. For `check` both mean
+// the committed taxonomy is out of date.
+func (p *Project) OutlineMembership() format.Diags {
+	if p.Outline == nil {
+		return nil
+	}
+	var ds format.Diags
+	rel := p.Settings.Taxonomy.File
+	placed := map[string]bool{}
+	p.Outline.Root.Walk(func(c *format.Category, _ int) bool {
+		for i, id := range c.Items {
+			placed[id] = true
+			if _, ok := p.Index[id]; !ok {
+				line := 0
+				if i < len(c.ItemLines) {
+					line = c.ItemLines[i]
+				}
+				ds.Add(format.Pos{File: rel, Line: line, Col: 1}, "item %q is not in the items files%s", id, p.suggestItem(id))
+			}
+		}
+		return true
+	})
+	for _, it := range p.Items {
+		if !placed[it.ID] {
+			ds.Add(it.Pos, "item %q is missing from %s; run `ramify solve` to place it", it.ID, rel)
+		}
+	}
+	ds.Sort()
+	return ds
+}
