@@ -62,7 +62,9 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 			}
 			copy(values[i*dim:(i+1)*dim], p.Vectors.Values[r*dim:(r+1)*dim])
 		}
-		return b.Vectors(values, n, dim, graph.Gaussian)
+		// Cosine on z-scored features is the documented vector similarity
+		// (METHODS 1.1); the Gaussian kernel stays available in solve/graph.
+		return b.Vectors(values, n, dim, graph.Cosine)
 	case format.SourceLinks:
 		var edges []graph.Edge
 		for _, l := range p.Links[src.File] {

@@ -345,3 +345,33 @@ func TestConsistentLargeMinimalConflict(t *testing.T) {
 		t.Fatalf("got %v %v, want the conflict [17 3000]", ok, recs)
 	}
 }
+
+// BenchmarkConsistent decides 100,000 items with 5,000 records drawn from
+// a hidden tree (4,000 triplet records, some holding several triplets, and
+// 1,000 cluster records), consistent and with one contradicting record
+// added (which adds the minimal-conflict search).
+func BenchmarkConsistent(b *testing.B) {
+	r := rand.New(rand.NewPCG(1, 1))
+	n := 100000
+	hidden := randomBinaryTree(r, n)
+	c := hiddenConstraints(r, hidden, 4000, 1000)
+	for name, cs := range map[string]*Constraints{"consistent": c, "conflict": withContradiction(c)} {
+		b.Run(name, func(b *testing.B) {
+			b.ReportAllocs()
+			for i := 0; i < b.N; i++ {
+				ok, recs := Consistent(n, cs)
+				if ok == (name == "conflict") {
+					b.Fatalf("ok = %v (%v)", ok, recs)
+				}
+			}
+		})
+	}
+}
+
+// withContradiction adds a record that swaps the out-item of triplet 0.
+func withContradiction(c *Constraints) *Constraints {
+	t0 := c.Triplets[0]
+	out := &Constraints{Clusters: c.Clusters}
+	out.Triplets = append(append([]Triplet(nil), c.Triplets...), trip(t0.A, t0.C, t0.B, 1<<30))
+	return out
+}

@@ -5,6 +5,7 @@ import (
 	"math"
 	"math/bits"
 	"runtime"
+	"sort"
 	"sync"
 
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -15,22 +16,24 @@ import (
 // kept in ascending leaf order until it is finished. Per set:
 //
 //  1. the Aho graph of the constraints active in S is built by union-find;
-//     its components are super-nodes (with masses = their sizes), which no
-//     split may cut;
+//     with Stability, previous categories are joined on top of it (soft:
+//     softUnions); the components are super-nodes (with masses = their
+//     sizes), which no split may cut;
 //  2. small sets are finished by an exact subset DP over leaves that only
 //     splits along unions of Aho components (optimal for the subtree);
 //  3. otherwise G[S] is contracted onto the super-nodes; disconnected parts
 //     are split apart at zero cost; two super-nodes force the split; a few
 //     super-nodes are split by the DP over super-nodes; the rest by the
 //     Fiedler vector of the contracted graph and a sweep over uniform
-//     sparsity with masses;
+//     sparsity with masses, refined by single super-node moves;
 //  4. both sides are pushed on an explicit work stack with the constraints
 //     they hold whole.
 //
 // A split is recorded as the depth of its node at the gap between the two
 // sides in the final permutation, so the binary tree is the Cartesian tree
 // of those gap depths (treeFromGaps). Every step costs O(|S| + edges of
-// G[S] + active constraints), with buffers reused across sets.
+// G[S] + active constraints), with buffers reused across sets; sets are
+// processed by parallel workers, with the same result for any number.
 
 const (
 	// leafDPLimit: sets of at most this many leaves are finished exactly.
@@ -47,6 +50,10 @@ type constructParams struct {
 	// leafDP and superDP override the limits above (0 = default; a value
 	// of 1 turns the DP off, which tests use to check the spectral path).
 	leafDP, superDP int
+	// prior and stability: the previous outline's categories and how
+	// strongly they hold together (see softUnions).
+	prior     [][]int32
+	stability float64
 }
 
 // construct builds the binary tree. c must be consistent.
@@ -91,7 +98,7 @@ func (b *builder) runWorkers() error {
 	var (
 		mu       sync.Mutex
 		cond     = sync.NewCond(&mu)
-		stack    = []ctask{{0, b.n, 0, len(b.trip), 0, len(b.clus), 0}}
+		stack    = []ctask{{0, b.n, 0, len(b.trip), 0, len(b.clus), 0, len(b.grp), 0}}
 		busy     = 0
 		done     = 0
 		reported = 0
@@ -142,6 +149,7 @@ const maxConstructWorkers = 8
 
 type ctask struct {
 	lo, hi, tlo, thi, clo, chi int
+	glo, ghi                   int // soft groups in grp
 	depth                      int32
 }
 
@@ -154,10 +162,13 @@ type builder struct {
 	params   constructParams
 	trips    []Triplet // non-trivial triplets (three distinct leaves)
 	clusters [][]int32 // deduplicated, ascending, at least two leaves
+	groups   [][]int32 // previous categories (soft), same form
+	covered  []bool    // leaf lies in some previous category
 	order    []int32
 	gapDepth []int32
 	trip     []int32
 	clus     []int32
+	grp      []int32
 	uf       unionFind
 	local    []int32 // leaf → super-node index in its current set
 	side     []int8
@@ -184,12 +195,43 @@ func (b *builder) compile(c *Constraints) {
 	for i := range b.clus {
 		b.clus[i] = int32(i)
 	}
+	if b.params.stability > 0 {
+		b.covered = make([]bool, b.n)
+		for _, cat := range b.params.prior {
+			var ls []int32
+			for _, l := range cat {
+				if l >= 0 && int(l) < b.n {
+					ls = append(ls, l)
+				}
+			}
+			ls = sortedUnique(ls)
+			for _, l := range ls {
+				b.covered[l] = true
+			}
+			if len(ls) >= 2 {
+				b.groups = append(b.groups, ls)
+			}
+		}
+		sort.SliceStable(b.groups, func(i, j int) bool {
+			gi, gj := b.groups[i], b.groups[j]
+			if len(gi) != len(gj) {
+				return len(gi) > len(gj)
+			}
+			return gi[0] < gj[0]
+		})
+		b.grp = make([]int32, len(b.groups))
+		for i := range b.grp {
+			b.grp[i] = int32(i)
+		}
+	}
 }
 
 // constructWorker is the scratch space of one worker.
 type constructWorker struct {
 	mark   []int32 // leaf → stamp of the set it was last seen in
 	stamp  int32
+	gmark  []int32 // the same for previous categories (allocated on need)
+	gstamp int32
 	first  []int32 // super-node → smallest leaf
 	memOff []int32
 	member []int32
@@ -240,33 +282,16 @@ func (b *builder) process(w *constructWorker, tk ctask) ([]ctask, int, error) {
 	w.stamp++
 	for _, l := range set {
 		w.mark[l] = w.stamp
-		b.uf[l] = l
 	}
-	for _, ti := range b.trip[tk.tlo:tk.thi] {
-		tr := b.trips[ti]
-		b.uf.union(tr.A, tr.B)
-	}
-	for _, ci := range b.clus[tk.clo:tk.chi] {
-		cl := b.clusters[ci]
-		if len(cl) < s {
-			for _, l := range cl[1:] {
-				b.uf.union(cl[0], l)
-			}
-		}
-	}
-	// Super-nodes in order of their smallest leaf; a root is the smallest
-	// leaf of its component (union keeps the smaller root).
-	k := 0
-	w.first = w.first[:0]
-	for _, l := range set {
-		r := b.uf.find(l)
-		if r == l {
-			b.local[l] = int32(k)
-			w.first = append(w.first, l)
-			k++
-		} else {
-			b.local[l] = b.local[r]
-		}
+	b.hardUnions(tk)
+	soft := tk.ghi > tk.glo && b.softUnions(w, tk)
+	k := b.superNodes(w, set)
+	if k == 1 && soft {
+		// The previous categories leave no split here: drop them for this
+		// set (the constraints alone always leave one).
+		b.hardUnions(tk)
+		soft = false
+		k = b.superNodes(w, set)
 	}
 	if k == 1 {
 		return nil, 0, errInconsistent
@@ -294,6 +319,120 @@ func (b *builder) process(w *constructWorker, tk ctask) ([]ctask, int, error) {
 		}
 	}
 	return b.apply(w, tk), 0, nil
+}
+
+// hardUnions resets the union-find on the set and joins the Aho graph's
+// edges: a–b for each active triplet ab|c, all of C for each cluster C ⊊ S.
+func (b *builder) hardUnions(tk ctask) {
+	set := b.order[tk.lo:tk.hi]
+	for _, l := range set {
+		b.uf[l] = l
+	}
+	for _, ti := range b.trip[tk.tlo:tk.thi] {
+		tr := b.trips[ti]
+		b.uf.union(tr.A, tr.B)
+	}
+	for _, ci := range b.clus[tk.clo:tk.chi] {
+		cl := b.clusters[ci]
+		if len(cl) < len(set) {
+			for _, l := range cl[1:] {
+				b.uf.union(cl[0], l)
+			}
+		}
+	}
+}
+
+// superNodes numbers the union-find components of the set in order of
+// their smallest leaf (a root is the smallest leaf of its component, since
+// union keeps the smaller root) and records them in b.local and w.first.
+func (b *builder) superNodes(w *constructWorker, set []int32) int {
+	k := 0
+	w.first = w.first[:0]
+	for _, l := range set {
+		r := b.uf.find(l)
+		if r == l {
+			b.local[l] = int32(k)
+			w.first = append(w.first, l)
+			k++
+		} else {
+			b.local[l] = b.local[r]
+		}
+	}
+	return k
+}
+
+// softUnions holds the previous outline's categories together (Stability,
+// DESIGN 8 step 7). A previous category P in the set is joined into one
+// super-node while the set still holds previously categorised items
+// outside P — so P survives as a node, and new items may still join it
+// once the recursion reaches P's own set — provided the similarity graph
+// still backs it: P's edge density inside G[S] must be at least
+// (1 − Stability) times the density of the whole set. Joining only coarsens
+// the Aho components, so it never breaks a constraint. It reports whether
+// any category was joined.
+func (b *builder) softUnions(w *constructWorker, tk ctask) bool {
+	set := b.order[tk.lo:tk.hi]
+	covered := 0
+	for _, l := range set {
+		if b.covered[l] {
+			covered++
+		}
+	}
+	setDensity := b.density(w.mark, set, w.stamp)
+	if w.gmark == nil {
+		w.gmark = make([]int32, b.n)
+	}
+	joined := false
+	// Groups are sorted largest first, so a category nested in one joined
+	// before is already whole and costs only the check below.
+	for _, gi := range b.grp[tk.glo:tk.ghi] {
+		grp := b.groups[gi]
+		if len(grp) >= covered {
+			continue // P is all the categorised items here: nothing to keep apart
+		}
+		root := b.uf.find(grp[0])
+		whole := true
+		for _, l := range grp[1:] {
+			if b.uf.find(l) != root {
+				whole = false
+				break
+			}
+		}
+		if whole {
+			continue
+		}
+		w.gstamp++
+		for _, l := range grp {
+			w.gmark[l] = w.gstamp
+		}
+		if b.density(w.gmark, grp, w.gstamp) < (1-b.params.stability)*setDensity {
+			continue
+		}
+		for _, l := range grp[1:] {
+			b.uf.union(grp[0], l)
+		}
+		joined = true
+	}
+	return joined
+}
+
+// density is the weight of the edges among members (marked with stamp)
+// over the number of member pairs.
+func (b *builder) density(mark []int32, members []int32, stamp int32) float64 {
+	if len(members) < 2 {
+		return 0
+	}
+	total := 0.0
+	for _, l := range members {
+		ts, ws := b.g.Neighbors(int(l))
+		for e, t := range ts {
+			if mark[t] == stamp {
+				total += ws[e]
+			}
+		}
+	}
+	pairs := float64(len(members)) * float64(len(members)-1)
+	return total / pairs // each edge was counted from both ends
 }
 
 // contract builds the contracted graph of G[S] onto the k super-nodes,
@@ -573,7 +712,7 @@ func (b *builder) finishExact(w *constructWorker, tk ctask) {
 		}
 	}
 	var aho *ahoMasks
-	if tk.thi > tk.tlo || tk.chi > tk.clo {
+	if tk.thi > tk.tlo || tk.chi > tk.clo || tk.ghi > tk.glo {
 		aho = &ahoMasks{}
 		for _, ti := range b.trip[tk.tlo:tk.thi] {
 			tr := b.trips[ti]
@@ -586,6 +725,18 @@ func (b *builder) finishExact(w *constructWorker, tk ctask) {
 				m |= 1 << b.local[l]
 			}
 			aho.clusters = append(aho.clusters, m)
+		}
+		for i, l := range set {
+			if b.covered != nil && b.covered[l] {
+				aho.covered |= 1 << i
+			}
+		}
+		for _, gi := range b.grp[tk.glo:tk.ghi] {
+			var m uint32
+			for _, l := range b.groups[gi] {
+				m |= 1 << b.local[l]
+			}
+			aho.soft = append(aho.soft, m)
 		}
 	}
 	w.dp.solve(aho)
@@ -640,8 +791,9 @@ func (b *builder) apply(w *constructWorker, tk ctask) []ctask {
 	tl := b.partitionTriplets(w, tripSeg)
 	clusSeg := b.clus[tk.clo:tk.chi]
 	cl := b.partitionClusters(w, clusSeg, nl, len(set)-nl)
-	left := ctask{tk.lo, tk.lo + nl, tk.tlo, tk.tlo + tl[0], tk.clo, tk.clo + cl[0], tk.depth + 1}
-	right := ctask{tk.lo + nl, tk.hi, tk.tlo + tl[0], tk.tlo + tl[0] + tl[1], tk.clo + cl[0], tk.clo + cl[0] + cl[1], tk.depth + 1}
+	gl := b.partitionGroups(w, b.grp[tk.glo:tk.ghi])
+	left := ctask{tk.lo, tk.lo + nl, tk.tlo, tk.tlo + tl[0], tk.clo, tk.clo + cl[0], tk.glo, tk.glo + gl[0], tk.depth + 1}
+	right := ctask{tk.lo + nl, tk.hi, tk.tlo + tl[0], tk.tlo + tl[0] + tl[1], tk.clo + cl[0], tk.clo + cl[0] + cl[1], tk.glo + gl[0], tk.glo + gl[0] + gl[1], tk.depth + 1}
 	return []ctask{right, left}
 }
 
@@ -670,6 +822,45 @@ func (b *builder) partitionTriplets(w *constructWorker, seg []int32) [2]int {
 		}
 	}
 	copy(seg, w.tmp[:cnt[0]+cnt[1]])
+	return cnt
+}
+
+// partitionGroups hands each previous category to the side that holds it
+// whole; a category that was cut here is given up.
+func (b *builder) partitionGroups(w *constructWorker, seg []int32) [2]int {
+	var cnt [2]int
+	sideOf := func(gi int32) int8 {
+		grp := b.groups[gi]
+		sd := b.side[grp[0]]
+		for _, l := range grp[1:] {
+			if b.side[l] != sd {
+				return -1
+			}
+		}
+		return sd
+	}
+	w.tmp = growInt32(w.tmp, len(seg))
+	keep := w.tmp[:0]
+	var sides []int8
+	for _, gi := range seg {
+		if sd := sideOf(gi); sd >= 0 {
+			keep = append(keep, gi)
+			sides = append(sides, sd)
+			cnt[sd]++
+		}
+	}
+	i, j := 0, cnt[0]
+	out := make([]int32, cnt[0]+cnt[1])
+	for k, gi := range keep {
+		if sides[k] == 0 {
+			out[i] = gi
+			i++
+		} else {
+			out[j] = gi
+			j++
+		}
+	}
+	copy(seg, out)
 	return cnt
 }
 
@@ -737,10 +928,15 @@ func treeFromGaps(n int, order, gapDepth []int32) *Tree {
 }
 
 // ahoMasks are constraints over at most 32 atoms as bit masks: a triplet
-// ab|c as (a|b, a|b|c), a cluster as its mask.
+// ab|c as (a|b, a|b|c), a cluster as its mask; soft are previous
+// categories, joined in a set while it holds covered atoms outside them
+// (softUnions), unless that would leave the set no split.
 type ahoMasks struct {
 	pairs    [][2]uint32
 	clusters []uint32
+	soft     []uint32
+	covered  uint32
+	hard     []uint32
 }
 
 // components returns the component masks of the Aho graph of set, in
@@ -777,6 +973,19 @@ func (a *ahoMasks) components(set uint32, buf []uint32) []uint32 {
 		if c&set == c && c != set {
 			join(c)
 		}
+	}
+	if len(a.soft) == 0 || len(buf) < 2 {
+		return buf
+	}
+	a.hard = append(a.hard[:0], buf...)
+	inSet := bits.OnesCount32(set & a.covered)
+	for _, c := range a.soft {
+		if c&set == c && bits.OnesCount32(c) < inSet {
+			join(c)
+		}
+	}
+	if len(buf) < 2 {
+		buf = append(buf[:0], a.hard...)
 	}
 	return buf
 }

@@ -18,7 +18,12 @@ import (
 //	ψ(v) = w(between v's children) / Σ_{children a<b} |a|·|b|.
 //
 // The rule: u is folded into its parent v when its split is not
-// meaningfully tighter than v's, that is when ψ(u) < foldTightness · ψ(v).
+// meaningfully tighter than v's, that is when ψ̃(u) < foldTightness · ψ(v),
+// where ψ̃(u) = (w_u + κ·ψ(v)) / (p_u + κ) is u's ψ shrunk toward its
+// parent's by κ = foldPseudoPairs pairs (w_u: weight across u's children,
+// p_u: their pairs). Without the shrinkage the small nodes at the bottom,
+// which the binary tree builds from the heaviest pairs, pass the test by
+// selection alone and the result is a thicket of three-item categories.
 // Under a planted hierarchy the binary nodes that only regroup siblings of
 // one level have ψ(u) ≈ ψ(v) and fold, while a real level is markedly
 // tighter than the one above it and stays. Folds go least-tight first (by
@@ -26,6 +31,10 @@ import (
 // ψ(v) ← (w_v + w_u)/(p_v + p_u), which is exact. Folding never increases
 // the number of categories a leaf sits in and costs Δ = (|L(v)|−|L(u)|)·w_u
 // of Dasgupta's cost.
+//
+// With Stability the previous categories (found again as nodes by
+// priorMatches) are exempt from the tightness rule and folded last for
+// depth, and every other node needs foldTightness/(1 − Stability).
 //
 // Order of the passes: (1) categories smaller than MinSize are folded away,
 // bottom-up; (2) the tightness rule; (3) while some item sits deeper than
@@ -40,12 +49,20 @@ import (
 // to stay a category of its own.
 const foldTightness = 1.5
 
+// foldPseudoPairs is the weight, in member pairs, of the parent's ψ in a
+// node's shrunk ψ (see gain).
+const foldPseudoPairs = 20.0
+
 type foldParams struct {
 	minSize, maxChildren, maxDepth int
 	ratio                          float64
-	// prior: the previous outline's categories; a binary node that is one
-	// of them (up to priorMatch overlap) is exempt from the tightness rule.
-	prior [][]int32
+	// prior: the previous outline's categories, with stability > 0. A
+	// binary node that is one of them (up to priorMatch overlap) is exempt
+	// from the tightness rule and folded last for depth; any other node
+	// must be foldTightness/(1 − stability) times tighter than its parent
+	// to stay, so that the previous outline is not refined needlessly.
+	prior     [][]int32
+	stability float64
 }
 
 // folder is the mutable multiway tree over the binary tree's node ids.
@@ -168,16 +185,20 @@ func (f *folder) psi(v int32) float64 {
 	return f.cross[v] / f.pairs[v]
 }
 
-// gain is how many times tighter u's split is than its parent's.
+// gain is how many times tighter u's split is than its parent's, with
+// u's ψ shrunk toward the parent's by foldPseudoPairs pairs: the binary
+// tree joins the heaviest pairs lowest, so a split over a few pairs looks
+// tight by selection alone, and needs more evidence than one over many.
 func (f *folder) gain(u int32) float64 {
-	pu, pv := f.psi(u), f.psi(f.parent[u])
+	pv := f.psi(f.parent[u])
 	if pv <= 0 {
-		if pu <= 0 {
+		if f.cross[u] <= 0 {
 			return 0
 		}
 		return math.Inf(1)
 	}
-	return pu / pv
+	shrunk := (f.cross[u] + float64(foldPseudoPairs*pv)) / (f.pairs[u] + foldPseudoPairs)
+	return shrunk / pv
 }
 
 // legal reports whether folding u into its parent keeps every limit and
@@ -271,6 +292,7 @@ func (f *folder) foldSmall() {
 
 // gainHeap orders fold candidates by gain, then node id.
 type gainEntry struct {
+	rank int8 // lower ranks go first whatever their gain
 	gain float64
 	node int32
 }
@@ -278,32 +300,46 @@ type gainHeap []gainEntry
 
 func (h gainHeap) Len() int { return len(h) }
 func (h gainHeap) Less(i, j int) bool {
+	if h[i].rank != h[j].rank {
+		return h[i].rank < h[j].rank
+	}
 	if h[i].gain != h[j].gain {
 		return h[i].gain < h[j].gain
 	}
 	return h[i].node < h[j].node
 }
-func (h gainHeap) Swap(i, j int)            { h[i], h[j] = h[j], h[i] }
-func (h *gainHeap) Push(x any)              { *h = append(*h, x.(gainEntry)) }
-func (h *gainHeap) Pop() any                { old := *h; x := old[len(old)-1]; *h = old[:len(old)-1]; return x }
-func (h *gainHeap) push(u int32, g float64) { heap.Push(h, gainEntry{g, u}) }
+func (h gainHeap) Swap(i, j int)     { h[i], h[j] = h[j], h[i] }
+func (h *gainHeap) Push(x any)       { *h = append(*h, x.(gainEntry)) }
+func (h *gainHeap) Pop() any         { old := *h; x := old[len(old)-1]; *h = old[:len(old)-1]; return x }
+func (h *gainHeap) push(e gainEntry) { heap.Push(h, e) }
+
+// entry is u's heap entry; with keepLast, nodes reproducing a previous
+// category rank after all others.
+func (f *folder) entry(u int32, keepLast bool) gainEntry {
+	e := gainEntry{gain: f.gain(u), node: u}
+	if keepLast && f.keep != nil && f.keep[u] {
+		e.rank = 1
+	}
+	return e
+}
 
 // stale reports whether a popped entry's key is out of date; if so it was
 // pushed again with its current gain.
 func (f *folder) stale(h *gainHeap, e gainEntry) (float64, bool) {
 	g := f.gain(e.node)
 	if g > e.gain && !(math.IsInf(g, 1) && math.IsInf(e.gain, 1)) {
-		h.push(e.node, g)
+		e.gain = g
+		h.push(e)
 		return g, true
 	}
 	return g, false
 }
 
-func (f *folder) candidates() *gainHeap {
+func (f *folder) candidates(keepLast bool) *gainHeap {
 	h := &gainHeap{}
 	for _, u := range f.postOrder() {
 		if u != f.t.Root {
-			*h = append(*h, gainEntry{f.gain(u), u})
+			*h = append(*h, f.entry(u, keepLast))
 		}
 	}
 	heap.Init(h)
@@ -312,7 +348,11 @@ func (f *folder) candidates() *gainHeap {
 
 // foldLoose applies the tightness rule, least tight first.
 func (f *folder) foldLoose() {
-	h := f.candidates()
+	ratio := f.p.ratio
+	if f.keep != nil {
+		ratio /= 1 - math.Min(f.p.stability, 0.9)
+	}
+	h := f.candidates(false)
 	for h.Len() > 0 {
 		e := heap.Pop(h).(gainEntry)
 		u := e.node
@@ -323,7 +363,7 @@ func (f *folder) foldLoose() {
 			continue
 		}
 		g, st := f.stale(h, e)
-		if st || g >= f.p.ratio || !f.legal(u) {
+		if st || g >= ratio || !f.legal(u) {
 			continue
 		}
 		v := f.parent[u]
@@ -333,18 +373,18 @@ func (f *folder) foldLoose() {
 		// The parent's ψ changed: its own gain, and if it grew, its
 		// children's gains fell; the moved grandchildren have a new parent.
 		if v != f.t.Root {
-			h.push(v, f.gain(v))
+			h.push(f.entry(v, false))
 		}
 		if f.psi(v) > before {
 			for _, k := range f.kids[v] {
 				if !f.t.IsLeaf(k) {
-					h.push(k, f.gain(k))
+					h.push(f.entry(k, false))
 				}
 			}
 		} else {
 			for _, k := range moved {
 				if !f.t.IsLeaf(k) {
-					h.push(k, f.gain(k))
+					h.push(f.entry(k, false))
 				}
 			}
 		}
@@ -379,7 +419,7 @@ func (f *folder) foldDeep() {
 	}
 	walk()
 	st := newMaxAddTree(depth)
-	h := f.candidates()
+	h := f.candidates(true)
 	for h.Len() > 0 {
 		e := heap.Pop(h).(gainEntry)
 		u := e.node
@@ -397,11 +437,11 @@ func (f *folder) foldDeep() {
 		f.contract(u)
 		st.add(lo, hi, -1)
 		if v != f.t.Root {
-			h.push(v, f.gain(v))
+			h.push(f.entry(v, true))
 		}
 		for _, k := range f.kids[v] {
 			if !f.t.IsLeaf(k) {
-				h.push(k, f.gain(k))
+				h.push(f.entry(k, true))
 			}
 		}
 	}

@@ -1,12 +1,17 @@
 package solve
 
 import (
+	"math/bits"
 	"sort"
 
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Local improvement of the binary tree by rotations (METHODS 5). At a node
+// Local improvement of the binary tree (DESIGN 8 step 4): rotation passes,
+// then passes of the wider re-arrangement move below. Both compute the
+// change of Dasgupta's cost exactly and never break a constraint.
+//
+// Rotations (METHODS 5). At a node
 // v with children u and Y, where u has children X1 and X2, the rotations
 //
 //	((X1,X2),Y) → ((X1,Y),X2)   Δcost = n_Y·w(X1,X2) − n_X2·w(X1,Y)
@@ -39,11 +44,22 @@ type rotation struct {
 // until a pass saves less than the share minGain of the cost (0: until
 // nothing improves) or maxPasses passes ran. t must satisfy c; it still
 // does afterwards.
-func improveRotations(g *graph.CSR, t *Tree, c *Constraints, maxPasses int, minGain float64, progress func(string, int, int)) int {
+//
+// prior (may be nil) lists previous categories: nodes that reproduce one
+// (priorMatches) are kept like cluster constraints, so that stability
+// survives the improvement.
+func improveRotations(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, maxPasses int, minGain float64, progress func(string, int, int)) int {
 	applied := 0
 	for pass := 0; pass < maxPasses; pass++ {
 		progress("improve", pass, maxPasses)
-		k, gain, cost := rotationPass(g, t, c)
+		k, gain, cost := rotationPass(g, t, c, prior)
+		applied += k
+		if k == 0 || gain < minGain*cost {
+			break
+		}
+	}
+	for pass := 0; pass < maxPasses; pass++ {
+		k, gain, cost := frontierPass(g, t, c, prior, frontierDepth(t.N))
 		applied += k
 		if k == 0 || gain < minGain*cost {
 			break
@@ -137,13 +153,18 @@ func constraintPins(t *Tree, c *Constraints, lay *layout) (pinned, locked []bool
 
 // rotationPass runs one pass and returns the number of rotations applied,
 // the cost they saved and the cost before the pass.
-func rotationPass(g *graph.CSR, t *Tree, c *Constraints) (int, float64, float64) {
+func rotationPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32) (int, float64, float64) {
 	if t.N < 3 {
 		return 0, 0, 0
 	}
 	lay := newLayout(t)
 	b := bucketEdges(g, t, lay)
 	pinned, locked := constraintPins(t, c, lay)
+	if len(prior) > 0 {
+		for v, keep := range priorMatches(t, lay, prior) {
+			pinned[v] = pinned[v] || keep
+		}
+	}
 	size := func(v int32) float64 { return float64(lay.hi[v] - lay.lo[v]) }
 	cost := 0.0
 	for v, w := range b.cross {
@@ -241,4 +262,256 @@ func canonicalOrder(t *Tree) {
 		sort.Slice(kids, func(i, j int) bool { return minLeaf[kids[i]] < minLeaf[kids[j]] })
 		minLeaf[v] = minLeaf[kids[0]]
 	}
+}
+
+// Re-arrangement of subtree tops. Rotations only see three blocks. The
+// wider move takes, at a node v, the frontier of its subtree at depth d
+// (at most 2^d blocks: the nodes d levels below v, or leaves above that)
+// and replaces the top of the subtree by the optimal binary tree over the
+// blocks, found by the subset DP with the block sizes as masses; the blocks
+// themselves are kept whole. The cost of the top is Σ |L(a)|·w(children of
+// a) over its internal nodes a, and every edge whose LCA lies in it joins
+// two blocks, so the DP's optimum is exactly the best top. Constraints
+// enter the DP as block-level Aho masks: a triplet whose three leaves lie
+// in three blocks, and a cluster constraint (or previous category) that is
+// a node of the top. Rotations are the three-block case.
+
+// frontierDepth returns the depth d of the move for a tree on n leaves:
+// 3 (eight blocks, 3^8 DP steps per node) while that stays cheap, else 2.
+func frontierDepth(n int) int {
+	if n <= 30000 {
+		return 3
+	}
+	return 2
+}
+
+// topRegion is the top of v's subtree: its internal nodes in pre-order
+// (v first) and its frontier blocks left to right.
+type topRegion struct {
+	nodes  []int32
+	blocks []int32
+}
+
+func regionOf(t *Tree, v int32, depth int) topRegion {
+	var r topRegion
+	type frame struct {
+		v int32
+		d int
+	}
+	stack := []frame{{v, 0}}
+	for len(stack) > 0 {
+		f := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		if t.IsLeaf(f.v) || f.d == depth {
+			r.blocks = append(r.blocks, f.v)
+			continue
+		}
+		r.nodes = append(r.nodes, f.v)
+		kids := t.Kids[f.v]
+		for i := len(kids) - 1; i >= 0; i-- {
+			stack = append(stack, frame{kids[i], f.d + 1})
+		}
+	}
+	return r
+}
+
+// frontierMove is an improving re-arrangement: the DP's splits (block
+// masks, pre-order) for the region of v.
+type frontierMove struct {
+	gain   float64
+	v      int32
+	region topRegion
+	splits []uint32 // for each DP node in pre-order: its left part
+	masks  []uint32 // and its own block set
+}
+
+// frontierPass applies improving re-arrangements, best first, that do not
+// touch a node an earlier one of the same pass changed. It returns their
+// number, the cost they saved and the cost before the pass.
+func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth int) (int, float64, float64) {
+	if t.N < 4 {
+		return 0, 0, 0
+	}
+	lay := newLayout(t)
+	nodes := t.NumNodes()
+	size := func(v int32) float64 { return float64(lay.hi[v] - lay.lo[v]) }
+
+	// Edges bucketed by LCA, as leaf positions.
+	type posEdge struct {
+		p, q int32
+		w    float64
+	}
+	start := make([]int32, nodes+1)
+	var raw []posEdge
+	var lcaOf []int32
+	for u := 0; u < g.N; u++ {
+		ts, ws := g.Neighbors(u)
+		for k, x := range ts {
+			if int(x) <= u {
+				continue
+			}
+			p, q := lay.pos[u], lay.pos[x]
+			if p > q {
+				p, q = q, p
+			}
+			a := lay.lcaPos(p, q)
+			raw = append(raw, posEdge{p, q, ws[k]})
+			lcaOf = append(lcaOf, a)
+			start[a+1]++
+		}
+	}
+	for v := 0; v < nodes; v++ {
+		start[v+1] += start[v]
+	}
+	bucket := make([]posEdge, len(raw))
+	fill := append([]int32(nil), start[:nodes]...)
+	cost := 0.0
+	for i, e := range raw {
+		a := lcaOf[i]
+		bucket[fill[a]] = e
+		fill[a]++
+		cost += float64(size(a) * e.w)
+	}
+	raw, lcaOf = nil, nil
+
+	pinned, _ := constraintPins(t, c, lay)
+	if len(prior) > 0 {
+		for v, keep := range priorMatches(t, lay, prior) {
+			pinned[v] = pinned[v] || keep
+		}
+	}
+	// Triplets bucketed by lca(a,b,c).
+	tripsAt := map[int32][]Triplet{}
+	if c != nil {
+		for _, tr := range c.Triplets {
+			if tr.A == tr.B {
+				continue
+			}
+			pa, pb, pc := lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]
+			y := lay.lcaPos(min(pa, pb, pc), max(pa, pb, pc))
+			tripsAt[y] = append(tripsAt[y], tr)
+		}
+	}
+
+	var moves []frontierMove
+	var dp subsetDP
+	for vi := t.N; vi < nodes; vi++ {
+		v := int32(vi)
+		if lay.parent[v] < 0 && v != t.Root {
+			continue
+		}
+		reg := regionOf(t, v, depth)
+		k := len(reg.blocks)
+		if k < 3 {
+			continue
+		}
+		blockOf := func(p int32) int {
+			for i, b := range reg.blocks {
+				if p < lay.hi[b] {
+					return i
+				}
+			}
+			return k - 1
+		}
+		dp.reset(k)
+		for i, b := range reg.blocks {
+			dp.mass[i] = size(b)
+		}
+		current := 0.0
+		var aho *ahoMasks
+		for _, a := range reg.nodes {
+			for _, e := range bucket[start[a]:start[a+1]] {
+				i, j := blockOf(e.p), blockOf(e.q)
+				dp.weight[i*k+j] += e.w
+				dp.weight[j*k+i] += e.w
+				current += float64(size(a) * e.w)
+			}
+			if a != v && pinned[a] {
+				if aho == nil {
+					aho = &ahoMasks{}
+				}
+				var m uint32
+				for i, b := range reg.blocks {
+					if lay.lo[b] >= lay.lo[a] && lay.hi[b] <= lay.hi[a] {
+						m |= 1 << i
+					}
+				}
+				aho.clusters = append(aho.clusters, m)
+			}
+			for _, tr := range tripsAt[a] {
+				ba, bb, bc := blockOf(lay.pos[tr.A]), blockOf(lay.pos[tr.B]), blockOf(lay.pos[tr.C])
+				if ba == bb {
+					continue // a and b stay together inside their block
+				}
+				if aho == nil {
+					aho = &ahoMasks{}
+				}
+				pair := uint32(1)<<ba | uint32(1)<<bb
+				aho.pairs = append(aho.pairs, [2]uint32{pair, pair | uint32(1)<<bc})
+			}
+		}
+		dp.solve(aho)
+		full := uint32(1)<<k - 1
+		best := dp.best[full]
+		if !improves(best, current) {
+			continue
+		}
+		mv := frontierMove{gain: current - best, v: v, region: reg}
+		// Record the DP tree's splits in pre-order.
+		stack := []uint32{full}
+		for len(stack) > 0 {
+			m := stack[len(stack)-1]
+			stack = stack[:len(stack)-1]
+			if m&(m-1) == 0 {
+				continue
+			}
+			left := dp.split[m]
+			mv.masks = append(mv.masks, m)
+			mv.splits = append(mv.splits, left)
+			stack = append(stack, m&^left, left)
+		}
+		moves = append(moves, mv)
+	}
+	sort.Slice(moves, func(i, j int) bool {
+		if moves[i].gain != moves[j].gain {
+			return moves[i].gain > moves[j].gain
+		}
+		return moves[i].v < moves[j].v
+	})
+	changed := make([]bool, nodes)
+	applied, saved := 0, 0.0
+	for _, mv := range moves {
+		clash := false
+		for _, x := range mv.region.nodes {
+			clash = clash || changed[x]
+		}
+		for _, x := range mv.region.blocks {
+			clash = clash || changed[x]
+		}
+		if clash {
+			continue
+		}
+		// The DP tree's internal nodes take the region's node ids in
+		// pre-order, so v stays the root of its subtree.
+		id := map[uint32]int32{}
+		for i, m := range mv.masks {
+			id[m] = mv.region.nodes[i]
+		}
+		ref := func(m uint32) int32 {
+			if m&(m-1) == 0 {
+				return mv.region.blocks[bits.TrailingZeros32(m)]
+			}
+			return id[m]
+		}
+		for i, m := range mv.masks {
+			left := mv.splits[i]
+			t.Kids[id[m]] = []int32{ref(left), ref(m &^ left)}
+		}
+		for _, x := range mv.region.nodes {
+			changed[x] = true
+		}
+		applied++
+		saved += mv.gain
+	}
+	return applied, saved, cost
 }

@@ -62,7 +62,7 @@ func TestRotationMethodsExample(t *testing.T) {
 		}
 	}
 	// The optimum admits no improving rotation.
-	if k, _, _ := rotationPass(g, tr, nil); k != 0 {
+	if k, _, _ := rotationPass(g, tr, nil, nil); k != 0 {
 		t.Errorf("%d rotations applied to the optimum", k)
 	}
 }
@@ -139,7 +139,7 @@ func TestImproveKeepsConstraintsAndNeverWorsens(t *testing.T) {
 		tr := randomBinaryTree(r, n)
 		c := hiddenConstraints(r, tr, r.IntN(2*n), r.IntN(4))
 		before := Cost(g, tr)
-		improveRotations(g, tr, c, 1000, 0, func(string, int, int) {})
+		improveRotations(g, tr, c, nil, 1000, 0, func(string, int, int) {})
 		after := Cost(g, tr)
 		if after > before*(1+1e-12) {
 			t.Fatalf("trial %d: cost rose from %g to %g", trial, before, after)

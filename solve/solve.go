@@ -3,9 +3,8 @@ package solve
 import (
 	"errors"
 	"fmt"
+	"math"
 	"math/bits"
-	"math/rand/v2"
-	"sort"
 	"strings"
 
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -27,11 +26,17 @@ type Options struct {
 	// Seed fixes the spectral start vectors and every other pseudo-random
 	// choice.
 	Seed uint64
-	// Stability > 0 pulls the tree toward Prior (see stability in solve.go).
+	// Stability in (0, 1] holds the categories of Prior together while the
+	// similarity graph still backs them (softUnions in construct.go): a
+	// previous category stays one piece as long as its edge density is at
+	// least (1 − Stability) times that of the set it is cut from, and the
+	// fold keeps the nodes that reproduce previous categories. 0 = off.
 	Stability float64
 	// Prior lists the leaf sets of the previous outline's categories.
 	Prior [][]int32
-	// Progress, if set, is told how far each stage has come.
+	// Progress, if set, is told how far each stage has come. Stages, in
+	// order: "constraints", "construct" (done = items placed), "improve",
+	// "fold". It is called from one goroutine at a time.
 	Progress func(stage string, done, total int)
 }
 
@@ -91,26 +96,22 @@ func solveWith(g *graph.CSR, c *Constraints, opt Options, cp constructParams) (*
 		return nil, &ConflictError{Records: recs}
 	}
 	progress("constraints", 1, 1)
-	work := g
-	if opt.Stability > 0 && len(opt.Prior) > 0 {
-		var err error
-		work, err = stabilityGraph(g, opt.Prior, opt.Stability, opt.Seed)
-		if err != nil {
-			return nil, err
-		}
+	if opt.Stability > 0 {
+		cp.prior, cp.stability = opt.Prior, math.Min(opt.Stability, 1)
 	}
 	cp.seed, cp.progress = opt.Seed, progress
-	binary, err := construct(work, c, cp)
+	binary, err := construct(g, c, cp)
 	if err != nil {
 		return nil, err
 	}
-	improveRotations(work, binary, c, defaultImprovePasses, improveMinGain, progress)
-	tax := fold(work, binary, c, foldParams{
+	improveRotations(g, binary, c, priorForFold(opt), defaultImprovePasses, improveMinGain, progress)
+	tax := fold(g, binary, c, foldParams{
 		minSize:     opt.MinSize,
 		maxChildren: opt.MaxChildren,
 		maxDepth:    opt.MaxDepth,
 		ratio:       foldTightness,
 		prior:       priorForFold(opt),
+		stability:   opt.Stability,
 	}, progress)
 	return &Result{Binary: binary, Taxonomy: tax}, nil
 }
@@ -327,76 +328,4 @@ func priorForFold(opt Options) [][]int32 {
 		return opt.Prior
 	}
 	return nil
-}
-
-// Stability. With Stability > 0 the previous outline's categories pull the
-// new tree toward themselves: the members of each previous category are
-// joined by a sparse expander — a ring through them in a seeded random order
-// plus the chords halfway round it, about three extra edges per member — of
-// weight Stability × the graph's mean edge weight × stabilityScale each. An
-// expander makes every split of the category cost in proportion to its
-// smaller side, as a clique would, with O(|category|) edges instead of
-// O(|category|²). The random order depends only on the seed and the
-// category's members, not on where the category is listed.
-const stabilityScale = 1.0
-
-func stabilityGraph(g *graph.CSR, prior [][]int32, stability float64, seed uint64) (*graph.CSR, error) {
-	edges := g.Edges()
-	if len(edges) == 0 {
-		return g, nil
-	}
-	total := 0.0
-	for _, e := range edges {
-		total += e.W
-	}
-	beta := float64(stability*total/float64(len(edges))) * stabilityScale
-	type pair struct{ a, b int32 }
-	added := map[pair]bool{}
-	var extra []graph.Edge
-	link := func(a, b int32) {
-		if a == b {
-			return
-		}
-		if a > b {
-			a, b = b, a
-		}
-		if !added[pair{a, b}] {
-			added[pair{a, b}] = true
-			extra = append(extra, graph.Edge{A: a, B: b, W: beta})
-		}
-	}
-	for _, cat := range prior {
-		ms := make([]int32, 0, len(cat))
-		for _, l := range cat {
-			if l >= 0 && int(l) < g.N {
-				ms = append(ms, l)
-			}
-		}
-		ms = sortedUnique(ms)
-		if len(ms) < 2 {
-			continue
-		}
-		h := seed
-		for _, l := range ms {
-			h = h*0x100000001B3 ^ uint64(uint32(l))
-		}
-		rng := rand.New(rand.NewPCG(seed, h))
-		rng.Shuffle(len(ms), func(i, j int) { ms[i], ms[j] = ms[j], ms[i] })
-		s := len(ms)
-		for i := range ms {
-			link(ms[i], ms[(i+1)%s])
-			if s >= 4 {
-				link(ms[i], ms[(i+s/2)%s])
-			}
-		}
-	}
-	// Merge each bonus into its pair (FromEdges sums duplicates in a fixed
-	// order).
-	sort.Slice(extra, func(i, j int) bool {
-		if extra[i].A != extra[j].A {
-			return extra[i].A < extra[j].A
-		}
-		return extra[i].B < extra[j].B
-	})
-	return graph.FromEdges(g.N, append(edges, extra...))
 }

@@ -188,13 +188,15 @@ type spectralWork struct {
 	// coordinates are contiguous): column 0 is the deflated vector
 	// B^{1/2}1/‖·‖, columns 1.. the Lanczos vectors. Gram–Schmidt then
 	// streams it once per pass.
-	basis     []float64
-	stride    int
-	s         []float64 // B^{-1/2}
-	w, z, out []float64
-	h, qj, y  []float64
-	alpha     []float64
-	beta      []float64
+	basis    []float64
+	stride   int
+	s        []float64 // B^{-1/2}
+	w, out   []float64
+	h, qj, y []float64
+	diag     []float64 // A's diagonal
+	offA     []float64 // A's off-diagonal entries, in g's layout
+	alpha    []float64
+	beta     []float64
 }
 
 func grow(buf []float64, n int) []float64 {
@@ -287,19 +289,30 @@ func (sp *spectralWork) sparsestCut(g *graph.CSR, deg, b, mass []float64, ids []
 	}
 }
 
-// applyA sets out = A y with A = B^{-1/2} (D − W) B^{-1/2}.
-func (sp *spectralWork) applyA(g *graph.CSR, deg, y, out []float64) {
-	z := sp.z
-	for i := range z {
-		z[i] = float64(sp.s[i] * y[i])
+// prepareA stores A = B^{-1/2} (D − W) B^{-1/2} for applyA: its diagonal
+// and its off-diagonal entries in g's row layout.
+func (sp *spectralWork) prepareA(g *graph.CSR, deg []float64) {
+	sp.diag = grow(sp.diag, g.N)
+	sp.offA = grow(sp.offA, len(g.Targets))
+	for i := 0; i < g.N; i++ {
+		si := sp.s[i]
+		sp.diag[i] = float64(deg[i]*si) * si
+		for k := g.Offsets[i]; k < g.Offsets[i+1]; k++ {
+			sp.offA[k] = float64(g.Weights[k]*si) * sp.s[g.Targets[k]]
+		}
 	}
+}
+
+// applyA sets out = A y (prepareA must have run for g).
+func (sp *spectralWork) applyA(g *graph.CSR, y, out []float64) {
 	for i := 0; i < g.N; i++ {
 		lo, hi := g.Offsets[i], g.Offsets[i+1]
-		acc := float64(deg[i] * z[i])
-		for k := lo; k < hi; k++ {
-			acc -= float64(g.Weights[k] * z[g.Targets[k]])
+		acc := float64(sp.diag[i] * y[i])
+		ts, ws := g.Targets[lo:hi], sp.offA[lo:hi]
+		for k, t := range ts {
+			acc -= float64(ws[k] * y[t])
 		}
-		out[i] = float64(sp.s[i] * acc)
+		out[i] = acc
 	}
 }
 
@@ -425,11 +438,11 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 	sp.stride = maxSteps + 1
 	sp.basis = grow(sp.basis, n*sp.stride)
 	sp.w = grow(sp.w, n)
-	sp.z = grow(sp.z, n)
 	sp.qj = grow(sp.qj, n)
 	sp.y = grow(sp.y, n)
 	sp.alpha = sp.alpha[:0]
 	sp.beta = sp.beta[:0]
+	sp.prepareA(g, deg)
 	w, qj := sp.w, sp.qj
 
 	// Column 0: the known bottom eigenvector B^{1/2}1, normalised.
@@ -457,7 +470,7 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 	steps := 0
 	for j := 1; j <= maxSteps; j++ {
 		sp.column(j, qj)
-		sp.applyA(g, deg, qj, w)
+		sp.applyA(g, qj, w)
 		a := dot(qj, w)
 		sp.alpha = append(sp.alpha, a)
 		// The three-term recurrence first, then full reorthogonalisation

@@ -1,0 +1,100 @@
+// Command solvebench measures the solver on seeded planted hierarchies
+// (solve/planted) and prints a table: wall time, peak memory, Dasgupta
+// cost against average linkage on the same graph, and rooted triplet
+// agreement with the planted tree.
+//
+//	go run ./bench/solvebench                  # n = 1,000 and 10,000
+//	go run ./bench/solvebench -n 1000,10000,100000
+//
+// Each size runs in a child process of its own, so the peak resident
+// memory reported is that size's alone.
+package main
+
+import (
+	"flag"
+	"fmt"
+	"os"
+	"os/exec"
+	"strconv"
+	"strings"
+	"syscall"
+	"time"
+
+	"github.com/ramify-tax/ramify/diff"
+	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/planted"
+)
+
+func main() {
+	sizes := flag.String("n", "1000,10000", "comma-separated item counts")
+	one := flag.Int("one", 0, "measure one size and print its row (used by the parent)")
+	seed := flag.Uint64("seed", 1, "planted-hierarchy seed")
+	flag.Parse()
+	if *one > 0 {
+		row, err := measure(*one, *seed)
+		if err != nil {
+			fmt.Fprintln(os.Stderr, err)
+			os.Exit(1)
+		}
+		fmt.Println(row)
+		return
+	}
+	self, err := os.Executable()
+	if err != nil {
+		fmt.Fprintln(os.Stderr, err)
+		os.Exit(1)
+	}
+	fmt.Println("| n | edges | planted categories | solve s | average linkage s | peak RSS MiB | cost / average-linkage cost | triplet agreement with planted |")
+	fmt.Println("|---:|---:|---:|---:|---:|---:|---:|---:|")
+	for _, s := range strings.Split(*sizes, ",") {
+		n, err := strconv.Atoi(strings.TrimSpace(s))
+		if err != nil || n < 10 {
+			fmt.Fprintf(os.Stderr, "bad size %q\n", s)
+			os.Exit(2)
+		}
+		out, err := exec.Command(self, "-one", strconv.Itoa(n), "-seed", strconv.FormatUint(*seed, 10)).Output()
+		if err != nil {
+			fmt.Fprintf(os.Stderr, "n=%d: %v\n", n, err)
+			os.Exit(1)
+		}
+		fmt.Print(string(out))
+	}
+}
+
+func measure(n int, seed uint64) (string, error) {
+	inst := planted.Generate(seed, n, 4, levelsFor(n))
+	opt := solve.Options{MinSize: 3, MaxChildren: 12, MaxDepth: 6, Seed: 1}
+	start := time.Now()
+	res, err := solve.Solve(inst.Graph, nil, opt)
+	if err != nil {
+		return "", err
+	}
+	solveSec := time.Since(start).Seconds()
+	start = time.Now()
+	avg := solve.AverageLinkageGraph(inst.Graph)
+	avgSec := time.Since(start).Seconds()
+	ratio := solve.Cost(inst.Graph, res.Binary) / solve.Cost(inst.Graph, avg)
+	agreement := ""
+	if n <= 3000 {
+		agreement = fmt.Sprintf("%.4f (exact)", diff.TripletAgreement(res.Taxonomy, inst.Tree))
+	} else {
+		est, lo, hi := diff.TripletAgreementSampled(res.Taxonomy, inst.Tree, 200000, 1)
+		agreement = fmt.Sprintf("%.4f [%.4f, %.4f] (sampled)", est, lo, hi)
+	}
+	var ru syscall.Rusage
+	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
+	peakMiB := float64(ru.Maxrss) / 1024 // Linux reports kilobytes
+	categories := inst.Tree.NumNodes() - inst.Tree.N
+	return fmt.Sprintf("| %d | %d | %d | %.2f | %.2f | %.0f | %.4f | %s |",
+		n, inst.Graph.NumEdges(), categories, solveSec, avgSec, peakMiB, ratio, agreement), nil
+}
+
+// levelsFor picks a planted depth that gives bottom categories of a few
+// dozen items at branching 4.
+func levelsFor(n int) int {
+	d := 1
+	for size := n / 4; size > 40; size /= 4 {
+		d++
+	}
+	return d
+}

@@ -1,0 +1,91 @@
+package solve_test
+
+import (
+	"math/rand/v2"
+	"testing"
+
+	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/planted"
+)
+
+// topology returns, for leaves a < b < c of t, which pair is joined below
+// the third (0: ab|c, 1: ac|b, 2: bc|a) or 3 when t leaves them unresolved.
+type lcaDepth struct {
+	parent []int32
+	depth  []int
+}
+
+func newLCADepth(t *solve.Tree) *lcaDepth {
+	p := t.Parents()
+	d := make([]int, len(p))
+	post := t.PostOrder()
+	for i := len(post) - 1; i >= 0; i-- {
+		if v := post[i]; p[v] >= 0 {
+			d[v] = d[p[v]] + 1
+		}
+	}
+	return &lcaDepth{p, d}
+}
+
+func (l *lcaDepth) lcaDepth(a, b int32) int {
+	for l.depth[a] > l.depth[b] {
+		a = l.parent[a]
+	}
+	for l.depth[b] > l.depth[a] {
+		b = l.parent[b]
+	}
+	for a != b {
+		a, b = l.parent[a], l.parent[b]
+	}
+	return l.depth[a]
+}
+
+func (l *lcaDepth) topology(a, b, c int32) int {
+	ab, ac, bc := l.lcaDepth(a, b), l.lcaDepth(a, c), l.lcaDepth(b, c)
+	switch {
+	case ab > ac:
+		return 0
+	case ac > ab:
+		return 1
+	case bc > ab:
+		return 2
+	}
+	return 3
+}
+
+// tripletAgreement samples random triples and returns the share on which
+// both trees have the same topology (resolved the same way, or both
+// unresolved): the rooted triplet distance of Critchlow, Pearl & Qian
+// (1996), METHODS 7.2, estimated by sampling.
+func tripletAgreement(x, y *solve.Tree, samples int, seed uint64) float64 {
+	r := rand.New(rand.NewPCG(seed, 1))
+	lx, ly := newLCADepth(x), newLCADepth(y)
+	same := 0
+	for i := 0; i < samples; i++ {
+		p := r.Perm(x.N)[:3]
+		a, b, c := int32(p[0]), int32(p[1]), int32(p[2])
+		if lx.topology(a, b, c) == ly.topology(a, b, c) {
+			same++
+		}
+	}
+	return float64(same) / float64(samples)
+}
+
+func TestSolveRecoversPlantedHierarchy(t *testing.T) {
+	// DESIGN 9: a planted hierarchy recovered with triplet agreement
+	// ≥ 0.95. Planted instances (solve/planted) with the DESIGN 4 defaults
+	// (min_size 3, max_children 12, max_depth 6) and without limits; the
+	// agreement counts a triple as agreeing when both trees resolve it the
+	// same way or both leave it unresolved.
+	for _, cfg := range [][3]int{{2000, 4, 3}, {2000, 3, 4}, {3000, 6, 2}} {
+		in := planted.Generate(21, cfg[0], cfg[1], cfg[2])
+		for _, opt := range []solve.Options{{MinSize: 3, MaxChildren: 12, MaxDepth: 6}, {}} {
+			res := mustSolve(t, in.Graph, nil, opt)
+			agree := tripletAgreement(res.Taxonomy, in.Tree, 20000, 1)
+			t.Logf("n %d branching %d depth %d, limits %d/%d/%d: agreement %.4f", cfg[0], cfg[1], cfg[2], opt.MinSize, opt.MaxChildren, opt.MaxDepth, agree)
+			if agree < 0.95 {
+				t.Errorf("n %d branching %d depth %d: triplet agreement %.4f < 0.95", cfg[0], cfg[1], cfg[2], agree)
+			}
+		}
+	}
+}
