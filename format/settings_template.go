@@ -52,8 +52,8 @@ weight = 0.5
 file = "taxonomy.outline"
 # The smallest category worth naming, in items.
 min_size = 3
-# At most this many children (subcategories and items) directly under one
-# category.
+# At most this many subcategories directly under one category (the items
+# placed in a category are not counted).
 max_children = 12
 # At most this many levels of categories.
 max_depth = 6

@@ -54,6 +54,8 @@ type constructParams struct {
 	// strongly they hold together (see softUnions).
 	prior     [][]int32
 	stability float64
+	// noGuide turns off the average-linkage second opinion (guide.go).
+	noGuide bool
 }
 
 // construct builds the binary tree. c must be consistent.
@@ -70,6 +72,9 @@ func construct(g *graph.CSR, c *Constraints, p constructParams) (*Tree, error) {
 	}
 	b := &builder{g: g, n: n, params: p}
 	b.compile(c)
+	if !p.noGuide {
+		b.guide = newGuide(g)
+	}
 	if n == 1 {
 		return NewTree(1), nil
 	}
@@ -160,6 +165,7 @@ type builder struct {
 	g        *graph.CSR
 	n        int
 	params   constructParams
+	guide    *guide    // the average-linkage second opinion; nil when off
 	trips    []Triplet // non-trivial triplets (three distinct leaves)
 	clusters [][]int32 // deduplicated, ascending, at least two leaves
 	groups   [][]int32 // previous categories (soft), same form
@@ -312,6 +318,7 @@ func (b *builder) process(w *constructWorker, tk ctask) ([]ctask, int, error) {
 		w.splitBySuperDP(h)
 	default:
 		w.splitSpectral(h, b.params.seed)
+		b.tryGuide(w, h)
 	}
 	if w.sideU[0] != 0 {
 		for i := range w.sideU {

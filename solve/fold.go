@@ -208,7 +208,7 @@ func (f *folder) legal(u int32) bool {
 		return false
 	}
 	v := f.parent[u]
-	if f.p.maxChildren > 0 && len(f.kids[v])-1+len(f.kids[u]) > f.p.maxChildren {
+	if f.p.maxChildren > 0 && f.subcategories(v)-1+f.subcategories(u) > f.p.maxChildren {
 		return false
 	}
 	for _, ti := range f.tripsAt[u] {
@@ -217,6 +217,19 @@ func (f *folder) legal(u int32) bool {
 		}
 	}
 	return true
+}
+
+// subcategories counts the internal children of v. max_children bounds
+// these only: the items placed directly in a category are its contents, and
+// a shelf of forty tools is still one shelf.
+func (f *folder) subcategories(v int32) int {
+	n := 0
+	for _, k := range f.kids[v] {
+		if !f.t.IsLeaf(k) {
+			n++
+		}
+	}
+	return n
 }
 
 // contract folds u into its parent.

@@ -174,9 +174,15 @@ func TestFoldLimits(t *testing.T) {
 		sizes := out.Sizes()
 		parents := out.Parents()
 		for v := out.N; v < out.NumNodes(); v++ {
-			kids := len(out.Kids[v])
+			// max_children bounds subcategories; items are not counted.
+			kids := 0
+			for _, k := range out.Kids[v] {
+				if !out.IsLeaf(k) {
+					kids++
+				}
+			}
 			if p.maxChildren > 0 && kids > p.maxChildren {
-				t.Fatalf("%s: node with %d children", name, kids)
+				t.Fatalf("%s: node with %d subcategories", name, kids)
 			}
 			if int32(v) == out.Root || sizes[v] >= p.minSize {
 				continue

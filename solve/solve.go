@@ -15,8 +15,9 @@ type Options struct {
 	// MinSize: a category with fewer items is folded into its parent unless
 	// a constraint needs it or the fold would exceed MaxChildren.
 	MinSize int
-	// MaxChildren bounds the children of a category; folding never exceeds
-	// it (the binary tree it starts from has two children everywhere).
+	// MaxChildren bounds the subcategories of a category (items placed
+	// directly in it are not counted); folding never exceeds it (the binary
+	// tree it starts from has two children everywhere).
 	MaxChildren int
 	// MaxDepth bounds how many categories may nest on a path from the root
 	// (the root, which is the outline file itself, is not counted): an item
