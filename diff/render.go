@@ -1,6 +1,7 @@
 package diff
 
 import (
+	"bytes"
 	"encoding/json"
 	"fmt"
 	"io"
@@ -19,24 +20,29 @@ func (p Path) String() string {
 }
 
 // MarshalJSON writes a path as an array of names, [] for the root (never
-// null).
+// null). Names keep "&", "<" and ">" as they are: they are common in
+// category names, and the JSON is not meant for embedding in HTML.
 func (p Path) MarshalJSON() ([]byte, error) {
 	if p == nil {
 		return []byte("[]"), nil
 	}
-	return json.Marshal([]string(p))
+	var b bytes.Buffer
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode([]string(p)); err != nil {
+		return nil, err
+	}
+	return bytes.TrimSuffix(b.Bytes(), []byte("\n")), nil
 }
 
 // WriteJSON writes the report as indented JSON. The field order is fixed
 // by the struct and every list is sorted, so equal reports print equal
 // bytes.
 func (r *Report) WriteJSON(w io.Writer) error {
-	b, err := json.MarshalIndent(r, "", "  ")
-	if err != nil {
-		return err
-	}
-	_, err = w.Write(append(b, '\n'))
-	return err
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	return enc.Encode(r)
 }
 
 // Empty reports whether nothing changed: no item or category differs

@@ -117,13 +117,20 @@ Usage: ramify COMMAND [options]
 
 Commands:
 `)
+	// Helpers that git runs (their summary starts "for git:") are left
+	// out of the overview; their own --help still explains them.
 	names := make([]string, 0, len(commands))
-	for n := range commands {
+	width := 0
+	for n, c := range commands {
+		if strings.HasPrefix(c.summary, "for git:") {
+			continue
+		}
 		names = append(names, n)
+		width = max(width, len(n))
 	}
 	sort.Strings(names)
 	for _, n := range names {
-		fmt.Fprintf(w, "  %-15s %s\n", n, commands[n].summary)
+		fmt.Fprintf(w, "  %-*s  %s\n", width, n, commands[n].summary)
 	}
 	fmt.Fprint(w, `
 Every command takes --dir DIR (the repository, default "."), --json,
