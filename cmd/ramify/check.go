@@ -39,12 +39,25 @@ func runCheck(e *env, args []string) error {
 	if len(ds) > 0 {
 		return ds
 	}
+	if _, err := checkRepository(e, p); err != nil {
+		return err
+	}
+	root := p.Outline.Root
+	counts := countRecords(p.Constraints)
+	e.say("ok: %d items in %d categories (depth %d); %s, all holding", len(p.Items), root.CountCategories(), root.Depth(), describeRecords(counts))
+	return nil
+}
+
+// checkRepository runs every check of `ramify check` on a loaded project
+// and returns the regenerated solution (which equals the committed outline
+// when it passes). release runs it as its first gate.
+func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 	e.report["items"] = len(p.Items)
 	counts := countRecords(p.Constraints)
 	e.report["constraints"] = counts
 	rel := p.Settings.Taxonomy.File
 	if p.Outline == nil {
-		return failf("%s does not exist yet; run `ramify solve` to write it", rel)
+		return nil, failf("%s does not exist yet; run `ramify solve` to write it", rel)
 	}
 	if ms := p.OutlineMembership(); len(ms) > 0 {
 		lines := make([]string, 0, len(ms)+1)
@@ -53,31 +66,30 @@ func runCheck(e *env, args []string) error {
 		}
 		lines = append(lines, rel+" is out of date with the items; run `ramify solve`")
 		e.report["problems"] = problemsJSON(ms)
-		return &failure{lines: lines}
+		return nil, &failure{lines: lines}
 	}
 	if p.Outline.Edited() {
-		return failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints", rel)
+		return nil, failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints", rel)
 	}
 	root := p.Outline.Root
 	e.report["categories"] = root.CountCategories()
 	e.report["depth"] = root.Depth()
 	if err := checkConstraints(e, p); err != nil {
-		return err
+		return nil, err
 	}
 	sol, err := p.Regenerate(project.MethodConstrained, e.progressFunc())
 	e.endProgress()
 	if err != nil {
-		return solveError(e, err)
+		return nil, solveError(e, err)
 	}
 	if !bytes.Equal(sol.Text, p.OutlineText) {
 		rep := diff.Compare(root, sol.Root)
 		e.report["current"] = false
-		return failf("%s is not what `ramify solve` writes now (%s would move, %s would be renamed); run `ramify solve` and commit the result",
+		return nil, failf("%s is not what `ramify solve` writes now (%s would move, %s would be renamed); run `ramify solve` and commit the result",
 			rel, plural(len(rep.Moved), "item", "items"), plural(len(rep.Renamed), "category", "categories"))
 	}
 	e.report["current"] = true
-	e.say("ok: %d items in %d categories (depth %d); %s, all holding", len(p.Items), root.CountCategories(), root.Depth(), describeRecords(counts))
-	return nil
+	return sol, nil
 }
 
 // checkConstraints fails when the records contradict each other or the

@@ -17,8 +17,19 @@ func init() {
 to fill in), the constraints/ and reviews/ folders, and .gitattributes.
 An existing file is never overwritten: it is left as it is and reported.
 
+In a git repository it also runs "ramify git-setup", so that git diff
+and git merge of the outline go through ramify.
+
+--from FILE starts the repository from a taxonomy you already have: a CSV
+with id and path columns (optional label, tags, text; the path's category
+names joined by " > ", or by "/" when no path uses " > "), or an .outline
+file. It writes items.toml and taxonomy.outline with your category names,
+kept as the previous version: the first "ramify solve" stays close to it
+and keeps its names where the members stay together.
+
 Next steps: add your items to items.toml, then run "ramify solve".`,
-		run: runInit,
+		flags: importFlags,
+		run:   runInit,
 	})
 }
 
@@ -56,6 +67,9 @@ func runInit(e *env, args []string) error {
 		return usagef("init takes no arguments (got %q); use --dir to choose the folder", args[0])
 	}
 	dir := e.dir()
+	if from := importSource(e); from != "" {
+		return importTaxonomy(e, dir, from)
+	}
 	if err := os.MkdirAll(dir, 0o755); err != nil {
 		return err
 	}
@@ -89,6 +103,9 @@ func runInit(e *env, args []string) error {
 	}
 	for _, p := range kept {
 		e.say("kept  %s (already there)", p)
+	}
+	if err := gitSetupForInit(e, dir); err != nil {
+		return err
 	}
 	if len(wrote) > 0 {
 		e.say("next: add your items to items.toml, then run `ramify solve`")
