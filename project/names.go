@@ -30,9 +30,35 @@ func (p *Project) nameCategories(root, prev *format.Category) naming.Counts {
 		}
 		it := p.Items[i]
 		w := append([]string(nil), it.Tags...)
-		w = append(w, graph.Tokens(it.Label+" "+it.Text)...)
+		for _, tok := range graph.Tokens(it.Label + " " + it.Text) {
+			if !unnamingWords[tok] && !isNumberLike(tok) {
+				w = append(w, tok)
+			}
+		}
 		cache[id] = w
 		return w
 	}
 	return naming.Assign(root, prev, fixed, words)
+}
+
+// unnamingWords are words that describe an item well enough but never
+// name a category: units of measure and packaging ("30 cm", "set of
+// six"). A provisional name such as "~ set · mm" tells an editor nothing.
+var unnamingWords = map[string]bool{
+	"mm": true, "cm": true, "m": true, "km": true, "in": true, "inch": true, "ft": true,
+	"oz": true, "lb": true, "lbs": true, "kg": true, "g": true, "nm": true, "v": true,
+	"w": true, "l": true, "ml": true, "litre": true, "liter": true, "mah": true, "ah": true,
+	"set": true, "kit": true, "pair": true, "pack": true, "piece": true, "pieces": true,
+	"size": true, "sizes": true, "x": true,
+}
+
+// isNumberLike reports tokens made mostly of digits ("18v", "2t", "600").
+func isNumberLike(tok string) bool {
+	digits := 0
+	for _, r := range tok {
+		if r >= '0' && r <= '9' {
+			digits++
+		}
+	}
+	return digits > 0 && 2*digits >= len(tok)
 }
