@@ -32,7 +32,9 @@ func TestScripts(t *testing.T) {
 			return nil
 		},
 		Cmds: map[string]func(ts *testscript.TestScript, neg bool, args []string){
-			"copydemo": cmdCopyDemo,
+			"copydemo":  cmdCopyDemo,
+			"answerall": cmdAnswerAll,
+			"hand":      cmdHand,
 		},
 		UpdateScripts: os.Getenv("RAMIFY_UPDATE") == "1",
 	})

@@ -1,0 +1,248 @@
+package main
+
+import (
+	"os"
+	"path/filepath"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve"
+	"github.com/spf13/pflag"
+)
+
+func init() {
+	register(&command{
+		name:    "absorb",
+		summary: "record answered review packets and hand edits of the taxonomy as constraints",
+		help: `Reads every packet in reviews/open/ and the taxonomy outline, and records
+what reviewers and editors decided:
+
+  verdict: ok       the grouping shown was right; the packet moves to
+                    reviews/done/ with its verdict, reviewer and date
+  verdict: fixed    the packet's tree, as the reviewer rearranged it, becomes
+                    a shape constraint in constraints/review-PACKET.toml
+                    (with the reviewer, the date, the packet and the
+                    taxonomy it was drawn from); the packet moves to
+                    reviews/done/
+  verdict: pending  left alone
+
+reviews/done/ is the audit log: one file per answered packet, so two
+branches that absorb different packets merge without conflict.
+
+A hand edit of the outline (lines moved to other categories) is recorded
+as at most three triplet records per moved item, in
+constraints/edit-HASH.toml, so that the next "ramify solve" keeps each
+item where the editor put it; renamed categories keep their new names.
+To see what moved, absorb needs the tree ramify last wrote: it looks for
+it in git (HEAD, then earlier commits of the outline) by its "# structure"
+line. Outside git, or when git no longer has it, pass a copy of that tree
+with --base FILE. absorb then rewrites the outline with a fresh structure
+line; run "ramify solve" next.
+
+The reviewer is the packet's "reviewer:" line, else --by, else git's
+user.name. Any malformed packet, unknown item or contradiction with the
+recorded constraints is reported with its file and line, and then
+nothing is written.`,
+		flags: func(fs *pflag.FlagSet, o *options) {
+			o.extra["by"] = fs.String("by", "", "who made the decisions (default: each packet's reviewer, else git config user.name)")
+			o.extra["base"] = fs.String("base", "", "the outline ramify last wrote, for hand edits outside git (a file in the repository)")
+			addDateFlag(fs, o, "the date the decisions are recorded on")
+		},
+		run: runAbsorb,
+	})
+}
+
+// absorbWrite is one file absorb writes (or, with remove, deletes).
+type absorbWrite struct {
+	rel    string
+	data   []byte
+	remove bool
+}
+
+type absorbedJSON struct {
+	Packet     string `json:"packet"`
+	Reason     string `json:"reason"`
+	Verdict    string `json:"verdict"`
+	Reviewer   string `json:"reviewer"`
+	Done       string `json:"done"`
+	Constraint string `json:"constraint,omitempty"`
+}
+
+func runAbsorb(e *env, args []string) error {
+	if len(args) > 0 {
+		return usagef("absorb takes no arguments (got %q)", args[0])
+	}
+	date, err := reviewDate(e)
+	if err != nil {
+		return err
+	}
+	p, ds := project.Load(e.dir())
+	if len(ds) > 0 {
+		return ds
+	}
+	open, ds := readPackets(p.Dir, review.OpenDir)
+	if len(ds) > 0 {
+		return ds
+	}
+	names := &reviewerNames{dir: p.Dir, flag: *e.opt.extra["by"].(*string)}
+	plan, err := planAnswers(p, open, names, date)
+	if err != nil {
+		return err
+	}
+	writes, added, absorbed := plan.writes, plan.added, plan.absorbed
+	edit, err := absorbHandEdit(e, p, names, date)
+	if err != nil {
+		return err
+	}
+	if edit != nil {
+		if edit.file != nil {
+			added = append(added, edit.file)
+			writes = append(writes, absorbWrite{rel: edit.file.File, data: edit.text})
+		}
+		writes = append(writes, absorbWrite{rel: p.Settings.Taxonomy.File, data: edit.outline})
+	}
+	if err := checkAbsorbed(e, p, added); err != nil {
+		return err
+	}
+	if err := applyAbsorbWrites(p.Dir, writes); err != nil {
+		return err
+	}
+	reportAbsorb(e, p, absorbed, edit, plan.pending)
+	return nil
+}
+
+// parsedConstraintFile prints a new constraint file and reads it back, so
+// that the records checked are exactly those written.
+func parsedConstraintFile(rel string, cf *format.ConstraintFile) (*format.ConstraintFile, []byte, format.Diags) {
+	cf.File = rel
+	text := format.FormatConstraints(cf)
+	parsed, err := format.ParseConstraints(rel, text)
+	if err != nil {
+		return nil, nil, format.AsDiags(err, rel)
+	}
+	return parsed, text, nil
+}
+
+// checkAbsorbed fails when the new records contradict the recorded ones,
+// naming the smallest conflicting set.
+func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) error {
+	if len(added) == 0 {
+		return nil
+	}
+	p.Constraints = append(p.Constraints, added...)
+	compiled := p.Compile()
+	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
+		conflict := &project.ConflictError{}
+		for _, r := range recs {
+			conflict.Records = append(conflict.Records, compiled.Records[r])
+		}
+		return solveError(e, conflict)
+	}
+	return nil
+}
+
+// applyAbsorbWrites writes every new file, then removes the absorbed
+// packets from reviews/open. Every path is resolved inside the repository
+// first, so a bad path stops absorb before anything is written.
+func applyAbsorbWrites(dir string, writes []absorbWrite) error {
+	full := make([]string, len(writes))
+	for i, w := range writes {
+		f, err := project.Resolve(dir, w.rel)
+		if err != nil {
+			return err
+		}
+		full[i] = f
+	}
+	for i, w := range writes {
+		if w.remove {
+			continue
+		}
+		if err := os.MkdirAll(filepath.Dir(full[i]), 0o755); err != nil {
+			return err
+		}
+		if err := format.WriteFileAtomic(full[i], w.data, 0o644); err != nil {
+			return err
+		}
+	}
+	for i, w := range writes {
+		if w.remove {
+			if err := os.Remove(full[i]); err != nil {
+				return err
+			}
+		}
+	}
+	return nil
+}
+
+func reportAbsorb(e *env, p *project.Project, absorbed []absorbedJSON, edit *handEdit, pending int) {
+	e.report["absorbed"] = absorbed
+	e.report["pending"] = pending
+	for _, a := range absorbed {
+		switch {
+		case a.Constraint != "":
+			e.say("recorded %s (fixed by %s) as %s; moved it to %s", a.Packet, a.Reviewer, a.Constraint, a.Done)
+		default:
+			e.say("moved %s (%s by %s) to %s", a.Packet, a.Verdict, a.Reviewer, a.Done)
+		}
+	}
+	if edit != nil {
+		reportHandEdit(e, p, edit)
+	} else {
+		e.report["edit"] = nil
+	}
+	if pending > 0 {
+		e.say("%s still pending in %s", plural(pending, "packet", "packets"), review.OpenDir)
+	}
+	if len(absorbed) == 0 && edit == nil {
+		e.say("nothing to absorb: no answered packets and no hand edits")
+		return
+	}
+	recorded := edit != nil
+	for _, a := range absorbed {
+		recorded = recorded || a.Constraint != ""
+	}
+	if recorded {
+		e.say("next: run `ramify solve` to regenerate %s under the new records", p.Settings.Taxonomy.File)
+	}
+}
+
+// reviewerNames finds who made a decision when a file does not say: --by,
+// else git config user.name (asked once).
+type reviewerNames struct {
+	dir, flag string
+	asked     bool
+	git       string
+}
+
+func (r *reviewerNames) get() string {
+	if r.flag != "" {
+		return r.flag
+	}
+	if !r.asked {
+		r.asked = true
+		r.git = gitUserName(r.dir)
+	}
+	return r.git
+}
+
+func fileExists(path string) bool {
+	_, err := os.Lstat(path)
+	return err == nil
+}
+
+// lineStarting is the line of the first line starting with prefix, or 1.
+func lineStarting(data []byte, prefix string) int {
+	line := 1
+	start := 0
+	for i := 0; i <= len(data); i++ {
+		if i == len(data) || data[i] == '\n' {
+			if len(data[start:i]) >= len(prefix) && string(data[start:start+len(prefix)]) == prefix {
+				return line
+			}
+			line++
+			start = i + 1
+		}
+	}
+	return 1
+}

@@ -1,0 +1,246 @@
+package main
+
+import (
+	"crypto/sha256"
+	"encoding/hex"
+	"errors"
+	"fmt"
+	"io/fs"
+	"strings"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/review"
+)
+
+// absorbHistoryDepth bounds how many earlier commits of the outline absorb
+// searches for the tree ramify last wrote.
+const absorbHistoryDepth = 50
+
+// handEdit is a hand edit of the outline, ready to be recorded.
+type handEdit struct {
+	base    string // where the tree ramify wrote came from
+	moves   []review.Move
+	file    *format.ConstraintFile // nil when nothing needs pinning
+	text    []byte
+	outline []byte // the outline rewritten with a fresh structure line
+	from    string // structure hash ramify wrote
+	to      string // structure hash of the edited tree
+}
+
+// absorbHandEdit records a hand edit of the outline, or returns nil when
+// there is none.
+func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date string) (*handEdit, error) {
+	if p.Outline == nil || !p.Outline.Edited() {
+		if base := *e.opt.extra["base"].(*string); base != "" {
+			e.notice("--base %s is not needed: %s was not reshaped by hand", base, p.Settings.Taxonomy.File)
+		}
+		return nil, nil
+	}
+	if ms := p.OutlineMembership(); len(ms) > 0 {
+		return nil, ms
+	}
+	rel := p.Settings.Taxonomy.File
+	edited := p.Outline.Root
+	base, where, err := findBaseOutline(e, p)
+	if err != nil {
+		return nil, err
+	}
+	by := names.get()
+	if by == "" {
+		return nil, usagef("who made the hand edit of %s? pass --by NAME (or set git's user.name)", rel)
+	}
+	// Similarities pick the representatives the solver will find hardest
+	// to move (see review.PinMoves).
+	g, err := p.Graph(project.Seed)
+	if err != nil {
+		return nil, err
+	}
+	affinity := func(a, b string) float64 {
+		i, okA := p.Index[a]
+		j, okB := p.Index[b]
+		if !okA || !okB {
+			return 0
+		}
+		return g.Weight(i, j)
+	}
+	h := &handEdit{base: where, moves: review.PinMoves(base, edited, affinity), from: p.Outline.Structure, to: format.StructureHash(edited)}
+	cf := &format.ConstraintFile{}
+	for _, m := range h.moves {
+		note := fmt.Sprintf("moved by hand from %s to %s", pathOrTop(m.From), pathOrTop(m.To))
+		for _, t := range m.Pins {
+			t.Provenance = format.Provenance{By: by, Date: date, Note: note}
+			cf.Triplets = append(cf.Triplets, t)
+		}
+	}
+	if len(cf.Triplets) > 0 {
+		sum := sha256.Sum256([]byte("ramify edit\n" + h.from + "\n" + h.to))
+		frel := project.ConstraintsDir + "/edit-" + hex.EncodeToString(sum[:6]) + ".toml"
+		parsed, text, ds := parsedConstraintFile(frel, cf)
+		if len(ds) > 0 {
+			return nil, ds
+		}
+		// A conflict names the moved item's line in the outline, where the
+		// editor can change it.
+		lines := itemLines(edited)
+		for i := range parsed.Triplets {
+			t := &parsed.Triplets[i]
+			t.Pos = format.Pos{File: rel, Line: lines[movedItemOf(h.moves, i)], Col: 1}
+		}
+		h.file, h.text = parsed, text
+	}
+	h.outline = format.FormatOutline(edited.Clone())
+	return h, nil
+}
+
+// itemLines maps every item of a parsed outline to its line.
+func itemLines(root *format.Category) map[string]int {
+	out := map[string]int{}
+	root.Walk(func(c *format.Category, _ int) bool {
+		for i, id := range c.Items {
+			if i < len(c.ItemLines) {
+				out[id] = c.ItemLines[i]
+			}
+		}
+		return true
+	})
+	return out
+}
+
+// movedItemOf is the moved item the i-th pin (in order over the moves)
+// belongs to.
+func movedItemOf(moves []review.Move, i int) string {
+	for _, m := range moves {
+		if i < len(m.Pins) {
+			return m.Item
+		}
+		i -= len(m.Pins)
+	}
+	return ""
+}
+
+func pathOrTop(p string) string {
+	if p == "" {
+		return "the top level"
+	}
+	return p
+}
+
+// findBaseOutline finds the tree ramify last wrote: the one whose shape
+// has the structure hash in the edited outline's header. It comes from
+// --base, or from git.
+func findBaseOutline(e *env, p *project.Project) (*format.Category, string, error) {
+	rel := p.Settings.Taxonomy.File
+	want := p.Outline.Structure
+	if base := *e.opt.extra["base"].(*string); base != "" {
+		if msg := format.CheckRepoPath(base); msg != "" {
+			return nil, "", usagef("--base: %s", msg)
+		}
+		full, err := project.Resolve(p.Dir, base)
+		if err != nil {
+			return nil, "", usagef("--base: %v", err)
+		}
+		data, err := format.ReadFileLimited(full, base, format.MaxOutlineBytes)
+		if errors.Is(err, fs.ErrNotExist) {
+			return nil, "", usagef("--base %s: no such file in the repository", base)
+		}
+		if err != nil {
+			return nil, "", format.AsDiags(err, base)
+		}
+		o, err := format.ParseOutline(base, data)
+		if err != nil {
+			return nil, "", format.AsDiags(err, base)
+		}
+		if got := format.StructureHash(o.Root); got != want {
+			return nil, "", failf("--base %s has structure %s, but %s says ramify last wrote structure %s; pass the outline ramify wrote", base, got, rel, want)
+		}
+		return o.Root, base, nil
+	}
+	intro := fmt.Sprintf("%s was reshaped by hand; to record the edit, absorb compares it with the tree ramify last wrote (structure %s).", rel, want)
+	if _, err := gitTopLevel(p.Dir); err != nil {
+		reason := "this folder is not in a git repository"
+		if errors.Is(err, errNoGit) {
+			reason = "git is not installed"
+		}
+		return nil, "", &failure{lines: []string{intro,
+			reason + ", so that tree cannot be looked up.",
+			"Put a copy of the outline ramify wrote in the repository and run `ramify absorb --base FILE`."}}
+	}
+	for _, rev := range outlineRevisions(p.Dir, rel) {
+		data, err := readAtRevision(p.Dir, rev, rel, format.MaxOutlineBytes)
+		if err != nil {
+			continue
+		}
+		o, err := format.ParseOutline(rev+":"+rel, data)
+		if err != nil || format.StructureHash(o.Root) != want {
+			continue
+		}
+		where := rev
+		if len(where) > 12 {
+			where = where[:12]
+		}
+		return o.Root, "git " + where, nil
+	}
+	return nil, "", &failure{lines: []string{intro,
+		fmt.Sprintf("git has no version of %s with that structure (HEAD and the last %d commits that changed it were searched).", rel, absorbHistoryDepth),
+		"Put a copy of the outline ramify wrote in the repository and run `ramify absorb --base FILE`."}}
+}
+
+// outlineRevisions lists the revisions to search for the tree ramify
+// wrote: HEAD, then the commits that changed the outline, newest first.
+// Only object ids that git printed are returned.
+func outlineRevisions(dir, rel string) []string {
+	if msg := format.CheckRepoPath(rel); msg != "" {
+		return nil
+	}
+	revs := []string{"HEAD"}
+	out, err := runGit(dir, gitOutputLimit, "log", "--format=%H", fmt.Sprintf("--max-count=%d", absorbHistoryDepth), "HEAD", "--", "./"+rel)
+	if err != nil {
+		return revs
+	}
+	for _, line := range strings.Split(strings.TrimSpace(string(out)), "\n") {
+		if isObjectID(line) {
+			revs = append(revs, line)
+		}
+	}
+	return revs
+}
+
+// gitUserName is git's user.name for the repository at dir, or "".
+func gitUserName(dir string) string {
+	out, err := runGit(dir, gitOutputLimit, "config", "user.name")
+	if err != nil {
+		return ""
+	}
+	return strings.TrimSpace(string(out))
+}
+
+func reportHandEdit(e *env, p *project.Project, h *handEdit) {
+	rel := p.Settings.Taxonomy.File
+	type moveJSON struct {
+		Item string `json:"item"`
+		From string `json:"from"`
+		To   string `json:"to"`
+		Pins int    `json:"pins"`
+	}
+	moves := []moveJSON{}
+	for _, m := range h.moves {
+		moves = append(moves, moveJSON{m.Item, m.From, m.To, len(m.Pins)})
+	}
+	file := ""
+	if h.file != nil {
+		file = h.file.File
+	}
+	e.report["edit"] = map[string]any{"base": h.base, "from": h.from, "to": h.to, "moved": moves, "constraints": file}
+	e.say("%s was edited by hand (compared with %s): %s moved", rel, h.base, plural(len(h.moves), "item", "items"))
+	for _, m := range moves {
+		e.say("  %s: %s -> %s (%s)", m.Item, pathOrTop(m.From), pathOrTop(m.To), plural(m.Pins, "record", "records"))
+		if m.Pins == 0 {
+			e.notice("no triplet can pin %s where it was put; the next solve may move it", m.Item)
+		}
+	}
+	if file != "" {
+		e.say("recorded the moves in %s", file)
+	}
+	e.say("rewrote %s with the edit and a fresh structure line", rel)
+}

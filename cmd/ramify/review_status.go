@@ -1,0 +1,197 @@
+package main
+
+import (
+	"sort"
+	"strings"
+
+	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/review"
+	"github.com/spf13/pflag"
+)
+
+// defaultStatusTop is how many of the least supported categories status
+// lists.
+const defaultStatusTop = 5
+
+func init() {
+	register(&command{
+		name:    "review status",
+		summary: "open packets, audits, the reject rate with its 95% interval, weak categories",
+		help: `Lists the packets in reviews/open/ and what the answered packets in
+reviews/done/ (the audit log) say about the current taxonomy:
+
+  audits     audit packets drawn from the current version of the taxonomy
+             (its structure hash) and answered: how many, how many were
+             rejected (verdict fixed), and the reject rate with its exact
+             two-sided 95% Clopper-Pearson interval. Audits of earlier
+             versions are counted apart and not used: they judged another
+             tree. Uncertain packets are never used either: they were drawn
+             where the tree is weakest, so they would overstate the rate.
+  support    the least supported categories: the share of the committee's
+             trees (see "ramify review draw") that group the category's
+             items together at some level of their hierarchy, before it
+             is folded into categories. A group counts when it and the
+             category share at least 90% of their items (Jaccard overlap
+             |A∩B|/|A∪B| >= 0.9), so a category of fewer than ten items
+             must be matched exactly. Low support means the data and the
+             records do not fix that category firmly: a good place for a
+             reviewer to look. It is not the probability that the
+             category is right.`,
+		flags: func(fs *pflag.FlagSet, o *options) {
+			o.extra["top"] = fs.Int("top", defaultStatusTop, "how many of the least supported categories to list (0: none, and no committee is solved)")
+		},
+		run: runReviewStatus,
+	})
+}
+
+type openJSON struct {
+	File    string `json:"file"`
+	Reason  string `json:"reason"`
+	From    string `json:"from"`
+	Drawn   string `json:"drawn"`
+	Size    int    `json:"size"`
+	Verdict string `json:"verdict"`
+	// Current is true when the packet was drawn from the current taxonomy.
+	Current bool `json:"current"`
+}
+
+type supportJSON struct {
+	Category []string `json:"category"`
+	Items    int      `json:"items"`
+	Support  float64  `json:"support"`
+}
+
+func runReviewStatus(e *env, args []string) error {
+	if len(args) > 0 {
+		return usagef("review status takes no arguments (got %q)", args[0])
+	}
+	top := *e.opt.extra["top"].(*int)
+	if top < 0 {
+		return usagef("--top must be 0 or more, not %d", top)
+	}
+	p, ds := project.Load(e.dir())
+	if len(ds) > 0 {
+		return ds
+	}
+	open, ds := readPackets(p.Dir, review.OpenDir)
+	done, dds := readPackets(p.Dir, review.DoneDir)
+	if ds = append(ds, dds...); len(ds) > 0 {
+		return ds
+	}
+	structure := ""
+	if p.Outline != nil {
+		structure = format.StructureHash(p.Outline.Root)
+	}
+	e.report["structure"] = structure
+	reportOpen(e, open, structure)
+	reportAudits(e, done, structure)
+	if top == 0 {
+		return nil
+	}
+	if _, err := currentTaxonomy(p, "ask for support"); err != nil {
+		e.notice("support: %v", err)
+		e.report["least_supported"] = []supportJSON{}
+		return nil
+	}
+	return reportSupport(e, p, structure, top)
+}
+
+func reportOpen(e *env, open []*review.Answer, structure string) {
+	list := []openJSON{}
+	pending := 0
+	for _, a := range open {
+		pk := a.Packet
+		list = append(list, openJSON{a.File, pk.Reason, pk.From, pk.Drawn, pk.Size, pk.Verdict, pk.From == structure})
+		if pk.Verdict == format.VerdictPending {
+			pending++
+		}
+	}
+	e.report["open"] = list
+	e.say("open packets: %d (%d waiting for a verdict, %d answered and not yet absorbed)", len(open), pending, len(open)-pending)
+	for _, o := range list {
+		note := ""
+		if !o.Current {
+			note = "  (drawn from an earlier version)"
+		}
+		e.say("  %s  %-9s %-7s %s%s", o.File, o.Reason, o.Verdict, o.Drawn, note)
+	}
+}
+
+func reportAudits(e *env, done []*review.Answer, structure string) {
+	packets := make([]*format.Packet, len(done))
+	for i, a := range done {
+		packets[i] = a.Packet
+	}
+	if structure == "" {
+		e.say("audits: there is no taxonomy yet; run `ramify solve`")
+		e.report["audits"] = nil
+		return
+	}
+	s := review.SummarizeAudits(packets, structure)
+	e.report["audits"] = map[string]any{
+		"structure":     s.Structure,
+		"answered":      s.Audits,
+		"rejected":      s.Rejected,
+		"accepted":      s.Audits - s.Rejected,
+		"reject_rate":   roundSig(s.Rate, 6),
+		"interval":      []float64{roundSig(s.Lo, 6), roundSig(s.Hi, 6)},
+		"level":         review.AuditLevel,
+		"older":         s.Older,
+		"uncertain":     s.Uncertain,
+		"uncertain_fix": s.UncertainFixed,
+	}
+	if s.Audits == 0 {
+		e.say("audits on this version (%s): none answered yet; draw some with `ramify review draw`", structure)
+	} else {
+		e.say("audits on this version (%s): %d answered, %d rejected", structure, s.Audits, s.Rejected)
+		e.say("  reject rate  %.1f%%, 95%% interval %.1f%% to %.1f%% (exact, Clopper-Pearson)", 100*s.Rate, 100*s.Lo, 100*s.Hi)
+	}
+	if s.Older > 0 {
+		e.say("  %s of earlier versions not counted", plural(s.Older, "audit", "audits"))
+	}
+	if s.Uncertain > 0 {
+		e.say("uncertain packets answered: %d (%d fixed); never part of the estimate", s.Uncertain, s.UncertainFixed)
+	}
+}
+
+func reportSupport(e *env, p *project.Project, structure string, top int) error {
+	committee, err := reviewCommittee(e, p, structure)
+	if err != nil {
+		return err
+	}
+	tree, nodes := review.CategoryTree(p.Outline.Root, p.Index, len(p.Items))
+	assessment := committee.Assess(tree)
+	type row struct {
+		path    []string
+		items   int
+		support float64
+	}
+	var rows []row
+	var walk func(c *format.Category, path []string)
+	walk = func(c *format.Category, path []string) {
+		for _, ch := range c.Children {
+			sub := append(append([]string(nil), path...), ch.DisplayName())
+			if v, ok := nodes[ch]; ok && !tree.IsLeaf(v) {
+				rows = append(rows, row{sub, ch.Size(), assessment.Support[v]})
+			}
+			walk(ch, sub)
+		}
+	}
+	walk(p.Outline.Root, nil)
+	sort.SliceStable(rows, func(i, j int) bool {
+		if rows[i].support != rows[j].support {
+			return rows[i].support < rows[j].support
+		}
+		return strings.Join(rows[i].path, "\x00") < strings.Join(rows[j].path, "\x00")
+	})
+	rows = rows[:min(top, len(rows))]
+	list := []supportJSON{}
+	e.say("least supported categories (share of %d committee trees holding each):", p.Settings.Review.Committee)
+	for _, r := range rows {
+		list = append(list, supportJSON{r.path, r.items, roundSig(r.support, 4)})
+		e.say("  %4.0f%%  %s  (%s)", 100*r.support, strings.Join(r.path, " / "), plural(r.items, "item", "items"))
+	}
+	e.report["least_supported"] = list
+	return nil
+}
