@@ -11,7 +11,13 @@ import (
 // backspace and form feed for readability, and any other control
 // character takes a \uXXXX escape (UCHAR). Everything else, non-ASCII
 // included, is written as its UTF-8 bytes.
-func turtleString(s string) string {
+func turtleString(s string) string { return QuotedString(s) }
+
+// QuotedString writes s between double quotes with the escapes that
+// Turtle's STRING_LITERAL_QUOTE and TOML's basic strings share (quote,
+// backslash, \n \r \t \b \f, \uXXXX for other control characters), so
+// the result is a valid literal in both.
+func QuotedString(s string) string {
 	var b strings.Builder
 	b.Grow(len(s) + 2)
 	b.WriteByte('"')

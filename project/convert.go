@@ -45,7 +45,16 @@ func ToCategory(t *solve.Tree, ids []string) *format.Category {
 // categories left empty are dropped. It is how an outline becomes
 // comparable with a solved tree.
 func FromCategory(root *format.Category, index map[string]int, n int) *solve.Tree {
+	t, _ := CategoryNodes(root, index, n)
+	return t
+}
+
+// CategoryNodes is FromCategory that also says which node each category
+// became. A category left with a single child has no node of its own and
+// maps to its child's node; a category without known items is not mapped.
+func CategoryNodes(root *format.Category, index map[string]int, n int) (*solve.Tree, map[*format.Category]int32) {
 	t := solve.NewTree(n)
+	nodes := map[*format.Category]int32{}
 	var build func(c *format.Category) (int32, bool)
 	build = func(c *format.Category) (int32, bool) {
 		var kids []int32
@@ -59,18 +68,22 @@ func FromCategory(root *format.Category, index map[string]int, n int) *solve.Tre
 				kids = append(kids, int32(i))
 			}
 		}
+		var id int32
 		switch len(kids) {
 		case 0:
 			return 0, false
 		case 1:
-			return kids[0], true
+			id = kids[0]
+		default:
+			id = t.Add(kids...)
 		}
-		return t.Add(kids...), true
+		nodes[c] = id
+		return id, true
 	}
 	if r, ok := build(root); ok {
 		t.Root = r
 	}
-	return t
+	return t, nodes
 }
 
 // PriorClusters lists the leaf sets (item indices, sorted) of every

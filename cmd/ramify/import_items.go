@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"strings"
 
+	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
 )
 
@@ -38,33 +39,4 @@ func formatImportedItems(source string, items []format.Item) []byte {
 // escaped, the control characters TOML forbids in a basic string as
 // their short escapes or \uXXXX, everything else as it is (TOML 1.0,
 // "Basic strings").
-func importTOMLString(s string) string {
-	var b strings.Builder
-	b.WriteByte('"')
-	for _, r := range s {
-		switch r {
-		case '"':
-			b.WriteString(`\"`)
-		case '\\':
-			b.WriteString(`\\`)
-		case '\n':
-			b.WriteString(`\n`)
-		case '\t':
-			b.WriteString(`\t`)
-		case '\r':
-			b.WriteString(`\r`)
-		case '\b':
-			b.WriteString(`\b`)
-		case '\f':
-			b.WriteString(`\f`)
-		default:
-			if r < 0x20 || r == 0x7f {
-				fmt.Fprintf(&b, `\u%04X`, r)
-			} else {
-				b.WriteRune(r)
-			}
-		}
-	}
-	b.WriteByte('"')
-	return b.String()
-}
+func importTOMLString(s string) string { return export.QuotedString(s) }

@@ -85,17 +85,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 }
 
 func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
-	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
-	fs.SetOutput(io.Discard)
-	fs.SortFlags = false
-	o := &options{extra: map[string]any{}}
-	fs.StringVar(&o.dir, "dir", ".", "the taxonomy repository")
-	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
-	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
-	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
-	if c.flags != nil {
-		c.flags(fs, o)
-	}
+	fs, o := commandFlags(c)
 	if err := fs.Parse(args); err != nil {
 		fmt.Fprintf(stderr, "ramify %s: %v\n", c.name, err)
 		fmt.Fprintf(stderr, "run `ramify %s --help` for its options\n", c.name)
@@ -108,6 +98,23 @@ func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
 	e := newEnv(o, fs, stdout, stderr)
 	err := c.run(e, fs.Args())
 	return e.finish(c, err)
+}
+
+// commandFlags builds a command's flag set: the options every command
+// takes, then its own.
+func commandFlags(c *command) (*pflag.FlagSet, *options) {
+	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
+	fs.SetOutput(io.Discard)
+	fs.SortFlags = false
+	o := &options{extra: map[string]any{}}
+	fs.StringVar(&o.dir, "dir", ".", "the taxonomy repository")
+	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
+	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
+	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
+	if c.flags != nil {
+		c.flags(fs, o)
+	}
+	return fs, o
 }
 
 func printOverview(w io.Writer) {
@@ -142,16 +149,7 @@ Run "ramify help COMMAND" for a command's details.
 }
 
 func printCommandHelp(w io.Writer, c *command) {
-	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
-	fs.SortFlags = false
-	o := &options{extra: map[string]any{}}
-	fs.StringVar(&o.dir, "dir", ".", "the taxonomy repository")
-	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
-	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
-	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
-	if c.flags != nil {
-		c.flags(fs, o)
-	}
+	fs, _ := commandFlags(c)
 	fmt.Fprintf(w, "Usage: ramify %s [options]%s\n\n%s\n", c.name, prefixSpace(c.usage), c.summary)
 	if c.help != "" {
 		fmt.Fprintf(w, "\n%s\n", strings.TrimSpace(c.help))
