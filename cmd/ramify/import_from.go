@@ -83,7 +83,20 @@ func importTaxonomy(e *env, dir, from string) error {
 	for _, p := range kept {
 		e.say("kept  %s (already there)", p)
 	}
-	e.say("next: add tags and texts to items.toml, then run `ramify solve`; it keeps the imported names where a category keeps its members")
+	described := 0
+	for _, it := range items {
+		if len(it.Tags) > 0 || it.Text != "" {
+			described++
+		}
+	}
+	if described < len(items) {
+		// Similarity comes from tags and words: items without them give the
+		// first solve little to go on beyond their labels.
+		e.say("next: %s no tags or text yet; add them to items.toml, then run `ramify solve` (it keeps the imported names where a category keeps its members)",
+			plural(len(items)-described, "item has", "items have"))
+	} else {
+		e.say("next: run `ramify solve`; it keeps the imported names where a category keeps its members")
+	}
 	e.report["imported"] = map[string]any{"from": source, "items": len(items), "categories": root.CountCategories()}
 	e.report["wrote"] = nonNil(wrote)
 	e.report["kept"] = nonNil(kept)
