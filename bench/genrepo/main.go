@@ -2,8 +2,8 @@
 // similarity source is an edge list (links.tsv) drawn from a seeded planted
 // hierarchy (solve/planted), for timing `ramify solve` end to end:
 //
-//	go run ./bench/genrepo -n 100000 -out /tmp/big
-//	/usr/bin/time -v ramify solve --dir /tmp/big
+//	go run ./bench/genrepo -n 100000 -out big-repo
+//	ramify solve --dir big-repo
 package main
 
 import (
