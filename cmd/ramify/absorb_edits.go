@@ -11,6 +11,7 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve"
 )
 
 // absorbHistoryDepth bounds how many earlier commits of the outline absorb
@@ -26,6 +27,8 @@ type handEdit struct {
 	outline []byte // the outline rewritten with a fresh structure line
 	from    string // structure hash ramify wrote
 	to      string // structure hash of the edited tree
+	// overridden lists earlier records the edited outline breaks.
+	overridden []project.Record
 }
 
 // absorbHandEdit records a hand edit of the outline, or returns nil when
@@ -90,7 +93,22 @@ func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date strin
 		h.file, h.text = parsed, text
 	}
 	h.outline = format.FormatOutline(edited.Clone())
+	h.overridden = brokenByEdit(p, edited)
 	return h, nil
+}
+
+// brokenByEdit lists the recorded decisions the edited outline itself
+// breaks. They stay in force: the next solve honours both them and the new
+// pins, which can reshape the tree around the edit, so the editor is told
+// which earlier record to remove if the edit replaces it.
+func brokenByEdit(p *project.Project, edited *format.Category) []project.Record {
+	compiled := p.Compile()
+	tree := project.FromCategory(edited, p.Index, len(p.Items))
+	var out []project.Record
+	for _, i := range solve.Satisfies(tree, compiled.Constraints) {
+		out = append(out, compiled.Records[i])
+	}
+	return out
 }
 
 // itemLines maps every item of a parsed outline to its line.
@@ -241,6 +259,18 @@ func reportHandEdit(e *env, p *project.Project, h *handEdit) {
 	}
 	if file != "" {
 		e.say("recorded the moves in %s", file)
+	}
+	if len(h.overridden) > 0 {
+		e.notice("note: the edit goes against %s still in force:", plural(len(h.overridden), "earlier record", "earlier records"))
+		for _, r := range h.overridden {
+			e.notice("  %s", describeRecord(r))
+		}
+		e.notice("the next solve honours both, which can reshape the tree around the edit; remove a record above if the edit replaces it")
+		var recs []map[string]any
+		for _, r := range h.overridden {
+			recs = append(recs, map[string]any{"kind": r.Kind, "file": r.Pos.File, "line": r.Pos.Line, "by": r.By, "note": r.Note})
+		}
+		e.report["edit_against"] = recs
 	}
 	e.say("rewrote %s with the edit and a fresh structure line", rel)
 }
