@@ -258,23 +258,6 @@ func (sp *spectralWork) toX(y []float64) []float64 {
 	return x
 }
 
-// cutSteps is the Krylov dimension for a set of n super-nodes: cutMaxSteps,
-// and cutMaxStepsLarge above cutLargeSet. Full reorthogonalisation costs
-// n·steps², and on the few huge sets at the top of a million-item tree the
-// construction also scores the average-linkage split (guide.go), so a
-// shorter vector there costs little quality and much time.
-func cutSteps(n int) int {
-	if n > cutLargeSet {
-		return cutMaxStepsLarge
-	}
-	return cutMaxSteps
-}
-
-const (
-	cutLargeSet      = 150_000
-	cutMaxStepsLarge = 24
-)
-
 // sparsestCut is what the construction asks of the spectral step: the
 // sweep cut of the Fiedler vector of g under measure b, scored by ψ with
 // masses mass (ties by ids). Lanczos does not run to convergence: it stops
@@ -290,7 +273,7 @@ func (sp *spectralWork) sparsestCut(g *graph.CSR, deg, b, mass []float64, ids []
 		_, y = sp.denseFiedler(g, deg)
 	} else {
 		lastTheta := math.Inf(1)
-		sp.lanczos(g, deg, b, ids, seed, min(cutSteps(n), n-1), func(theta float64, _ []float64, residual float64) bool {
+		sp.lanczos(g, deg, b, ids, seed, min(cutMaxSteps, n-1), func(theta float64, _ []float64, residual float64) bool {
 			stop := lastTheta-theta <= cutStallTol*math.Abs(theta) || residual <= 1e-11
 			lastTheta = theta
 			return stop
