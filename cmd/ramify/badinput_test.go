@@ -23,7 +23,15 @@ var demoDir = filepath.Join("..", "..", "examples", "tool-library")
 
 func copyTree(t testing.TB, src, dst string) {
 	t.Helper()
-	err := filepath.WalkDir(src, func(path string, d fs.DirEntry, err error) error {
+	if err := copyDir(src, dst); err != nil {
+		t.Fatal(err)
+	}
+}
+
+// copyDir copies the folder src to dst, files and subfolders; every test
+// and script that starts from the demo goes through it.
+func copyDir(src, dst string) error {
+	return filepath.WalkDir(src, func(path string, d fs.DirEntry, err error) error {
 		if err != nil {
 			return err
 		}
@@ -38,9 +46,6 @@ func copyTree(t testing.TB, src, dst string) {
 		}
 		return os.WriteFile(target, data, 0o644)
 	})
-	if err != nil {
-		t.Fatal(err)
-	}
 }
 
 // snapshot records every file's bytes so a test can prove nothing changed.

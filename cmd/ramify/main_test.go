@@ -46,22 +46,5 @@ func cmdCopyDemo(ts *testscript.TestScript, neg bool, args []string) {
 	if neg || len(args) != 1 {
 		ts.Fatalf("usage: copydemo DEST")
 	}
-	src := ts.Getenv("DEMO_SRC")
-	dst := ts.MkAbs(args[0])
-	err := filepath.Walk(src, func(path string, info os.FileInfo, err error) error {
-		if err != nil {
-			return err
-		}
-		rel, _ := filepath.Rel(src, path)
-		target := filepath.Join(dst, rel)
-		if info.IsDir() {
-			return os.MkdirAll(target, 0o755)
-		}
-		data, err := os.ReadFile(path)
-		if err != nil {
-			return err
-		}
-		return os.WriteFile(target, data, 0o644)
-	})
-	ts.Check(err)
+	ts.Check(copyDir(ts.Getenv("DEMO_SRC"), ts.MkAbs(args[0])))
 }

@@ -170,25 +170,4 @@ func sameShape(a, b *format.Category) bool {
 }
 
 // copyDemoInto copies the demo repository into dir.
-func copyDemoInto(t *testing.T, dst string) {
-	t.Helper()
-	src := filepath.Join("..", "..", "examples", "tool-library")
-	err := filepath.Walk(src, func(path string, info os.FileInfo, err error) error {
-		if err != nil {
-			return err
-		}
-		rel, _ := filepath.Rel(src, path)
-		target := filepath.Join(dst, rel)
-		if info.IsDir() {
-			return os.MkdirAll(target, 0o755)
-		}
-		data, err := os.ReadFile(path)
-		if err != nil {
-			return err
-		}
-		return os.WriteFile(target, data, 0o644)
-	})
-	if err != nil {
-		t.Fatal(err)
-	}
-}
+func copyDemoInto(t *testing.T, dst string) { copyTree(t, demoDir, dst) }
