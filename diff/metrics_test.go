@@ -214,3 +214,44 @@ func TestMetricsPanicOnMismatchedTrees(t *testing.T) {
 		}()
 	}
 }
+
+// TripletScores against the definition in the dev sets' scoring rule (a
+// tree resolves {a,b,c} as the pair whose lca is strictly deepest), counted
+// over all C(n,3) triples on 200 random pairs of multiway trees.
+func TestTripletScoresMatchBruteForce(t *testing.T) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	for trial := range 200 {
+		n := 3 + rng.IntN(38)
+		a := randomTree(rng, n, rng.Float64()*0.8, 0.1)
+		b := randomTree(rng, n, rng.Float64()*0.8, 0.1)
+		na, nb := newNaive(a), newNaive(b)
+		var same, resA, resB int
+		for p := int32(0); p < int32(n); p++ {
+			for q := p + 1; q < int32(n); q++ {
+				for r := q + 1; r < int32(n); r++ {
+					ta, tb := na.topology(p, q, r), nb.topology(p, q, r)
+					if ta != 0 {
+						resA++
+					}
+					if tb != 0 {
+						resB++
+					}
+					if ta != 0 && ta == tb {
+						same++
+					}
+				}
+			}
+		}
+		wantP, wantR := 1.0, 1.0
+		if resA > 0 {
+			wantP = float64(same) / float64(resA)
+		}
+		if resB > 0 {
+			wantR = float64(same) / float64(resB)
+		}
+		gotP, gotR := TripletScores(a, b)
+		if math.Abs(gotP-wantP) > 1e-12 || math.Abs(gotR-wantR) > 1e-12 {
+			t.Fatalf("trial %d (n=%d): TripletScores = %v, %v; brute force %v, %v", trial, n, gotP, gotR, wantP, wantR)
+		}
+	}
+}
