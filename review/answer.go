@@ -61,7 +61,7 @@ func CheckAnswer(a *Answer, known func(id string) bool, shown *format.Category) 
 	if shown == nil {
 		return nil
 	}
-	same := sameTriplets(shown, p.Tree)
+	same := SameShape(shown, p.Tree)
 	verdictAt := format.Pos{File: a.File, Line: lineOf(a.Data, "verdict:"), Col: 1}
 	switch {
 	case p.Verdict == format.VerdictOK && !same:
@@ -72,9 +72,9 @@ func CheckAnswer(a *Answer, known func(id string) bool, shown *format.Category) 
 	return ds
 }
 
-// sameTriplets reports whether two trees over the same items resolve the
+// SameShape reports whether two trees over the same items resolve the
 // same triplets the same way.
-func sameTriplets(a, b *format.Category) bool {
+func SameShape(a, b *format.Category) bool {
 	key := func(c *format.Category) []string {
 		var out []string
 		for _, t := range project.ShapeTriplets(c) {

@@ -169,3 +169,10 @@ func (c *Committee) Support(items []int32) float64 {
 	}
 	return float64(held) / float64(len(c.binary))
 }
+
+// ItemUncertainty is the committee's per-item uncertainty about tree t:
+// how far the committee would move each item (Assessment.Unsettled).
+// Review packets start from the items that score highest.
+func ItemUncertainty(c *Committee, t *solve.Tree) []float64 {
+	return c.Assess(t).Unsettled
+}

@@ -132,27 +132,12 @@ func currentTaxonomy(p *project.Project, what string) (string, error) {
 // comes from the structure hash, so the same taxonomy always gets the same
 // committee.
 func reviewCommittee(e *env, p *project.Project, structure string) (*review.Committee, error) {
-	progress := e.progressFunc()
-	if progress != nil {
-		progress("similarity graph", 0, 1)
-	}
-	g, err := p.Graph(project.Seed)
-	if err != nil {
-		return nil, err
-	}
-	compiled := p.Compile()
-	opt := p.CommitteeOptions()
-	opt.Progress = nil
-	if progress != nil {
-		progress("committee of trees", 0, 1)
-	}
-	size := p.Settings.Review.Committee
-	if size < 2 {
-		size = review.DefaultCommitteeSize
-	}
-	c, err := review.BuildCommittee(g, compiled.Constraints, opt, size, review.Seed(structure))
+	c, compiled, err := review.ProjectCommittee(p, structure, e.progressFunc())
 	e.endProgress()
 	if err != nil {
+		if compiled == nil {
+			return nil, err
+		}
 		return nil, solveError(e, convertConflict(compiled, err))
 	}
 	return c, nil

@@ -9,6 +9,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/ramify-tax/ramify/bench/reviewloop/loop"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
@@ -128,46 +129,13 @@ func hiddenTarget(t *testing.T, dir string) *format.Category {
 // arrangement.
 func answerFromHiddenTarget(t *testing.T, dir string, target *format.Category) {
 	t.Helper()
-	files, err := filepath.Glob(filepath.Join(dir, "reviews", "open", "*.outline"))
-	if err != nil {
+	if _, _, err := loop.AnswerOpen(dir, target); err != nil {
 		t.Fatal(err)
-	}
-	for _, f := range files {
-		data, err := os.ReadFile(f)
-		if err != nil {
-			t.Fatal(err)
-		}
-		pk, err := format.ParsePacket(f, data)
-		if err != nil {
-			t.Fatal(err)
-		}
-		want := review.Restrict(target, pk.Tree.AllItems())
-		pk.Reviewer = "Scripted Reviewer"
-		pk.Verdict = format.VerdictOK
-		if !sameShape(pk.Tree, want) {
-			pk.Verdict = format.VerdictFixed
-			pk.Tree = want
-		}
-		if err := os.WriteFile(f, format.FormatPacket(pk), 0o644); err != nil {
-			t.Fatal(err)
-		}
 	}
 }
 
 // sameShape reports whether two trees resolve the same triplets.
-func sameShape(a, b *format.Category) bool {
-	key := func(c *format.Category) []string {
-		var out []string
-		for _, tr := range project.ShapeTriplets(c) {
-			pair := []string{tr[0], tr[1]}
-			slices.Sort(pair)
-			out = append(out, pair[0]+","+pair[1]+"|"+tr[2])
-		}
-		slices.Sort(out)
-		return out
-	}
-	return slices.Equal(key(a), key(b))
-}
+func sameShape(a, b *format.Category) bool { return review.SameShape(a, b) }
 
 // copyDemoInto copies the demo repository into dir.
 func copyDemoInto(t *testing.T, dst string) { copyTree(t, demoDir, dst) }

@@ -1,0 +1,34 @@
+package review
+
+import (
+	"github.com/ramify-tax/ramify/project"
+)
+
+// ProjectCommittee solves the committee for a project's current taxonomy,
+// as `review draw` and `review status` do: the committee size of the
+// settings (DefaultCommitteeSize when unset), the project's similarity
+// graph and compiled records, and a seed taken from the structure hash, so
+// the same taxonomy always gets the same committee. progress may be nil.
+// A conflict among the records comes back as the solver's
+// *solve.ConflictError, naming records by their compiled number.
+func ProjectCommittee(p *project.Project, structure string, progress func(stage string, done, total int)) (*Committee, *project.Compiled, error) {
+	if progress != nil {
+		progress("similarity graph", 0, 1)
+	}
+	g, err := p.Graph(project.Seed)
+	if err != nil {
+		return nil, nil, err
+	}
+	compiled := p.Compile()
+	opt := p.CommitteeOptions()
+	opt.Progress = nil
+	if progress != nil {
+		progress("committee of trees", 0, 1)
+	}
+	size := p.Settings.Review.Committee
+	if size < 2 {
+		size = DefaultCommitteeSize
+	}
+	c, err := BuildCommittee(g, compiled.Constraints, opt, size, Seed(structure))
+	return c, compiled, err
+}
