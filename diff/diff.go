@@ -83,6 +83,13 @@ type Metrics struct {
 	// sampled estimate; absent when exact.
 	TripletInterval []float64 `json:"triplet_interval,omitempty"`
 	TripletSamples  int       `json:"triplet_samples,omitempty"`
+	// TripletRecall is the share of the triples the old tree resolves
+	// that the new one resolves alike (how much of the old structure the
+	// new version keeps); TripletPrecision the share of the triples the new
+	// tree resolves that the old one resolves alike (see TripletScores).
+	// Exact or sampled as TripletAgreement is.
+	TripletRecall    float64 `json:"triplet_recall"`
+	TripletPrecision float64 `json:"triplet_precision"`
 	// RF is the rooted Robinson–Foulds distance; RFNormalized divides it by
 	// the number of non-trivial clusters of both trees (see RF).
 	RF           int     `json:"rf"`

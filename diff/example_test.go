@@ -22,7 +22,7 @@ func ExampleCompare() {
 	r.Text(os.Stdout, false)
 	// Output:
 	// 1 rename, 1 item moved
-	// triplet agreement 0.4000 (exact) · RF 4 (normalised 1.0000) · cophenetic 0.3023 · 5 common items
+	// triplet agreement 0.4000 (exact) · recall 0.4444 · precision 0.4444 · RF 4 (normalised 1.0000) · cophenetic 0.3023 · 5 common items
 	//
 	// = renamed   ~ level
 	//               to   Measuring

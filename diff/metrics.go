@@ -43,7 +43,7 @@ func TripletAgreementSampled(a, b *solve.Tree, samples int, seed uint64) (est, l
 		return 1, 1, 1
 	}
 	x, y := newTreeIndex(a), newTreeIndex(b)
-	agree := sampleTriplets(newLCATable(a, x), newLCATable(b, y), a.N, samples, seed)
+	agree := int(sampleTriplets(newLCATable(a, x), newLCATable(b, y), a.N, samples, seed).agreeing())
 	lo, hi = bounds.ClopperPearson(agree, samples, 0.95)
 	return float64(agree) / float64(samples), lo, hi
 }
@@ -99,7 +99,28 @@ func TripletScores(tree, ref *solve.Tree) (precision, recall float64) {
 	if tree.N < 3 {
 		return 1, 1
 	}
-	c := countTriplets(newTreeIndex(tree), newTreeIndex(ref))
+	return countTriplets(newTreeIndex(tree), newTreeIndex(ref)).scores()
+}
+
+// TripletScoresSampled estimates TripletScores from samples random triples
+// drawn as TripletAgreementSampled draws them (same seed, same triples).
+// It panics if samples < 1.
+func TripletScoresSampled(tree, ref *solve.Tree, samples int, seed uint64) (precision, recall float64) {
+	mustMatch(tree, ref)
+	if samples < 1 {
+		panic(fmt.Sprintf("diff: %d triplet samples", samples))
+	}
+	if tree.N < 3 {
+		return 1, 1
+	}
+	x, y := newTreeIndex(tree), newTreeIndex(ref)
+	return sampleTriplets(newLCATable(tree, x), newLCATable(ref, y), tree.N, samples, seed).scores()
+}
+
+// scores are precision (of the first tree's resolved triples, the share
+// the second resolves alike) and recall (the converse), 1 when there is
+// nothing to share.
+func (c tripletCounts) scores() (precision, recall float64) {
 	precision, recall = 1, 1
 	if c.resolvedA > 0 {
 		precision = float64(c.sameSplit) / float64(c.resolvedA)

@@ -97,6 +97,12 @@ func (m Metrics) tripletText() string {
 	return fmt.Sprintf("%s (95%% interval %s–%s, %d sampled triples)", fixed4(m.TripletAgreement), fixed4(lo), fixed4(hi), m.TripletSamples)
 }
 
+// keptText gives triplet recall and precision: how much of the old
+// tree's resolved structure the new one keeps, and the converse.
+func (m Metrics) keptText() string {
+	return "recall " + fixed4(m.TripletRecall) + " · precision " + fixed4(m.TripletPrecision)
+}
+
 func (m Metrics) rfText() string {
 	return fmt.Sprintf("%d (normalised %s)", m.RF, fixed4(m.RFNormalized))
 }

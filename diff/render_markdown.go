@@ -84,6 +84,8 @@ func (r *Report) Markdown(w io.Writer) {
 	p("On the %s in both versions.\n\n", counted(m.CommonItems, "item", "items"))
 	p("| measure | value |\n| --- | --- |\n")
 	p("| triplet agreement | %s |\n", m.tripletText())
+	p("| triplets of the old version kept (recall) | %s |\n", fixed4(m.TripletRecall))
+	p("| triplets of the new version found in the old (precision) | %s |\n", fixed4(m.TripletPrecision))
 	p("| Robinson–Foulds distance | %s |\n", m.rfText())
 	p("| cophenetic correlation | %s |\n", m.copheneticText())
 }

@@ -64,7 +64,7 @@ func (r *Report) Text(w io.Writer, color bool) {
 		t.line(t.paint(ansiBold, strings.Join(r.summaryParts(), ", ")))
 	}
 	m := r.Metrics
-	t.line(t.paint(ansiDim, "triplet agreement "+m.tripletText()+" · RF "+m.rfText()+
+	t.line(t.paint(ansiDim, "triplet agreement "+m.tripletText()+" · "+m.keptText()+" · RF "+m.rfText()+
 		" · cophenetic "+m.copheneticText()+" · "+counted(m.CommonItems, "common item", "common items")))
 
 	structural := len(r.Split)+len(r.Merged)+len(r.Renamed)+len(r.Created)+len(r.Dissolved) > 0

@@ -42,9 +42,11 @@ func (c *comparison) metrics() Metrics {
 	a, b := c.old.solveTree(c.oldCat), c.new.solveTree(c.newCat)
 	if len(c.common) <= ExactTripletLimit {
 		m.TripletAgreement, m.TripletExact = TripletAgreement(a, b), true
+		m.TripletPrecision, m.TripletRecall = TripletScores(b, a)
 	} else {
 		est, lo, hi := TripletAgreementSampled(a, b, TripletSamples, TripletSeed)
 		m.TripletAgreement, m.TripletInterval, m.TripletSamples = est, []float64{lo, hi}, TripletSamples
+		m.TripletPrecision, m.TripletRecall = TripletScoresSampled(b, a, TripletSamples, TripletSeed)
 	}
 	m.RF, m.RFNormalized = RF(a, b)
 	if r, ok := CopheneticCorrelation(a, b); ok {

@@ -103,11 +103,13 @@ func tripletTopology(t *lcaTable, p, q, r int32) int {
 }
 
 // sampleTriplets draws samples uniformly random 3-subsets of the leaves
-// (with replacement between draws) and counts those with the same topology
-// in both trees.
-func sampleTriplets(x, y *lcaTable, n, samples int, seed uint64) int {
+// (with replacement between draws) and counts them as countTriplets does:
+// total is the number of draws, sameSplit those resolved alike, resolvedA
+// and resolvedB those each tree resolves, and agreeing() those with the
+// same topology in both trees.
+func sampleTriplets(x, y *lcaTable, n, samples int, seed uint64) tripletCounts {
 	rng := rand.New(rand.NewPCG(seed, samplingStream))
-	agree := 0
+	c := tripletCounts{total: int64(samples)}
 	for range samples {
 		p := int32(rng.IntN(n))
 		q := int32(rng.IntN(n - 1))
@@ -122,11 +124,21 @@ func sampleTriplets(x, y *lcaTable, n, samples int, seed uint64) int {
 		if r >= hi {
 			r++
 		}
-		if tripletTopology(x, p, q, r) == tripletTopology(y, p, q, r) {
-			agree++
+		tx, ty := tripletTopology(x, p, q, r), tripletTopology(y, p, q, r)
+		if tx != 0 {
+			c.resolvedA++
+		}
+		if ty != 0 {
+			c.resolvedB++
+		}
+		if tx != 0 && ty != 0 {
+			c.resolvedAll++
+			if tx == ty {
+				c.sameSplit++
+			}
 		}
 	}
-	return agree
+	return c
 }
 
 // samplingStream is the second PCG word for triplet sampling, fixed so that

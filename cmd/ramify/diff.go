@@ -28,7 +28,10 @@ items added, removed and moved (old path -> new path), categories renamed
 (same members, new name), split, merged, created and dissolved. Then it
 measures how far apart the two trees are, on the items they share:
 rooted triplet agreement (exact up to 5,000 items; above that estimated
-from 50,000 sampled triples, with its 95% interval), the Robinson-Foulds
+from 50,000 sampled triples, with its 95% interval); triplet recall, the
+share of the triples OLD resolves that NEW resolves alike (how much of the
+old structure the new version keeps), and precision, the converse; the
+Robinson-Foulds
 cluster distance and its normalised form, and the cophenetic correlation
 of the two trees (lca sizes).
 
