@@ -35,6 +35,18 @@ type SimilaritySettings struct {
 	// Neighbors is k of the k-nearest-neighbour graph; 0 means all pairs.
 	Neighbors int
 	Sources   []Source
+	// Text weighs the channels of the text source.
+	Text TextSettings
+}
+
+// TextSettings weighs the three channels the text source mixes before the
+// neighbour search: the head words of the label's comma-separated phrases,
+// the label's character 3–5-grams, and the words of the description. A
+// weight of 0 leaves its channel out; at least one must be above 0.
+type TextSettings struct {
+	LabelHeads  float64
+	LabelGrams  float64
+	Description float64
 }
 
 // Source is one ingredient of the similarity graph.
@@ -89,6 +101,7 @@ func DefaultSettings() *Settings {
 				{Kind: SourceTags, Weight: 1.0},
 				{Kind: SourceText, Weight: 0.5},
 			},
+			Text: TextSettings{LabelHeads: 1, LabelGrams: 1, Description: 2},
 		},
 		Taxonomy: TaxonomySettings{
 			File:        "taxonomy.outline",

@@ -21,12 +21,13 @@ var (
 	settingsSections = []string{"items", "similarity", "taxonomy", "review", "release"}
 	settingsKeys     = map[string][]string{
 		"items":      {"files", "vectors"},
-		"similarity": {"neighbors", "source"},
+		"similarity": {"neighbors", "source", "text"},
 		"taxonomy":   {"file", "min_size", "max_children", "max_depth", "stability"},
 		"review":     {"size", "audit_share", "committee"},
 		"release":    {"min_audits", "max_reject_rate", "base_iri"},
 	}
 	sourceKeys = []string{"kind", "weight", "file"}
+	textKeys   = []string{"label_heads", "label_grams", "description"}
 )
 
 // ParseSettings reads a ramify.toml. Keys it leaves out keep their
@@ -89,6 +90,9 @@ func (r *settingsReader) section(sec string, t map[string]any) {
 		r.int(t, "similarity.neighbors", &s.Similarity.Neighbors, 0, 200)
 		if v, ok := t["source"]; ok {
 			r.sources(v)
+		}
+		if v, ok := t["text"]; ok {
+			r.text(v)
 		}
 	case "taxonomy":
 		r.str(t, "taxonomy.file", &s.Taxonomy.File)
@@ -221,6 +225,23 @@ func (r *settingsReader) sources(v any) {
 		sources = append(sources, src)
 	}
 	r.s.Similarity.Sources = sources
+}
+
+// text reads [similarity.text], the weights of the text source's channels.
+func (r *settingsReader) text(v any) {
+	t, ok := v.(map[string]any)
+	if !ok {
+		r.ds.Add(r.s.PosOf("similarity.text"), "similarity.text must be a table ([similarity.text]), not %s", tomlType(v))
+		return
+	}
+	r.ds = append(r.ds, unknownKeys(t, textKeys, "[similarity.text]", func(k string) Pos { return r.s.PosOf("similarity.text." + k) })...)
+	ts := &r.s.Similarity.Text
+	r.float(t, "similarity.text.label_heads", &ts.LabelHeads, 0, 100, false)
+	r.float(t, "similarity.text.label_grams", &ts.LabelGrams, 0, 100, false)
+	r.float(t, "similarity.text.description", &ts.Description, 0, 100, false)
+	if ts.LabelHeads+ts.LabelGrams+ts.Description == 0 {
+		r.ds.Add(r.s.PosOf("similarity.text"), "similarity.text weighs every channel 0; give at least one of label_heads, label_grams and description a weight above 0")
+	}
 }
 
 // crossChecks looks at what only the whole file can tell: kinds and their

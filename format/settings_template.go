@@ -41,6 +41,16 @@ weight = 1.0
 kind = "text"
 weight = 0.5
 
+# The text source mixes three channels, each a TF-IDF cosine, before the
+# nearest neighbours are found: the head words of the label (the last word
+# of each comma-separated name: "hammer" in "claw hammer"), the label's
+# character 3- to 5-grams (so "teaspoon" meets "spoon"), and the words of
+# the description. The weights say how much each counts (0 leaves it out).
+[similarity.text]
+label_heads = 1.0
+label_grams = 1.0
+description = 2.0
+
 # [[similarity.source]]
 # kind = "links"
 # file = "links.tsv"

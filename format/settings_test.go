@@ -25,17 +25,44 @@ func TestSettingsTemplateIsTheDefaults(t *testing.T) {
 			t.Errorf("template lacks [%s]", sec)
 		}
 		for _, k := range keys {
-			if k == "source" {
-				continue
+			if k == "source" || k == "text" {
+				continue // tables of their own, checked below
 			}
 			if !strings.Contains(SettingsTemplate, "\n"+k+" = ") && !strings.Contains(SettingsTemplate, "\n# "+k+" = ") {
 				t.Errorf("template does not show %s.%s", sec, k)
 			}
 		}
 	}
+	for _, k := range textKeys {
+		if !strings.Contains(SettingsTemplate, "\n"+k+" = ") {
+			t.Errorf("template does not show similarity.text.%s", k)
+		}
+	}
 	for _, k := range append([]string{"file"}, SourceKinds...) {
 		if !strings.Contains(SettingsTemplate, k) {
 			t.Errorf("template does not explain %q", k)
+		}
+	}
+}
+
+func TestParseSettingsText(t *testing.T) {
+	s, err := ParseSettings("ramify.toml", []byte("[similarity.text]\nlabel_heads = 0\ndescription = 3.5\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := TextSettings{LabelHeads: 0, LabelGrams: 1, Description: 3.5}
+	if s.Similarity.Text != want {
+		t.Errorf("ParseSettings: text = %+v, want %+v", s.Similarity.Text, want)
+	}
+	for _, c := range []struct{ in, msg string }{
+		{"[similarity.text]\nlabel_heads = 0\nlabel_grams = 0\ndescription = 0\n", "ramify.toml:1:1: similarity.text weighs every channel 0"},
+		{"[similarity.text]\nlabel_grams = -1\n", "ramify.toml:2:1: similarity.text.label_grams must be between 0 and 100"},
+		{"[similarity.text]\nheads = 1\n", "ramify.toml:2:1: unknown key"},
+		{"[similarity]\ntext = 2\n", "ramify.toml:2:1: similarity.text must be a table"},
+	} {
+		_, err := ParseSettings("ramify.toml", []byte(c.in))
+		if err == nil || !strings.Contains(err.Error(), c.msg) {
+			t.Errorf("ParseSettings(%q) = %v, want an error containing %q", c.in, err, c.msg)
 		}
 	}
 }

@@ -39,12 +39,13 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 		}
 		return b.Tags(tags)
 	case format.SourceText:
+		labels := make([]string, n)
 		texts := make([]string, n)
 		for i, it := range p.Items {
-			// The label is part of what an item says about itself.
-			texts[i] = it.Label + " " + it.Text
+			labels[i], texts[i] = it.Label, it.Text
 		}
-		return b.Text(texts)
+		ts := p.Settings.Similarity.Text
+		return b.LabelText(labels, texts, graph.TextMix{Heads: ts.LabelHeads, Grams: ts.LabelGrams, Words: ts.Description})
 	case format.SourceVector:
 		if p.Vectors == nil {
 			return nil, fmt.Errorf("no vectors file is configured (items.vectors)")

@@ -39,6 +39,7 @@ weight = 1.0
 func main() {
 	methods := flag.String("method", "constrained,average", "comma-separated methods to measure")
 	only := flag.String("set", "", "measure only these comma-separated sets")
+	extra := flag.String("settings", "", "TOML appended to every benchmark repository's ramify.toml (to try other settings)")
 	flag.Parse()
 	sets, err := realdata.All()
 	if err != nil {
@@ -62,7 +63,7 @@ func main() {
 		if method != project.MethodConstrained && method != project.MethodAverage {
 			fail(fmt.Errorf("unknown method %q", m))
 		}
-		rows, err := measureAll(sets, method)
+		rows, err := measureAll(sets, method, settingsText+*extra)
 		if err != nil {
 			fail(err)
 		}
@@ -87,10 +88,10 @@ type row struct {
 	reference *format.Category
 }
 
-func measureAll(sets []*realdata.Set, method project.Method) ([]row, error) {
+func measureAll(sets []*realdata.Set, method project.Method, settings string) ([]row, error) {
 	var rows []row
 	for _, s := range sets {
-		r, err := measure(s, method)
+		r, err := measure(s, method, settings)
 		if err != nil {
 			return nil, fmt.Errorf("%s: %w", s.Name, err)
 		}
@@ -100,13 +101,13 @@ func measureAll(sets []*realdata.Set, method project.Method) ([]row, error) {
 }
 
 // measure regenerates one set's taxonomy in a temporary repository.
-func measure(s *realdata.Set, method project.Method) (row, error) {
+func measure(s *realdata.Set, method project.Method, settings string) (row, error) {
 	dir, err := os.MkdirTemp("", "ramify-quality-")
 	if err != nil {
 		return row{}, err
 	}
 	defer os.RemoveAll(dir)
-	if err := os.WriteFile(filepath.Join(dir, project.SettingsFile), []byte(settingsText), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, project.SettingsFile), []byte(settings), 0o644); err != nil {
 		return row{}, err
 	}
 	if err := os.WriteFile(filepath.Join(dir, "items.tsv"), s.ItemsTSV, 0o644); err != nil {
