@@ -12,24 +12,68 @@ type Link struct {
 	Pos    Pos
 }
 
+// LinkTable is a links file in columns: each distinct item id is kept once
+// in IDs, and link k joins IDs[A[k]] and IDs[B[k]] with weight Weight[k],
+// written on line Line[k] of File. A million-item file has millions of
+// rows; columns of numbers cost a quarter of the memory of one Link per row
+// and let a caller resolve each distinct id once instead of once per row.
+type LinkTable struct {
+	File   string
+	IDs    []string // in order of first appearance
+	A, B   []int32
+	Weight []float64
+	Line   []int32
+}
+
+// Len is the number of links.
+func (t *LinkTable) Len() int { return len(t.A) }
+
+// Pos is where link k was written.
+func (t *LinkTable) Pos(k int) Pos { return Pos{t.File, int(t.Line[k]), 1} }
+
+// Links lists the table as one Link per row.
+func (t *LinkTable) Links() []Link {
+	out := make([]Link, t.Len())
+	for k := range out {
+		out[k] = Link{A: t.IDs[t.A[k]], B: t.IDs[t.B[k]], Weight: t.Weight[k], Pos: t.Pos(k)}
+	}
+	return out
+}
+
 // MaxLinks bounds the rows of a links file.
 const MaxLinks = 100_000_000
 
 // LinksHeader is the header row every links file starts with.
 const LinksHeader = "a\tb\tweight"
 
-// ParseLinks reads a links.tsv: the header "a<TAB>b<TAB>weight", then one
-// row per link with two different item ids and a finite weight above 0.
-// A pair may appear in both directions; the graph builder combines them.
+// ParseLinks reads a links.tsv (see ParseLinkTable) as one Link per row.
 func ParseLinks(file string, data []byte) ([]Link, error) {
+	t, err := ParseLinkTable(file, data)
+	if err != nil {
+		return nil, err
+	}
+	return t.Links(), nil
+}
+
+// ParseLinkTable reads a links.tsv: the header "a<TAB>b<TAB>weight", then
+// one row per link with two different item ids and a finite weight above
+// 0. A pair may appear in both directions; the graph builder combines them.
+func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
 	text, ds := CleanText(file, data)
 	if len(ds) > 0 {
 		return nil, ds
 	}
 	// Room for one link per line, up to a bound: a hostile file of empty
 	// rows must not make ramify reserve gigabytes up front.
-	links := make([]Link, 0, min(bytes.Count(text, []byte{'\n'}), 1<<20))
-	ids := interner{}
+	room := min(bytes.Count(text, []byte{'\n'}), 1<<24)
+	t := &LinkTable{
+		File:   file,
+		A:      make([]int32, 0, room),
+		B:      make([]int32, 0, room),
+		Weight: make([]float64, 0, room),
+		Line:   make([]int32, 0, room),
+	}
+	ids := idTable{index: map[string]int32{}, last: [2]int32{-1, -1}}
 	header := false
 	readTSV(string(text), func(row *tsvRow) bool {
 		if !header {
@@ -40,7 +84,7 @@ func ParseLinks(file string, data []byte) ([]Link, error) {
 			}
 			return true
 		}
-		if len(links) >= MaxLinks {
+		if t.Len() >= MaxLinks {
 			ds.Add(row.pos(file, 0), "more than %s links in one file", grouped(MaxLinks))
 			return false
 		}
@@ -54,8 +98,10 @@ func ParseLinks(file string, data []byte) ([]Link, error) {
 		}
 		a, b := strings.TrimSpace(row.Cells[0]), strings.TrimSpace(row.Cells[1])
 		bad := false
-		for i, id := range []string{a, b} {
-			if !ValidItemID(id) {
+		var num [2]int32
+		for i, id := range [2]string{a, b} {
+			num[i] = ids.lookup(i, id)
+			if num[i] < 0 && !ValidItemID(id) {
 				ds.Add(row.pos(file, i), "%q is not a valid item id: %s", clip(id), ItemIDRule)
 				bad = true
 			}
@@ -74,7 +120,15 @@ func ParseLinks(file string, data []byte) ([]Link, error) {
 			bad = true
 		}
 		if !bad && len(ds) == 0 {
-			links = append(links, Link{A: ids.get(a), B: ids.get(b), Weight: w, Pos: Pos{file, row.Line, 1}})
+			for i, id := range [2]string{a, b} {
+				if num[i] < 0 {
+					num[i] = ids.add(i, id, &t.IDs)
+				}
+			}
+			t.A = append(t.A, num[0])
+			t.B = append(t.B, num[1])
+			t.Weight = append(t.Weight, w)
+			t.Line = append(t.Line, int32(row.Line))
 		}
 		return true
 	})
@@ -85,5 +139,39 @@ func ParseLinks(file string, data []byte) ([]Link, error) {
 		ds.Sort()
 		return nil, ds
 	}
-	return links, nil
+	return t, nil
+}
+
+// idTable numbers the distinct ids of a links file. Edge lists are often
+// grouped by a column, so the id last seen in each column is remembered
+// and a repeat costs one string comparison instead of a hash lookup.
+type idTable struct {
+	index map[string]int32
+	last  [2]int32
+	lastS [2]string
+}
+
+// lookup returns the number of id, seen in column col, or -1 when it is
+// new. A numbered id is valid: only valid ids are added.
+func (t *idTable) lookup(col int, id string) int32 {
+	if t.last[col] >= 0 && id == t.lastS[col] {
+		return t.last[col]
+	}
+	k, ok := t.index[id]
+	if !ok {
+		return -1
+	}
+	t.last[col], t.lastS[col] = k, id
+	return k
+}
+
+// add numbers a new id, appending a copy of it to ids: a kept substring
+// would pin the whole file in memory.
+func (t *idTable) add(col int, id string, ids *[]string) int32 {
+	k := int32(len(*ids))
+	v := strings.Clone(id)
+	*ids = append(*ids, v)
+	t.index[v] = k
+	t.last[col], t.lastS[col] = k, v
+	return k
 }

@@ -75,17 +75,3 @@ func runeCount(s string) int {
 	}
 	return n
 }
-
-// interner keeps one copy of each distinct string. Ids repeat across the
-// rows of a links file, and a kept substring would pin the whole file in
-// memory, so each distinct id is copied once and shared.
-type interner map[string]string
-
-func (in interner) get(s string) string {
-	if v, ok := in[s]; ok {
-		return v
-	}
-	v := strings.Clone(s)
-	in[v] = v
-	return v
-}

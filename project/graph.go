@@ -67,12 +67,22 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 		// (METHODS 1.1); the Gaussian kernel stays available in solve/graph.
 		return b.Vectors(values, n, dim, graph.Cosine)
 	case format.SourceLinks:
-		var edges []graph.Edge
-		for _, l := range p.Links[src.File] {
-			a, okA := p.Index[l.A]
-			c, okB := p.Index[l.B]
-			if okA && okB {
-				edges = append(edges, graph.Edge{A: int32(a), B: int32(c), W: l.Weight})
+		t := p.Links[src.File]
+		if t == nil {
+			return graph.Links(n, nil)
+		}
+		item := make([]int32, len(t.IDs))
+		for k, id := range t.IDs {
+			item[k] = -1
+			if i, ok := p.Index[id]; ok {
+				item[k] = int32(i)
+			}
+		}
+		edges := make([]graph.Edge, 0, t.Len())
+		for k := range t.Len() {
+			a, c := item[t.A[k]], item[t.B[k]]
+			if a >= 0 && c >= 0 {
+				edges = append(edges, graph.Edge{A: a, B: c, W: t.Weight[k]})
 			}
 		}
 		return graph.Links(n, edges)

@@ -32,7 +32,7 @@ type Project struct {
 	Vectors *format.Vectors
 	// Links holds the explicit similarities of each links source, keyed
 	// by the source's file.
-	Links       map[string][]format.Link
+	Links       map[string]*format.LinkTable
 	Constraints []*format.ConstraintFile
 	// Outline is the committed taxonomy, nil when the file does not exist
 	// yet (a new repository before its first solve).
@@ -57,7 +57,7 @@ func (p *Project) OutlinePath() string {
 // returns the project together with every problem found; callers decide
 // whether problems are fatal (they always are for commands that write).
 func Load(dir string) (*Project, format.Diags) {
-	p := &Project{Dir: dir, Index: map[string]int{}, Links: map[string][]format.Link{}}
+	p := &Project{Dir: dir, Index: map[string]int{}, Links: map[string]*format.LinkTable{}}
 	var ds format.Diags
 	settingsData, err := format.ReadFileLimited(filepath.Join(dir, SettingsFile), SettingsFile, format.MaxSmallFileBytes)
 	if err != nil {
@@ -195,19 +195,38 @@ func (p *Project) loadLinks() format.Diags {
 			ds = append(ds, rds...)
 			continue
 		}
-		links, err := format.ParseLinks(src.File, data)
+		links, err := format.ParseLinkTable(src.File, data)
 		if err != nil {
 			ds = append(ds, format.AsDiags(err, src.File)...)
 			continue
 		}
-		for _, l := range links {
-			for _, id := range []string{l.A, l.B} {
-				if _, ok := p.Index[id]; !ok && !p.itemsBroken {
-					ds.Add(l.Pos, "link names unknown item %q", id)
-				}
-			}
+		if !p.itemsBroken {
+			ds = append(ds, p.unknownLinked(links)...)
 		}
 		p.Links[src.File] = links
+	}
+	return ds
+}
+
+// unknownLinked reports each link that names an id that is not an item,
+// looking each distinct id up once.
+func (p *Project) unknownLinked(t *format.LinkTable) format.Diags {
+	known := make([]bool, len(t.IDs))
+	all := true
+	for k, id := range t.IDs {
+		_, known[k] = p.Index[id]
+		all = all && known[k]
+	}
+	if all {
+		return nil
+	}
+	var ds format.Diags
+	for k := range t.Len() {
+		for _, id := range [2]int32{t.A[k], t.B[k]} {
+			if !known[id] {
+				ds.Add(t.Pos(k), "link names unknown item %q", t.IDs[id])
+			}
+		}
 	}
 	return ds
 }
