@@ -82,8 +82,9 @@ audit_share = 0.25
 committee = 20
 
 [release]
-# A release needs at least this many answered audit packets...
-min_audits = 20
+# A release needs at least this many answered audit packets (36 is the
+# fewest that can pass the rate below even when every one is clean)...
+min_audits = 36
 # ...and the upper end of the 95% interval of the audit reject rate must be
 # at most this share.
 max_reject_rate = 0.10

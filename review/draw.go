@@ -32,6 +32,10 @@ type DrawOptions struct {
 	// reviewed on this version. Audits ignore it, so that the audit
 	// estimate stays unbiased.
 	Avoid []bool
+	// Redraw lists audit sets (item indices, ascending) to draw again
+	// before any new one: earlier audits whose projection changed (see
+	// AuditSummary). They were uniform draws, so they stay audits.
+	Redraw [][]int32
 	// SkipAudit, if set, reports audit sets already answered; the audit
 	// stream passes over them, so drawing again after answering audits
 	// gives new ones.
@@ -114,8 +118,16 @@ func Draw(t *solve.Tree, c *Committee, a *Assessment, opt DrawOptions) []Draft {
 	for _, x := range later {
 		try(x)
 	}
+	taken := 0
+	for _, items := range opt.Redraw {
+		if taken == audits {
+			break
+		}
+		out = append(out, Draft{Reason: format.ReasonAudit, Items: items})
+		taken++
+	}
 	rng := rand.New(rand.NewPCG(opt.Seed, streamAudit))
-	for taken, tries := 0, 0; taken < audits && tries < maxAuditTries*audits; tries++ {
+	for tries := 0; taken < audits && tries < maxAuditTries*audits; tries++ {
 		items := UniformSubset(rng, t.N, size)
 		if opt.SkipAudit != nil && opt.SkipAudit(items) {
 			continue

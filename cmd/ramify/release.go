@@ -146,7 +146,7 @@ func runRelease(e *env, args []string) error {
 	if err != nil {
 		return err
 	}
-	sum := review.SummarizeAudits(done, structure)
+	sum := review.SummarizeAudits(done, p.Outline.Root)
 	audits := manifestAudits{
 		Audits: sum.Audits, Rejected: sum.Rejected,
 		Rate: roundSig(sum.Rate, 6), Lower: roundSig(sum.Lo, 6), Upper: roundSig(sum.Hi, 6),
@@ -154,12 +154,12 @@ func runRelease(e *env, args []string) error {
 	}
 	e.report["audits"] = audits
 	if sum.Audits < p.Settings.Release.MinAudits {
-		return failf("gate audits: %s answered on this tree (structure %s), %d needed; run `ramify review draw`, answer the audit packets and `ramify absorb`",
+		return failf("gate audits: %s answer for this tree (structure %s), %d needed; run `ramify review draw`, answer the audit packets and `ramify absorb`",
 			plural(sum.Audits, "audit", "audits"), structure, p.Settings.Release.MinAudits)
 	}
 	if sum.Hi > p.Settings.Release.MaxRejectRate {
-		return failf("gate reject rate: %d of %d audits rejected; the 95%% upper bound %.4f exceeds release.max_reject_rate %.4f — more audits or fewer rejections are needed",
-			sum.Rejected, sum.Audits, sum.Hi, p.Settings.Release.MaxRejectRate)
+		return failf("gate reject rate: %d of %d audits rejected; the 95%% upper bound %.4f exceeds release.max_reject_rate %.4f — %s",
+			sum.Rejected, sum.Audits, sum.Hi, p.Settings.Release.MaxRejectRate, moreAuditsText(sum, p.Settings.Release))
 	}
 	// Gate 4: the defining files are committed.
 	inputs, err := releaseInputs(p)
@@ -485,4 +485,16 @@ func gitMessage(err error) string {
 		return firstLineOf(strings.TrimPrefix(strings.TrimSpace(ge.stderr), "fatal: "))
 	}
 	return err.Error()
+}
+
+// moreAuditsText says how many more clean audits would pass the gate.
+func moreAuditsText(sum review.AuditSummary, r format.ReleaseSettings) string {
+	switch more := sum.MoreCleanAudits(r.MaxRejectRate, r.MinAudits); {
+	case more < 0:
+		return "no number of clean audits can pass release.max_reject_rate after the rejections so far"
+	case more == 0:
+		return "the audits so far pass the gate"
+	default:
+		return plural(more, "more clean audit", "more clean audits") + " (answered ok) would pass the gate"
+	}
 }

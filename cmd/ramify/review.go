@@ -3,6 +3,8 @@ package main
 import (
 	"os"
 	"path/filepath"
+	"slices"
+	"strings"
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
@@ -64,7 +66,9 @@ hash, so drawing again from the same tree gives the same packets (those
 already there are left as they are) and a larger --count adds new ones
 after them. Items already reviewed on this version of the taxonomy, or
 waiting in packets drawn from an earlier one, are not put in uncertain
-packets again; answered audits are not drawn again. Files are named
+packets again; answered audits are not drawn again, except that an
+audit answered ok on an earlier version whose items the current one
+arranges otherwise is drawn again first (see "ramify review status"). Files are named
 DATE-HASH.outline, the hash taken over the packet's items and the
 structure it was drawn from.
 
@@ -132,11 +136,27 @@ func runReviewDraw(e *env, args []string) error {
 			mark(a)
 		}
 	}
-	answered := map[string]bool{}
 	for _, a := range done {
 		if a.Packet.From == structure {
 			mark(a)
-			answered[review.PacketHash(structure, a.Items())] = true
+		}
+	}
+	// Audits of earlier versions whose projection is unchanged still
+	// answer for this one; the stale ones are drawn again first, and no
+	// audited set is drawn as a new one (see review.AuditSummary).
+	audited := map[string]bool{}
+	donePackets := make([]*format.Packet, len(done))
+	for i, a := range done {
+		donePackets[i] = a.Packet
+		if a.Packet.Reason == format.ReasonAudit {
+			audited[strings.Join(a.Items(), "\x00")] = true
+		}
+	}
+	summary := review.SummarizeAudits(donePackets, p.Outline.Root)
+	var redraw [][]int32
+	for _, set := range summary.Stale {
+		if items, ok := itemIndices(p, set); ok {
+			redraw = append(redraw, items)
 		}
 	}
 	ids := p.ItemIDs()
@@ -145,7 +165,8 @@ func runReviewDraw(e *env, args []string) error {
 		for i, x := range items {
 			names[i] = ids[x]
 		}
-		return answered[review.PacketHash(structure, names)]
+		slices.Sort(names)
+		return audited[strings.Join(names, "\x00")]
 	}
 	committee, err := reviewCommittee(e, p, structure)
 	if err != nil {
@@ -159,6 +180,7 @@ func runReviewDraw(e *env, args []string) error {
 		AuditShare: p.Settings.Review.AuditShare,
 		Seed:       review.Seed(structure),
 		Avoid:      avoid,
+		Redraw:     redraw,
 		SkipAudit:  skipAudit,
 	})
 	// A packet is known by its hash (items and structure), whatever the
@@ -168,6 +190,21 @@ func runReviewDraw(e *env, args []string) error {
 		existing[review.PacketHash(a.Packet.From, a.Items())] = a.File
 	}
 	return writeDrafts(e, p, committee, drafts, existing, structure, date, count)
+}
+
+// itemIndices maps item ids to indices, sorted; false when an item is no
+// longer in the repository.
+func itemIndices(p *project.Project, set []string) ([]int32, bool) {
+	out := make([]int32, 0, len(set))
+	for _, id := range set {
+		i, ok := p.Index[id]
+		if !ok {
+			return nil, false
+		}
+		out = append(out, int32(i))
+	}
+	slices.Sort(out)
+	return out, true
 }
 
 // drawnJSON is one packet in the --json report.

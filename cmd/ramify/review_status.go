@@ -21,13 +21,22 @@ func init() {
 		help: `Lists the packets in reviews/open/ and what the answered packets in
 reviews/done/ (the audit log) say about the current taxonomy:
 
-  audits     audit packets drawn from the current version of the taxonomy
-             (its structure hash) and answered: how many, how many were
-             rejected (verdict fixed), and the reject rate with its exact
-             two-sided 95% Clopper-Pearson interval. Audits of earlier
-             versions are counted apart and not used: they judged another
-             tree. Uncertain packets are never used either: they were drawn
-             where the tree is weakest, so they would overstate the rate.
+  audits     the audit packets that answer for the current taxonomy, how
+             many were rejected (verdict fixed), and the reject rate with
+             its exact two-sided 95% Clopper-Pearson interval. An audit
+             answers for the current taxonomy when it was drawn from it,
+             or when it was answered ok on an earlier version that
+             arranged its items exactly as the current one does (the same
+             question, the same answer). A rejected audit stays rejected:
+             its answer became a record the tree was then fitted to, so
+             showing it again would prove nothing, and counting it can
+             only overstate the rate. Earlier ok audits whose items are
+             now arranged otherwise are not counted; "ramify review draw"
+             draws their items again. Uncertain packets are never used:
+             they were drawn where the tree is weakest, so they would
+             overstate the rate. The last line says how many more clean
+             audits would pass the release gate (release.min_audits and
+             release.max_reject_rate).
   support    the least supported categories: the share of the committee's
              trees (see "ramify review draw") that group the category's
              items together at some level of their hierarchy, before it
@@ -85,7 +94,7 @@ func runReviewStatus(e *env, args []string) error {
 	}
 	e.report["structure"] = structure
 	reportOpen(e, open, structure)
-	reportAudits(e, done, structure)
+	reportAudits(e, p, done, structure)
 	if top == 0 {
 		return nil
 	}
@@ -118,7 +127,7 @@ func reportOpen(e *env, open []*review.Answer, structure string) {
 	}
 }
 
-func reportAudits(e *env, done []*review.Answer, structure string) {
+func reportAudits(e *env, p *project.Project, done []*review.Answer, structure string) {
 	packets := make([]*format.Packet, len(done))
 	for i, a := range done {
 		packets[i] = a.Packet
@@ -128,7 +137,7 @@ func reportAudits(e *env, done []*review.Answer, structure string) {
 		e.report["audits"] = nil
 		return
 	}
-	s := review.SummarizeAudits(packets, structure)
+	s := review.SummarizeAudits(packets, p.Outline.Root)
 	e.report["audits"] = map[string]any{
 		"structure":     s.Structure,
 		"answered":      s.Audits,
@@ -138,17 +147,32 @@ func reportAudits(e *env, done []*review.Answer, structure string) {
 		"interval":      []float64{roundSig(s.Lo, 6), roundSig(s.Hi, 6)},
 		"level":         review.AuditLevel,
 		"older":         s.Older,
+		"carried":       s.Carried,
 		"uncertain":     s.Uncertain,
 		"uncertain_fix": s.UncertainFixed,
 	}
+	r := p.Settings.Release
+	more := s.MoreCleanAudits(r.MaxRejectRate, r.MinAudits)
+	e.report["audits"].(map[string]any)["more_clean_needed"] = more
 	if s.Audits == 0 {
 		e.say("audits on this version (%s): none answered yet; draw some with `ramify review draw`", structure)
 	} else {
 		e.say("audits on this version (%s): %d answered, %d rejected", structure, s.Audits, s.Rejected)
+		if s.Carried > 0 {
+			e.say("  %s answered on earlier versions whose items this version arranges as then", plural(s.Carried, "audit", "audits"))
+		}
 		e.say("  reject rate  %.1f%%, 95%% interval %.1f%% to %.1f%% (exact, Clopper-Pearson)", 100*s.Rate, 100*s.Lo, 100*s.Hi)
 	}
 	if s.Older > 0 {
-		e.say("  %s of earlier versions not counted", plural(s.Older, "audit", "audits"))
+		e.say("  %s of earlier versions not counted: this version arranges their items otherwise; `ramify review draw` draws them again", plural(s.Older, "audit", "audits"))
+	}
+	switch {
+	case more == 0:
+		e.say("release gate: passes (at most %.1f%% rejected, at least %d audits)", 100*r.MaxRejectRate, r.MinAudits)
+	case more > 0:
+		e.say("release gate: %s would pass it (at most %.1f%% rejected, at least %d audits)", plural(more, "more clean audit", "more clean audits"), 100*r.MaxRejectRate, r.MinAudits)
+	default:
+		e.say("release gate: out of reach after %d rejections (release.max_reject_rate %.1f%%)", s.Rejected, 100*r.MaxRejectRate)
 	}
 	if s.Uncertain > 0 {
 		e.say("uncertain packets answered: %d (%d fixed); never part of the estimate", s.Uncertain, s.UncertainFixed)
