@@ -4,10 +4,13 @@ import (
 	"bytes"
 	"errors"
 	"fmt"
+	"io"
 	"os"
 	"os/exec"
+	"path/filepath"
 	"regexp"
 	"strings"
+	"sync"
 )
 
 // errNotGitRepo says that a folder is not inside a git work tree.
@@ -54,18 +57,17 @@ const gitOutputLimit = 1 << 20
 // printed on stdout, at most limit bytes (more is an error). Arguments are
 // fixed by the caller; any part that came from the user has passed
 // checkRevision or format.CheckRepoPath first, so none can be read as an
-// option. git is never run through a shell.
+// option. git is never run through a shell, and always through gitCommand.
 func runGit(dir string, limit int64, args ...string) ([]byte, error) {
 	return runGitInput(dir, limit, nil, args...)
 }
 
 // runGitInput is runGit with bytes fed to git's standard input.
 func runGitInput(dir string, limit int64, stdin []byte, args ...string) ([]byte, error) {
-	cmd := exec.Command("git", args...)
-	cmd.Dir = dir
-	// Never stop to ask for a password, and keep git's messages in one
-	// language so ramify can quote them.
-	cmd.Env = append(os.Environ(), "GIT_TERMINAL_PROMPT=0", "LC_ALL=C")
+	cmd, err := gitCommand(dir, args...)
+	if err != nil {
+		return nil, err
+	}
 	if stdin != nil {
 		cmd.Stdin = bytes.NewReader(stdin)
 	}
@@ -82,6 +84,139 @@ func runGitInput(dir string, limit int64, stdin []byte, args ...string) ([]byte,
 		return nil, fmt.Errorf("git %s: printed more than the limit of %d bytes", strings.Join(args, " "), limit)
 	}
 	return out.Bytes(), nil
+}
+
+// gitSafety is passed before every git subcommand. A folder committed by a
+// pull request may pose as a repository (HEAD, objects/, refs/ and a config
+// naming commands); git must never discover and use one, and must run no
+// command that a repository's configuration or a work tree could name:
+// bare repositories are used only when named explicitly, fsmonitor and
+// hooks are off.
+var gitSafety = []string{
+	"-c", "safe.bareRepository=explicit",
+	"-c", "core.fsmonitor=false",
+	"-c", "core.hooksPath=" + os.DevNull,
+}
+
+// gitCommand is the one place that builds a git command line: git, the
+// repository holding dir pinned with --git-dir and --work-tree (found once,
+// by findRepo), --literal-pathspecs (a file named ":(glob)x" is that file,
+// not a pattern), gitSafety, then args. It runs in dir, so paths written
+// "./rel" (see gitPaths) are relative to dir.
+func gitCommand(dir string, args ...string) (*exec.Cmd, error) {
+	repo, err := findRepo(dir)
+	if err != nil {
+		return nil, err
+	}
+	full := append([]string{"--git-dir=" + repo.gitDir, "--work-tree=" + repo.top, "--literal-pathspecs"}, gitSafety...)
+	return newGitCmd(repo.dirIn(dir), append(full, args...)), nil
+}
+
+// gitPaths writes repository paths (relative to the folder git runs in) as
+// git should get them after "--": each prefixed "./", so none can be read
+// as an option or as pathspec magic.
+func gitPaths(rels []string) []string {
+	out := make([]string, len(rels))
+	for i, r := range rels {
+		out[i] = "./" + r
+	}
+	return out
+}
+
+// newGitCmd is exec.Command for git with ramify's fixed environment.
+func newGitCmd(dir string, args []string) *exec.Cmd {
+	cmd := exec.Command("git", args...)
+	cmd.Dir = dir
+	// Never stop to ask for a password, keep git's messages in one
+	// language so ramify can quote them, take no lock a reader does not
+	// need, and let no repository from the environment override the one
+	// named on the command line.
+	env := make([]string, 0, len(os.Environ())+3)
+	for _, kv := range os.Environ() {
+		name, _, _ := strings.Cut(kv, "=")
+		switch name {
+		case "GIT_DIR", "GIT_WORK_TREE", "GIT_COMMON_DIR", "GIT_CEILING_DIRECTORIES", "GIT_DISCOVERY_ACROSS_FILESYSTEM":
+			continue
+		}
+		env = append(env, kv)
+	}
+	cmd.Env = append(env, "GIT_TERMINAL_PROMPT=0", "LC_ALL=C", "GIT_OPTIONAL_LOCKS=0")
+	return cmd
+}
+
+// gitRepo is a work tree and its repository.
+type gitRepo struct {
+	top    string // the work tree's top folder, symbolic links resolved
+	gitDir string // its repository, absolute
+}
+
+// dirIn is dir as git should run in it: with symbolic links resolved, so
+// that git sees it inside top.
+func (r *gitRepo) dirIn(dir string) string {
+	if real, err := filepath.EvalSymlinks(dir); err == nil {
+		return real
+	}
+	return dir
+}
+
+var (
+	reposMu sync.Mutex
+	repos   = map[string]*gitRepo{}
+)
+
+// findRepo returns the git work tree holding dir, or errNotGitRepo. The
+// top level is the nearest folder at or above dir with a .git entry (git
+// refuses to commit one, so no pull request can plant it); git confirms
+// it with safe.bareRepository=explicit, and the answer is kept for dir.
+// A folder that only looks like a bare repository is never used.
+func findRepo(dir string) (*gitRepo, error) {
+	abs, err := filepath.Abs(dir)
+	if err != nil {
+		return nil, err
+	}
+	if real, err := filepath.EvalSymlinks(abs); err == nil {
+		abs = real
+	}
+	reposMu.Lock()
+	defer reposMu.Unlock()
+	if r, ok := repos[abs]; ok {
+		return r, nil
+	}
+	top := ""
+	for d := abs; ; {
+		if fi, err := os.Lstat(filepath.Join(d, ".git")); err == nil && (fi.IsDir() || fi.Mode().IsRegular()) {
+			top = d
+			break
+		}
+		parent := filepath.Dir(d)
+		if parent == d {
+			return nil, errNotGitRepo
+		}
+		d = parent
+	}
+	cmd := newGitCmd(top, append(append([]string{}, gitSafety...), "rev-parse", "--is-inside-work-tree", "--show-toplevel", "--absolute-git-dir"))
+	out := &cappedBuffer{limit: gitOutputLimit}
+	cmd.Stdout, cmd.Stderr = out, io.Discard
+	if err := cmd.Run(); err != nil {
+		if errors.Is(err, exec.ErrNotFound) {
+			return nil, errNoGit
+		}
+		return nil, errNotGitRepo
+	}
+	lines := strings.Split(strings.TrimRight(out.String(), "\n"), "\n")
+	if len(lines) != 3 || lines[0] != "true" {
+		return nil, errNotGitRepo
+	}
+	gotTop := lines[1]
+	if real, err := filepath.EvalSymlinks(gotTop); err == nil {
+		gotTop = real
+	}
+	if gotTop != top {
+		return nil, errNotGitRepo
+	}
+	r := &gitRepo{top: top, gitDir: lines[2]}
+	repos[abs] = r
+	return r, nil
 }
 
 // cappedBuffer keeps the first limit bytes written to it and drops the
@@ -108,19 +243,11 @@ func (c *cappedBuffer) Write(p []byte) (int, error) {
 // gitTopLevel returns the top folder of the git work tree holding dir, or
 // errNotGitRepo.
 func gitTopLevel(dir string) (string, error) {
-	out, err := runGit(dir, gitOutputLimit, "rev-parse", "--is-inside-work-tree", "--show-toplevel")
+	r, err := findRepo(dir)
 	if err != nil {
-		var ge *gitError
-		if errors.As(err, &ge) {
-			return "", errNotGitRepo
-		}
 		return "", err
 	}
-	lines := strings.Split(strings.TrimRight(string(out), "\n"), "\n")
-	if len(lines) != 2 || lines[0] != "true" {
-		return "", errNotGitRepo
-	}
-	return lines[1], nil
+	return r.top, nil
 }
 
 // revisionPattern is what ramify accepts as a git revision: names,

@@ -7,7 +7,6 @@ import (
 	"fmt"
 	"io"
 	"os"
-	"os/exec"
 	"path/filepath"
 	"sort"
 	"strconv"
@@ -180,9 +179,10 @@ func catBlobs(top string, files []treeFile, each func(f treeFile, r io.Reader) e
 		}
 		in.WriteString(f.oid + "\n")
 	}
-	cmd := exec.Command("git", "cat-file", "--batch")
-	cmd.Dir = top
-	cmd.Env = append(os.Environ(), "GIT_TERMINAL_PROMPT=0", "LC_ALL=C")
+	cmd, err := gitCommand(top, "cat-file", "--batch")
+	if err != nil {
+		return err
+	}
 	cmd.Stdin = &in
 	errOut := &cappedBuffer{limit: 64 << 10}
 	cmd.Stderr = errOut

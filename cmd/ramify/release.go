@@ -380,7 +380,7 @@ func gateCommitted(dir string, inputs []string) error {
 	if _, err := gitTopLevel(dir); err != nil {
 		return failf("gate committed: %s is not in a git repository; a release records committed files only (run `git init` and commit)", dir)
 	}
-	args := append([]string{"status", "--porcelain", "--untracked-files=all", "--"}, inputs...)
+	args := append([]string{"status", "--porcelain", "--untracked-files=all", "--"}, gitPaths(inputs)...)
 	out, err := runGit(dir, gitOutputLimit, args...)
 	if err != nil {
 		return err
@@ -463,12 +463,12 @@ func previousRelease(dir string) (string, *format.Category) {
 
 // commitAndTag commits the release files and tags the commit.
 func commitAndTag(dir, version string, files []string, m *releaseManifest) error {
-	add := append([]string{"add", "--"}, files...)
+	add := append([]string{"add", "--"}, gitPaths(files)...)
 	if _, err := runGit(dir, gitOutputLimit, add...); err != nil {
 		return err
 	}
 	msg := "Release " + version + "\n\n" + summaryLine(m) + "\nstructure " + m.Structure + "\n"
-	commit := append([]string{"commit", "-q", "-m", msg, "--"}, files...)
+	commit := append([]string{"commit", "-q", "-m", msg, "--"}, gitPaths(files)...)
 	if _, err := runGit(dir, gitOutputLimit, commit...); err != nil {
 		return fmt.Errorf("committing the release files (they are written; commit and tag by hand): %s", gitMessage(err))
 	}
