@@ -36,12 +36,15 @@ cluster distance and its normalised form, and the cophenetic correlation
 of the two trees (lca sizes).
 
 OLD and NEW are each one of:
-  a file        an outline (or review packet) file, relative to the
-                current folder; tried first
-  REV:PATH      the file PATH, relative to the taxonomy repository, as it
-                is at git revision REV (":PATH" is the staged version)
   REV           the repository's taxonomy outline (taxonomy.file in that
                 revision's ramify.toml) at git revision REV
+  REV:PATH      the file PATH, relative to the taxonomy repository, as it
+                is at git revision REV (":PATH" is the staged version)
+  a file        an outline (or review packet) file in the taxonomy
+                repository (--dir), written as a path: ./NAME, DIR/NAME
+                or a name ending in .outline; it may not lead outside
+                the repository (no .., no link out, nothing in .git)
+A bare name is always a revision, never a file of that name.
 Without NEW, OLD is compared with the repository's outline as it is now.
 
 The text report marks each change with one character:
@@ -177,24 +180,19 @@ func fillDiffReport(e *env, rep *diff.Report) error {
 // loadDiffSide reads one version named on the command line: a file, a
 // file at a revision (REV:PATH), or the repository's outline at a
 // revision. dir is the taxonomy repository.
+//
+// A revision is always a revision: a pull request that commits files
+// named "main" or "HEAD" must not change what `ramify diff main HEAD`
+// compares. An argument is a file only when it is written as one (see
+// isFileArg), or when it holds a "/" and git knows no such revision.
 func loadDiffSide(dir, arg string) (*diffSide, error) {
-	info, err := os.Stat(arg)
-	switch {
-	case err == nil && info.IsDir():
-		return nil, usagef("%s is a folder; name an outline file or a git revision", arg)
-	case err == nil:
-		data, err := format.ReadFileLimited(arg, arg, format.MaxOutlineBytes)
-		if err != nil {
-			return nil, err
-		}
-		return &diffSide{name: arg, data: data}, nil
-	case !errors.Is(err, fs.ErrNotExist):
-		return nil, err
+	if isFileArg(arg) {
+		return readDiffFile(dir, arg)
 	}
 	rev, rel, hasPath := strings.Cut(arg, ":")
 	if rev != "" || !hasPath {
 		if msg := checkRevision(rev); msg != "" {
-			return nil, usagef("%s is not a file here, and %s", arg, msg)
+			return nil, usagef("%s is not a revision: %s (write a file as a path: ./NAME or a name ending in .outline)", arg, msg)
 		}
 	}
 	if hasPath {
@@ -204,14 +202,21 @@ func loadDiffSide(dir, arg string) (*diffSide, error) {
 	}
 	if _, err := gitTopLevel(dir); err != nil {
 		if errors.Is(err, errNotGitRepo) {
-			return nil, usagef("%s is not a file, and %s is not in a git repository, so it is not a revision either", arg, dir)
+			if !hasPath && strings.Contains(arg, "/") {
+				return readDiffFile(dir, arg)
+			}
+			return nil, usagef("%s is not a revision: %s is not in a git repository (write a file as a path: ./%s)", arg, dir, arg)
 		}
 		return nil, err
 	}
 	if !hasPath {
 		if !revisionExists(dir, rev) {
-			return nil, usagef("%s is neither a file here nor a revision git knows", arg)
+			if strings.Contains(arg, "/") {
+				return readDiffFile(dir, arg)
+			}
+			return nil, usagef("%s is not a revision git knows (write a file as a path: ./%s)", arg, arg)
 		}
+		var err error
 		if rel, err = outlineFileAt(dir, rev); err != nil {
 			return nil, err
 		}
@@ -224,6 +229,46 @@ func loadDiffSide(dir, arg string) (*diffSide, error) {
 		return nil, err
 	}
 	return &diffSide{name: rev + ":" + rel, data: data}, nil
+}
+
+// isFileArg reports whether a diff argument is written as a file: it
+// starts with "./", "../" or "/", or (holding no ":") ends in ".outline".
+func isFileArg(arg string) bool {
+	switch {
+	case strings.HasPrefix(arg, "./"), strings.HasPrefix(arg, "../"), strings.HasPrefix(arg, "/"), filepath.IsAbs(arg):
+		return true
+	case strings.Contains(arg, ":"):
+		return false
+	}
+	return strings.HasSuffix(arg, ".outline")
+}
+
+// readDiffFile reads a file argument of diff. It is looked up under the
+// repository dir and must stay inside it: no absolute path, no "..", no
+// symbolic link that leads out, nothing under .git.
+func readDiffFile(dir, arg string) (*diffSide, error) {
+	rel := arg
+	for strings.HasPrefix(rel, "./") {
+		rel = strings.TrimLeft(strings.TrimPrefix(rel, "./"), "/")
+	}
+	full, err := project.Resolve(dir, rel)
+	if err != nil {
+		return nil, usagef("%s: %v", arg, err)
+	}
+	info, err := os.Stat(full)
+	switch {
+	case errors.Is(err, fs.ErrNotExist):
+		return nil, usagef("%s: no such file in %s", arg, dir)
+	case err != nil:
+		return nil, err
+	case info.IsDir():
+		return nil, usagef("%s is a folder; name an outline file or a git revision", arg)
+	}
+	data, err := format.ReadFileLimited(full, arg, format.MaxOutlineBytes)
+	if err != nil {
+		return nil, err
+	}
+	return &diffSide{name: arg, data: data}, nil
 }
 
 // currentOutline reads the repository's taxonomy outline as it is in the
