@@ -279,6 +279,7 @@ func (p *Project) loadConstraints() format.Diags {
 			continue
 		}
 		ds = append(ds, p.checkRefs(cf)...)
+		ds = append(ds, p.shapeProblems(cf)...)
 		p.Constraints = append(p.Constraints, cf)
 	}
 	return ds

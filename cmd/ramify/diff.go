@@ -248,6 +248,15 @@ func isFileArg(arg string) bool {
 // symbolic link that leads out, nothing under .git.
 func readDiffFile(dir, arg string) (*diffSide, error) {
 	rel := arg
+	if filepath.IsAbs(rel) {
+		// An absolute name is accepted when it lies in the repository.
+		root, err1 := filepath.Abs(dir)
+		inside, err2 := filepath.Rel(root, rel)
+		if err1 != nil || err2 != nil || inside == ".." || strings.HasPrefix(inside, ".."+string(filepath.Separator)) {
+			return nil, usagef("%s lies outside the repository %s", arg, dir)
+		}
+		rel = filepath.ToSlash(inside)
+	}
 	for strings.HasPrefix(rel, "./") {
 		rel = strings.TrimLeft(strings.TrimPrefix(rel, "./"), "/")
 	}

@@ -33,11 +33,12 @@ func TestDiffExitStatus(t *testing.T) {
 		code   int
 		stderr string // a part of what stderr must hold
 	}{
-		{"same", []string{"diff", good, good}, 0, ""},
-		{"changed", []string{"diff", good, moved}, 0, ""},
-		{"tab", []string{"diff", good, tab}, 2, tab + ":3:1: tab in the indentation"},
-		{"NUL byte", []string{"diff", nul, good}, 2, nul + ":3:7: NUL byte"},
-		{"not in git", []string{"diff", good, "HEAD", "--dir", dir}, 2, "HEAD is not a file, and " + dir + " is not in a git repository"},
+		{"same", []string{"diff", good, good, "--dir", dir}, 0, ""},
+		{"changed", []string{"diff", good, moved, "--dir", dir}, 0, ""},
+		{"tab", []string{"diff", good, tab, "--dir", dir}, 2, tab + ":3:1: tab in the indentation"},
+		{"NUL byte", []string{"diff", nul, good, "--dir", dir}, 2, nul + ":3:7: NUL byte"},
+		{"outside --dir", []string{"diff", good, good}, 2, "lies outside the repository"},
+		{"not in git", []string{"diff", good, "HEAD", "--dir", dir}, 2, "HEAD is not a revision: " + dir + " is not in a git repository"},
 		{"bad format", []string{"diff", good, good, "--format", "yaml"}, 2, "--format must be"},
 		{"no versions", []string{"diff"}, 2, "diff takes one or two versions"},
 		{"no outline here", []string{"diff", good, "--dir", dir}, 2, "taxonomy.outline does not exist in " + dir},
