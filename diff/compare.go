@@ -104,29 +104,60 @@ func (c *comparison) removed() []RemovedItem {
 
 // moved compares each common item's category chains through the
 // matching. The answer depends only on the item's two categories, so it is
-// worked out once per pair of categories.
-func (c *comparison) moved() []Move {
-	out := []Move{}
+// worked out once per pair of categories. It returns every item move, the
+// moves of items that moved on their own, and the category moves.
+func (c *comparison) moved() (all, own []Move, cats []CategoryMove) {
+	all, own, cats = []Move{}, []Move{}, []CategoryMove{}
 	type place struct{ old, new int }
-	verdict := map[place]bool{}
+	// carrier is the category pair an item moved with ({0, 0}: none).
+	type verdict struct {
+		moved   bool
+		carrier place
+	}
+	verdicts := map[place]verdict{}
+	catIndex := map[place]int{}
 	var chainOld, chainNew []int
 	for i, it := range c.common {
 		p := place{c.oldCat[i], c.newCat[i]}
-		isMoved, seen := verdict[p]
+		v, seen := verdicts[p]
 		if !seen {
 			chainOld = c.old.chain(p.old, chainOld)
 			chainNew = c.new.chain(p.new, chainNew)
-			isMoved = len(chainOld) != len(chainNew)
-			for k := 0; !isMoved && k < len(chainOld); k++ {
-				isMoved = c.matchOld[chainOld[k]] != chainNew[k]
+			v.moved = len(chainOld) != len(chainNew)
+			for k := 0; !v.moved && k < len(chainOld); k++ {
+				v.moved = c.matchOld[chainOld[k]] != chainNew[k]
 			}
-			verdict[p] = isMoved
+			// The agreeing lower end: levels matched counted from the
+			// item's own category up.
+			s := 0
+			for s < len(chainOld) && s < len(chainNew) &&
+				c.matchOld[chainOld[len(chainOld)-1-s]] == chainNew[len(chainNew)-1-s] {
+				s++
+			}
+			if v.moved && s > 0 {
+				v.carrier = place{chainOld[len(chainOld)-s], chainNew[len(chainNew)-s]}
+			}
+			verdicts[p] = v
 		}
-		if isMoved {
-			out = append(out, Move{Item: it, From: c.old.path[p.old], To: c.new.path[p.new]})
+		if !v.moved {
+			continue
 		}
+		m := Move{Item: it, From: c.old.path[p.old], To: c.new.path[p.new]}
+		all = append(all, m)
+		if v.carrier == (place{}) {
+			own = append(own, m)
+			continue
+		}
+		k, ok := catIndex[v.carrier]
+		if !ok {
+			k = len(cats)
+			catIndex[v.carrier] = k
+			cats = append(cats, CategoryMove{From: c.old.path[v.carrier.old], To: c.new.path[v.carrier.new]})
+		}
+		cats[k].Items = append(cats[k].Items, it)
 	}
-	return out
+	slices.SortFunc(cats, func(a, b CategoryMove) int { return comparePaths(a.From, b.From) })
+	return all, own, cats
 }
 
 func (c *comparison) renamed() []Rename {

@@ -23,6 +23,13 @@ func applyReport(old *format.Category, r *Report) map[string][]string {
 	for _, m := range r.Moved {
 		moved[m.Item] = m.To
 	}
+	// An item that moved with its category keeps its path below it.
+	carried := map[string]CategoryMove{}
+	for _, cm := range r.MovedCategories {
+		for _, it := range cm.Items {
+			carried[it] = cm
+		}
+	}
 	removed := map[string]bool{}
 	for _, rm := range r.Removed {
 		removed[rm.Item] = true
@@ -36,12 +43,19 @@ func applyReport(old *format.Category, r *Report) map[string][]string {
 			out[it] = to
 			continue
 		}
-		np := make([]string, len(p))
-		for k := range p {
-			np[k] = p[k]
+		// Each level takes its renamed name; an item that moved with its
+		// category swaps the category's old path for its new one.
+		var np []string
+		from := 0
+		if cm, ok := carried[it]; ok {
+			np, from = slices.Clone([]string(cm.To)), len(cm.From)
+		}
+		for k := from; k < len(p); k++ {
+			name := p[k]
 			if to, ok := renamed[strings.Join(p[:k+1], "\x00")]; ok {
-				np[k] = to[len(to)-1]
+				name = to[len(to)-1]
 			}
+			np = append(np, name)
 		}
 		out[it] = np
 	}

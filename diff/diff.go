@@ -18,15 +18,20 @@ type Path []string
 // by id, categories by path), so the same two trees always give the same
 // report, byte for byte, in every rendering.
 type Report struct {
-	Added     []AddedItem   `json:"added"`
-	Removed   []RemovedItem `json:"removed"`
-	Moved     []Move        `json:"moved"`
-	Renamed   []Rename      `json:"renamed"`
-	Split     []Split       `json:"split"`
-	Merged    []Merge       `json:"merged"`
-	Created   []Path        `json:"created"`
-	Dissolved []Path        `json:"dissolved"`
-	Metrics   Metrics       `json:"metrics"`
+	Added   []AddedItem   `json:"added"`
+	Removed []RemovedItem `json:"removed"`
+	Moved   []Move        `json:"moved"`
+	// MovedCategories are categories that moved whole: their items are
+	// listed there, not in Moved.
+	MovedCategories []CategoryMove `json:"moved_categories"`
+	Renamed         []Rename       `json:"renamed"`
+	Split           []Split        `json:"split"`
+	Merged          []Merge        `json:"merged"`
+	Created         []Path         `json:"created"`
+	Dissolved       []Path         `json:"dissolved"`
+	Metrics         Metrics        `json:"metrics"`
+	// all is every item move, Moved and the category moves' items.
+	all []Move
 }
 
 // AddedItem is an item only the new outline has, with where it sits there.
@@ -47,6 +52,16 @@ type Move struct {
 	Item string `json:"item"`
 	From Path   `json:"from"`
 	To   Path   `json:"to"`
+}
+
+// CategoryMove is a category in both outlines (matched) whose place
+// changed: its parent is not the category its old parent became. From is
+// its path in the old names, To in the new; Items are the items that moved
+// with it (their path below the category is unchanged up to renames).
+type CategoryMove struct {
+	From  Path     `json:"from"`
+	To    Path     `json:"to"`
+	Items []string `json:"items"`
 }
 
 // Rename is a category that kept its members (it was matched) but changed
@@ -99,6 +114,11 @@ type Metrics struct {
 	Cophenetic *float64 `json:"cophenetic"`
 }
 
+// AllMoved lists every common item whose path changed other than by
+// renames, sorted by id, each with its own old and new path: the moves of
+// Moved and the items of every category move.
+func (r *Report) AllMoved() []Move { return r.all }
+
 // Thresholds of the semantic diff.
 const (
 	// MatchJaccard is the least Jaccard overlap, on common items, at which
@@ -133,7 +153,12 @@ const (
 //   - Renamed: a matched pair whose display names differ.
 //   - Moved: a common item whose chain of categories, top level to its
 //     own, mapped through the matching, is not its chain in the new
-//     outline — its path changed other than by renames.
+//     outline — its path changed other than by renames. When the lower
+//     end of the two chains agrees (the item's own category, and maybe some
+//     above it, matched level by level), the item moved with the highest
+//     category of that agreeing part: it is listed under that category's
+//     move in MovedCategories instead. So a category cut and pasted
+//     elsewhere is one category move, not one move per item.
 //   - Split: an old category A is split when at least two new categories
 //     are parts of it and the parts hold at least 80% of A's members. A new
 //     category X is a part of A when X is unmatched or matched to A, at
@@ -156,11 +181,11 @@ func Compare(old, new *format.Category) *Report {
 	r := &Report{
 		Added:     c.added(),
 		Removed:   c.removed(),
-		Moved:     c.moved(),
 		Renamed:   c.renamed(),
 		Created:   []Path{},
 		Dissolved: []Path{},
 	}
+	r.all, r.Moved, r.MovedCategories = c.moved()
 	r.Split, r.Merged = c.splitsAndMerges()
 	r.Created, r.Dissolved = c.createdAndDissolved()
 	r.Metrics = c.metrics()

@@ -48,7 +48,7 @@ func (r *Report) WriteJSON(w io.Writer) error {
 // Empty reports whether nothing changed: no item or category differs
 // (the metrics are then those of two identical trees).
 func (r *Report) Empty() bool {
-	return len(r.Added)+len(r.Removed)+len(r.Moved)+len(r.Renamed)+len(r.Split)+
+	return len(r.Added)+len(r.Removed)+len(r.Moved)+len(r.MovedCategories)+len(r.Renamed)+len(r.Split)+
 		len(r.Merged)+len(r.Created)+len(r.Dissolved) == 0
 }
 
@@ -74,10 +74,17 @@ func (r *Report) summaryParts() []string {
 	add(len(r.Renamed), counted(len(r.Renamed), "rename", "renames"))
 	add(len(r.Created), strconv.Itoa(len(r.Created))+" created")
 	add(len(r.Dissolved), strconv.Itoa(len(r.Dissolved))+" dissolved")
+	add(len(r.MovedCategories), counted(len(r.MovedCategories), "category moved", "categories moved"))
 	add(len(r.Moved), counted(len(r.Moved), "item moved", "items moved"))
 	add(len(r.Added), strconv.Itoa(len(r.Added))+" added")
 	add(len(r.Removed), strconv.Itoa(len(r.Removed))+" removed")
 	return parts
+}
+
+// withItems is a category move's destination and how many items went
+// with it: "Striking / Hammers (4 items)".
+func (m CategoryMove) withItems() string {
+	return m.To.String() + " (" + counted(len(m.Items), "item", "items") + ")"
 }
 
 // Number formats for the measures: four decimals, enough to see a 1%

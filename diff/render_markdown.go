@@ -36,6 +36,9 @@ func (r *Report) Markdown(w io.Writer) {
 	for _, n := range r.Renamed {
 		rows = append(rows, [3]string{"renamed", mdPath(n.From), mdPath(n.To)})
 	}
+	for _, mv := range r.MovedCategories {
+		rows = append(rows, [3]string{"moved", mdPath(mv.From), mdPath(mv.To) + " (" + counted(len(mv.Items), "item", "items") + ")"})
+	}
 	for _, c := range r.Created {
 		rows = append(rows, [3]string{"created", "", mdPath(c)})
 	}

@@ -13,7 +13,8 @@ import (
 //	=  renamed     same members, another name
 //	+  created / added
 //	-  dissolved / removed
-//	>  moved       an item whose category path changed
+//	>  moved       a category that moved whole, or an item whose category
+//	               path changed
 const Legend = "< split  & merged  = renamed  + created/added  - dissolved/removed  > moved"
 
 // Terminal colours: few and soft. Structure in blue, gains green, losses
@@ -67,7 +68,7 @@ func (r *Report) Text(w io.Writer, color bool) {
 	t.line(t.paint(ansiDim, "triplet agreement "+m.tripletText()+" · "+m.keptText()+" · RF "+m.rfText()+
 		" · cophenetic "+m.copheneticText()+" · "+counted(m.CommonItems, "common item", "common items")))
 
-	structural := len(r.Split)+len(r.Merged)+len(r.Renamed)+len(r.Created)+len(r.Dissolved) > 0
+	structural := len(r.Split)+len(r.Merged)+len(r.Renamed)+len(r.MovedCategories)+len(r.Created)+len(r.Dissolved) > 0
 	if structural {
 		t.line()
 	}
@@ -90,6 +91,10 @@ func (r *Report) Text(w io.Writer, color bool) {
 	for _, n := range r.Renamed {
 		t.line(t.paint(ansiStructure, "="), " renamed   ", n.From.String())
 		t.line("              to   ", n.To.String())
+	}
+	for _, m := range r.MovedCategories {
+		t.line(t.paint(ansiMove, ">"), " moved     ", m.From.String())
+		t.line("              to   ", m.withItems())
 	}
 	for _, p := range r.Created {
 		t.line(t.paint(ansiGain, "+"), " created   ", p.String())

@@ -42,7 +42,7 @@ type Move struct {
 func PinMoves(base, edited *format.Category, affinity func(a, b string) float64) []Move {
 	rep := diff.Compare(base, edited)
 	moved := map[string]bool{}
-	for _, m := range rep.Moved {
+	for _, m := range rep.AllMoved() {
 		moved[m.Item] = true
 	}
 	bx, ex := newCatIndex(base), newCatIndex(edited)

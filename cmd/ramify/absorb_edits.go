@@ -20,13 +20,15 @@ const absorbHistoryDepth = 50
 
 // handEdit is a hand edit of the outline, ready to be recorded.
 type handEdit struct {
-	base    string // where the tree ramify wrote came from
-	moves   []review.Move
-	file    *format.ConstraintFile // nil when nothing needs pinning
-	text    []byte
-	outline []byte // the outline rewritten with a fresh structure line
-	from    string // structure hash ramify wrote
-	to      string // structure hash of the edited tree
+	base  string // where the tree ramify wrote came from
+	moves []review.Move
+	// catMoves are the categories moved whole, one shape each.
+	catMoves []review.CategoryMove
+	file     *format.ConstraintFile // nil when nothing needs pinning
+	text     []byte
+	outline  []byte // the outline rewritten with a fresh structure line
+	from     string // structure hash ramify wrote
+	to       string // structure hash of the edited tree
 	// overridden lists earlier records the edited outline breaks.
 	overridden []project.Record
 }
@@ -67,16 +69,36 @@ func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date strin
 		}
 		return g.Weight(i, j)
 	}
-	h := &handEdit{base: where, moves: review.PinMoves(base, edited, affinity), from: p.Outline.Structure, to: format.StructureHash(edited)}
+	h := &handEdit{base: where, moves: review.PinMoves(base, edited, affinity),
+		catMoves: review.PinCategoryMoves(base, edited, affinity),
+		from:     p.Outline.Structure, to: format.StructureHash(edited)}
 	cf := &format.ConstraintFile{}
+	// pinOf names, per triplet, the moved item it pins; per shape, the
+	// moved category's first item.
+	var pinOf, shapeOf []string
 	for _, m := range h.moves {
 		note := fmt.Sprintf("moved by hand from %s to %s", pathOrTop(m.From), pathOrTop(m.To))
 		for _, t := range m.Pins {
 			t.Provenance = format.Provenance{By: by, Date: date, Note: note}
 			cf.Triplets = append(cf.Triplets, t)
+			pinOf = append(pinOf, m.Item)
 		}
 	}
-	if len(cf.Triplets) > 0 {
+	for _, m := range h.catMoves {
+		if m.Shape == nil {
+			continue
+		}
+		s := *m.Shape
+		s.Structure = h.from
+		s.Provenance = format.Provenance{By: by, Date: date,
+			Note: fmt.Sprintf("category moved by hand from %s to %s, with its %s", pathOrTop(m.From), pathOrTop(m.To), plural(len(m.Items), "item", "items"))}
+		cf.Shapes = append(cf.Shapes, s)
+		shapeOf = append(shapeOf, m.Items[0])
+	}
+	// Two moves can pick the same triplet, and one can say what others
+	// imply: keep each decision once.
+	pinOf = prunePins(cf, pinOf)
+	if len(cf.Triplets)+len(cf.Shapes) > 0 {
 		sum := sha256.Sum256([]byte("ramify edit\n" + h.from + "\n" + h.to))
 		frel := project.ConstraintsDir + "/edit-" + hex.EncodeToString(sum[:6]) + ".toml"
 		parsed, text, ds := parsedConstraintFile(frel, cf)
@@ -87,8 +109,10 @@ func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date strin
 		// editor can change it.
 		lines := itemLines(edited)
 		for i := range parsed.Triplets {
-			t := &parsed.Triplets[i]
-			t.Pos = format.Pos{File: rel, Line: lines[movedItemOf(h.moves, i)], Col: 1}
+			parsed.Triplets[i].Pos = format.Pos{File: rel, Line: lines[pinOf[i]], Col: 1}
+		}
+		for i := range parsed.Shapes {
+			parsed.Shapes[i].Pos = format.Pos{File: rel, Line: lines[shapeOf[i]], Col: 1}
 		}
 		h.file, h.text = parsed, text
 	}
@@ -125,16 +149,29 @@ func itemLines(root *format.Category) map[string]int {
 	return out
 }
 
-// movedItemOf is the moved item the i-th pin (in order over the moves)
-// belongs to.
-func movedItemOf(moves []review.Move, i int) string {
-	for _, m := range moves {
-		if i < len(m.Pins) {
-			return m.Item
-		}
-		i -= len(m.Pins)
+// prunePins drops the triplets of cf that review.PruneRecords finds
+// redundant, and returns pinOf (the moved item of each triplet) for the
+// triplets kept.
+func prunePins(cf *format.ConstraintFile, pinOf []string) []string {
+	type tagged struct {
+		t    format.Triplet
+		item string
 	}
-	return ""
+	before := make([]tagged, len(cf.Triplets))
+	for i, t := range cf.Triplets {
+		before[i] = tagged{t, pinOf[i]}
+	}
+	review.PruneRecords(cf)
+	var out []string
+	j := 0
+	for _, t := range cf.Triplets {
+		for before[j].t.Pair != t.Pair || before[j].t.Out != t.Out {
+			j++
+		}
+		out = append(out, before[j].item)
+		j++
+	}
+	return out
 }
 
 func pathOrTop(p string) string {
@@ -245,12 +282,39 @@ func reportHandEdit(e *env, p *project.Project, h *handEdit) {
 	for _, m := range h.moves {
 		moves = append(moves, moveJSON{m.Item, m.From, m.To, len(m.Pins)})
 	}
+	type catMoveJSON struct {
+		From  string   `json:"from"`
+		To    string   `json:"to"`
+		Items []string `json:"items"`
+		Shape bool     `json:"shape"`
+	}
+	catMoves := []catMoveJSON{}
+	for _, m := range h.catMoves {
+		catMoves = append(catMoves, catMoveJSON{m.From, m.To, m.Items, m.Shape != nil})
+	}
 	file := ""
 	if h.file != nil {
 		file = h.file.File
 	}
-	e.report["edit"] = map[string]any{"base": h.base, "from": h.from, "to": h.to, "moved": moves, "constraints": file}
-	e.say("%s was edited by hand (compared with %s): %s moved", rel, h.base, plural(len(h.moves), "item", "items"))
+	e.report["edit"] = map[string]any{"base": h.base, "from": h.from, "to": h.to, "moved": moves, "moved_categories": catMoves, "constraints": file}
+	var parts []string
+	if len(catMoves) > 0 {
+		parts = append(parts, plural(len(catMoves), "category", "categories"))
+	}
+	if len(moves) > 0 || len(catMoves) == 0 {
+		parts = append(parts, plural(len(moves), "item", "items"))
+	}
+	e.say("%s was edited by hand (compared with %s): %s moved", rel, h.base, strings.Join(parts, " and "))
+	for _, m := range catMoves {
+		records := "1 shape record"
+		if !m.Shape {
+			records = "no record"
+		}
+		e.say("  category %s -> %s (%s, %s)", pathOrTop(m.From), pathOrTop(m.To), plural(len(m.Items), "item", "items"), records)
+		if !m.Shape {
+			e.notice("no shape can pin the category %s where it was put; the next solve may move it", m.From)
+		}
+	}
 	for _, m := range moves {
 		e.say("  %s: %s -> %s (%s)", m.Item, pathOrTop(m.From), pathOrTop(m.To), plural(m.Pins, "record", "records"))
 		if m.Pins == 0 {

@@ -5,7 +5,6 @@ import (
 	"fmt"
 	"strconv"
 
-	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/solve"
 
 	"github.com/ramify-tax/ramify/format"
@@ -83,10 +82,9 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 		return nil, solveError(e, err)
 	}
 	if !bytes.Equal(sol.Text, p.OutlineText) {
-		rep := diff.Compare(root, sol.Root)
 		e.report["current"] = false
-		return nil, failf("%s is not what `ramify solve` writes now (%s would move, %s would be renamed); run `ramify solve` and commit the result",
-			rel, plural(len(rep.Moved), "item", "items"), plural(len(rep.Renamed), "category", "categories"))
+		return nil, failf("%s is not what `ramify solve` writes now (%s); run `ramify solve` and commit the result",
+			rel, staleReason(root, p.OutlineText, sol.Root, sol.Text))
 	}
 	e.report["current"] = true
 	return sol, nil

@@ -35,6 +35,9 @@ func TestScripts(t *testing.T) {
 			"copydemo":  cmdCopyDemo,
 			"answerall": cmdAnswerAll,
 			"hand":      cmdHand,
+			// Decisions that must survive (decision_script_test.go).
+			"movecategory":  cmdMoveCategory,
+			"uniquerecords": cmdUniqueRecords,
 		},
 		UpdateScripts: os.Getenv("RAMIFY_UPDATE") == "1",
 	})

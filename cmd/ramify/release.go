@@ -195,7 +195,7 @@ func runRelease(e *env, args []string) error {
 	if prev, prevRoot := previousRelease(dir); prevRoot != nil {
 		rep := diff.Compare(prevRoot, p.Outline.Root)
 		m.Change = &manifestChange{
-			Since: prev, Added: len(rep.Added), Removed: len(rep.Removed), Moved: len(rep.Moved),
+			Since: prev, Added: len(rep.Added), Removed: len(rep.Removed), Moved: len(rep.AllMoved()),
 			TripletAgreement: roundSig(rep.Metrics.TripletAgreement, 6),
 		}
 	}

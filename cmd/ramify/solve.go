@@ -145,16 +145,15 @@ func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *fo
 		"satisfied": total - violated,
 		"violated":  violated,
 	}
-	moved := []string{}
+	moved, movedCats := []string{}, []categoryMoveJSON{}
 	if prev != nil {
 		rep := diff.Compare(prev, sol.Root)
-		for _, m := range rep.Moved {
-			moved = append(moved, m.Item)
-		}
+		moved, movedCats = movesReport(rep)
 		e.report["added"] = len(rep.Added)
 		e.report["removed"] = len(rep.Removed)
 	}
 	e.report["moved"] = moved
+	e.report["moved_categories"] = movedCats
 	e.report["seconds"] = roundSig(sol.Seconds, 3)
 }
 
@@ -171,8 +170,7 @@ func printSolveReport(e *env, p *project.Project, sol *project.Solution) {
 		e.say("  constraints  %d of %d records broken (the average-linkage baseline ignores them)", c["violated"], c["records"])
 	}
 	if p.Outline != nil {
-		moved := r["moved"].([]string)
-		e.say("  moved        %s since the previous outline", plural(len(moved), "item", "items"))
+		e.say("  moved        %s since the previous outline", describeMoves(len(r["moved"].([]string)), r["moved_categories"].([]categoryMoveJSON)))
 	}
 	e.say("  time         %.2f s", sol.Seconds)
 }
