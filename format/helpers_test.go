@@ -122,3 +122,33 @@ func fillCategory(rng *rand.Rand, c *Category, ids []string, depth, maxDepth int
 		c.Children = append(c.Children, child)
 	}
 }
+
+// Problems past MaxProblemsPerFile in one file are counted, not kept; a
+// count sorts after its file's problems; Capped keeps MaxProblems.
+func TestDiagsAreCapped(t *testing.T) {
+	var ds Diags
+	for i := 1; i <= 250; i++ {
+		ds.Add(Pos{File: "b.outline", Line: i, Col: 1}, "bad %d", i)
+	}
+	if len(ds) != MaxProblemsPerFile+1 || ds.Count() != 250 || !ds.Full() {
+		t.Fatalf("after 250 problems: %d kept, Count %d, Full %v; want %d, 250, true", len(ds), ds.Count(), ds.Full(), MaxProblemsPerFile+1)
+	}
+	if got := ds[len(ds)-1].String(); got != "b.outline: and 150 more problems in this file" {
+		t.Errorf("count line %q", got)
+	}
+	ds.Add(Pos{File: "a.toml", Line: 3, Col: 1}, "other file")
+	ds.Sort()
+	if ds[0].File != "a.toml" || ds[len(ds)-1].More != 150 {
+		t.Errorf("sorted: first %v, last %v; want a.toml first and the count last", ds[0], ds[len(ds)-1])
+	}
+	var many Diags
+	for f := 0; f < 20; f++ {
+		for i := 1; i <= 100; i++ {
+			many.Add(Pos{File: fmt.Sprintf("f%02d", f), Line: i}, "x")
+		}
+	}
+	shown := many.Capped()
+	if len(shown) != MaxProblems+1 || shown[MaxProblems].String() != "and 1000 more problems" {
+		t.Errorf("Capped: %d entries, last %q", len(shown), shown[len(shown)-1].String())
+	}
+}

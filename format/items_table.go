@@ -5,6 +5,7 @@ import (
 	"encoding/csv"
 	"errors"
 	"io"
+	"sort"
 	"strings"
 )
 
@@ -19,7 +20,7 @@ func ParseItemsTable(file string, data []byte, sep byte) ([]Item, error) {
 	}
 	t := &itemTable{set: newItemSet(file)}
 	if sep == '\t' {
-		readTSV(string(text), func(row *tsvRow) bool {
+		readTSV(file, string(text), &t.set.ds, func(row *tsvRow) bool {
 			return t.row(row.Cells, func(i int) Pos { return row.pos(file, i) })
 		})
 	} else {
@@ -107,6 +108,12 @@ func (t *itemTable) has(name string) bool {
 
 // readCSV calls row for every record of a CSV text, reporting quoting
 // errors and going on after them.
+// lineOfOffset is the 1-based line holding byte offset off, given the
+// offsets where lines start.
+func lineOfOffset(starts []int, off int) int {
+	return sort.Search(len(starts), func(i int) bool { return starts[i] > off })
+}
+
 func readCSV(file string, text []byte, sep rune, ds *Diags, row func(cells []string, pos func(i int) Pos) bool) {
 	lines := lineStarts(text)
 	lineText := func(line int) string {
@@ -126,6 +133,10 @@ func readCSV(file string, text []byte, sep rune, ds *Diags, row func(cells []str
 	r.Comma = sep
 	r.FieldsPerRecord = -1
 	for {
+		if ds.Full() {
+			ds.StopAt(Pos{file, lineOfOffset(lines, int(r.InputOffset())), 1})
+			return
+		}
 		rec, err := r.Read()
 		if errors.Is(err, io.EOF) {
 			return

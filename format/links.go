@@ -75,7 +75,7 @@ func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
 	}
 	ids := idTable{index: map[string]int32{}, last: [2]int32{-1, -1}}
 	header := false
-	readTSV(string(text), func(row *tsvRow) bool {
+	readTSV(file, string(text), &ds, func(row *tsvRow) bool {
 		if !header {
 			header = true
 			if strings.TrimRight(row.text, " ") != LinksHeader {

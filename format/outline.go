@@ -76,6 +76,10 @@ func parseTreeLines(file string, lines []string, start func(i int) lineCol, head
 	for i, line := range lines {
 		first := start(i)
 		lineNo := first.Line
+		if ds.Full() {
+			ds.StopAt(Pos{file, lineNo, 1})
+			break
+		}
 		at := func(byteCol int) Pos { return Pos{file, lineNo, first.Col - 1 + RuneCol(line, byteCol)} }
 		if t := strings.IndexByte(line, '\t'); t >= 0 {
 			if strings.TrimLeft(line[:t], " ") == "" {

@@ -17,13 +17,19 @@ type tsvRow struct {
 }
 
 // readTSV calls each for every non-empty line of text, in order, until it
-// returns false. The row and its Cells slice are reused for the next line,
-// so each must not keep them; the cell strings themselves may be kept.
-func readTSV(text string, each func(row *tsvRow) bool) {
+// returns false, or until ds (the problems of file) is full: the rest of
+// a file with MaxProblemsPerFile problems is not read. The row and its
+// Cells slice are reused for the next line, so each must not keep them;
+// the cell strings themselves may be kept.
+func readTSV(file, text string, ds *Diags, each func(row *tsvRow) bool) {
 	row := &tsvRow{}
 	line := 0
 	for len(text) > 0 || line == 0 {
 		line++
+		if ds.Full() {
+			ds.StopAt(Pos{file, line, 1})
+			return
+		}
 		var cur string
 		if nl := strings.IndexByte(text, '\n'); nl >= 0 {
 			cur, text = text[:nl], text[nl+1:]

@@ -295,6 +295,10 @@ func (p *Project) checkRefs(cf *format.ConstraintFile) format.Diags {
 	check := func(refs []format.Ref) {
 		for _, r := range refs {
 			if _, ok := p.Index[r.ID]; !ok {
+				if ds.Full() {
+					ds.Add(r.Pos, "")
+					continue
+				}
 				ds.Add(r.Pos, "unknown item %q%s", r.ID, p.suggestItem(r.ID))
 			}
 		}
@@ -366,7 +370,12 @@ func (p *Project) OutlineMembership() format.Diags {
 				if i < len(c.ItemLines) {
 					line = c.ItemLines[i]
 				}
-				ds.Add(format.Pos{File: rel, Line: line, Col: 1}, "item %q is not in the items files%s", id, p.suggestItem(id))
+				at := format.Pos{File: rel, Line: line, Col: 1}
+				if ds.Full() { // counted only: no suggestion to look for
+					ds.Add(at, "")
+					continue
+				}
+				ds.Add(at, "item %q is not in the items files%s", id, p.suggestItem(id))
 			}
 		}
 		return true

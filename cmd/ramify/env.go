@@ -113,7 +113,11 @@ func problemsJSON(ds format.Diags) []problemJSON {
 		if col < 1 {
 			col = 1
 		}
-		out = append(out, problemJSON{File: d.File, Line: line, Col: col, Message: d.Msg})
+		msg := d.Msg
+		if d.More > 0 { // a count of problems left out
+			msg = d.String()
+		}
+		out = append(out, problemJSON{File: d.File, Line: line, Col: col, Message: msg})
 	}
 	return out
 }
@@ -128,12 +132,15 @@ func (e *env) finish(c *command, err error) int {
 	case err == nil:
 	case errors.As(err, &ds):
 		code = exitUsage
-		e.report["problems"] = problemsJSON(ds)
-		for _, d := range ds {
+		shown := ds.Capped()
+		e.report["problems"] = problemsJSON(shown)
+		for _, d := range shown {
 			fmt.Fprintln(e.stderr, d.String())
 		}
-		if len(ds) > 1 {
-			fmt.Fprintf(e.stderr, "%d problems; nothing was written\n", len(ds))
+		if n := ds.Count(); ds.Stopped() {
+			fmt.Fprintf(e.stderr, "at least %d problems; nothing was written\n", n)
+		} else if n > 1 {
+			fmt.Fprintf(e.stderr, "%d problems; nothing was written\n", n)
 		} else {
 			fmt.Fprintln(e.stderr, "nothing was written")
 		}
