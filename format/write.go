@@ -9,12 +9,29 @@ import (
 // sees either the old file or the new one, never a half-written file: the
 // bytes go to a temporary file in the same folder, are synced, and the
 // temporary file is renamed over the target. Every command that writes uses
-// this helper.
-func WriteFileAtomic(path string, data []byte, perm os.FileMode) (err error) {
-	dir := filepath.Dir(path)
-	tmp, err := os.CreateTemp(dir, "."+filepath.Base(path)+".tmp-*")
+// this helper. A crash can leave the temporary file behind; its name
+// carries the writer's process id so that CleanStaleTemps can tell it from
+// one another ramify is still writing.
+func WriteFileAtomic(path string, data []byte, perm os.FileMode) error {
+	tmp, err := StageFile(path, data, perm)
 	if err != nil {
 		return err
+	}
+	if err := os.Rename(tmp, path); err != nil {
+		os.Remove(tmp)
+		return err
+	}
+	SyncDir(filepath.Dir(path))
+	return nil
+}
+
+// StageFile writes data to a new temporary file beside path (synced, with
+// perm) and returns its name, for a caller that renames it over path
+// later, together with other files.
+func StageFile(path string, data []byte, perm os.FileMode) (_ string, err error) {
+	tmp, err := os.CreateTemp(filepath.Dir(path), tempPattern(path))
+	if err != nil {
+		return "", err
 	}
 	defer func() {
 		if err != nil {
@@ -23,25 +40,25 @@ func WriteFileAtomic(path string, data []byte, perm os.FileMode) (err error) {
 		}
 	}()
 	if _, err = tmp.Write(data); err != nil {
-		return err
+		return "", err
 	}
 	if err = tmp.Sync(); err != nil {
-		return err
+		return "", err
 	}
 	if err = tmp.Chmod(perm); err != nil {
-		return err
+		return "", err
 	}
 	if err = tmp.Close(); err != nil {
-		return err
+		return "", err
 	}
-	if err = os.Rename(tmp.Name(), path); err != nil {
-		return err
-	}
-	// Sync the folder so the rename itself survives a crash. Some file
-	// systems refuse to sync a directory; the rename has happened anyway.
-	if d, derr := os.Open(dir); derr == nil {
+	return tmp.Name(), nil
+}
+
+// SyncDir syncs a folder so that renames in it survive a crash. Some file
+// systems refuse to sync a directory; the renames have happened anyway.
+func SyncDir(dir string) {
+	if d, err := os.Open(dir); err == nil {
 		d.Sync()
 		d.Close()
 	}
-	return nil
 }

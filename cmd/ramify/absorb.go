@@ -2,7 +2,6 @@ package main
 
 import (
 	"os"
-	"path/filepath"
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
@@ -105,7 +104,7 @@ func runAbsorb(e *env, args []string) error {
 	if err := checkAbsorbed(e, p, added); err != nil {
 		return err
 	}
-	if err := applyAbsorbWrites(p.Dir, writes); err != nil {
+	if err := commitWrites(p.Dir, writes); err != nil {
 		return err
 	}
 	reportAbsorb(e, p, absorbed, edit, plan.pending)
@@ -138,39 +137,6 @@ func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) e
 			conflict.Records = append(conflict.Records, compiled.Records[r])
 		}
 		return solveError(e, conflict)
-	}
-	return nil
-}
-
-// applyAbsorbWrites writes every new file, then removes the absorbed
-// packets from reviews/open. Every path is resolved inside the repository
-// first, so a bad path stops absorb before anything is written.
-func applyAbsorbWrites(dir string, writes []absorbWrite) error {
-	full := make([]string, len(writes))
-	for i, w := range writes {
-		f, err := project.Resolve(dir, w.rel)
-		if err != nil {
-			return err
-		}
-		full[i] = f
-	}
-	for i, w := range writes {
-		if w.remove {
-			continue
-		}
-		if err := os.MkdirAll(filepath.Dir(full[i]), 0o755); err != nil {
-			return err
-		}
-		if err := format.WriteFileAtomic(full[i], w.data, 0o644); err != nil {
-			return err
-		}
-	}
-	for i, w := range writes {
-		if w.remove {
-			if err := os.Remove(full[i]); err != nil {
-				return err
-			}
-		}
 	}
 	return nil
 }

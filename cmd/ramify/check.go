@@ -25,7 +25,9 @@ since ramify wrote it (run "ramify absorb" to record such edits), the
 constraints agree with each other, the outline honours every one of them,
 and it is what "ramify solve" would write now.
 
-check never writes a file.`,
+check never writes a file. Like every command, it first finishes an
+absorb that was interrupted (its journal) and removes temporary files a
+killed run left behind.`,
 		run: runCheck,
 	})
 }

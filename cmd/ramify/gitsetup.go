@@ -18,6 +18,10 @@ func init() {
   .gitattributes   *.outline files get diff=ramify merge=ramify (other
                    attributes on that line are kept; the line is added
                    when there is none)
+  .gitignore       ramify's temporary files (.NAME.tmp-*) and the journal of
+                   an interrupted absorb, so that a crash never shows in
+                   "git status" (the next ramify command removes or
+                   finishes them)
   .git/config      the local config of the drivers (git config --local)
 
 Afterwards "git diff" shows what changed in an outline as ramify diff
@@ -92,6 +96,11 @@ func gitSetup(e *env, dir string) ([]string, error) {
 		}
 		changes = append(changes, verb+" .gitattributes: "+outlinePattern+" "+strings.Join(driverAttributes, " "))
 	}
+	ignored, err := ignoreTempFiles(dir)
+	if err != nil {
+		return changes, err
+	}
+	changes = append(changes, ignored...)
 	prog, temporary := driverProgram()
 	if temporary {
 		e.notice("note: this ramify is a temporary build (go run); the git config will stop working when it is gone. Install ramify (go install ./cmd/ramify) and run `ramify git-setup` again.")
@@ -126,4 +135,38 @@ func gitSetupForInit(e *env, dir string) error {
 		e.say("%s", c)
 	}
 	return err
+}
+
+// ignoreTempFiles adds the patterns of ramify's temporary files and
+// journal to the .gitignore of dir, each when no line has it yet, and says
+// what it changed.
+func ignoreTempFiles(dir string) ([]string, error) {
+	path := filepath.Join(dir, ".gitignore")
+	old, err := format.ReadFileLimited(path, ".gitignore", format.MaxSmallFileBytes)
+	if err != nil && !errors.Is(err, fs.ErrNotExist) {
+		return nil, err
+	}
+	have := map[string]bool{}
+	for _, l := range strings.Split(string(old), "\n") {
+		have[strings.TrimSpace(l)] = true
+	}
+	var missing []string
+	for _, p := range format.TempIgnorePatterns {
+		if !have[p] {
+			missing = append(missing, p)
+		}
+	}
+	if len(missing) == 0 {
+		return nil, nil
+	}
+	text := string(old)
+	if text != "" && !strings.HasSuffix(text, "\n") {
+		text += "\n"
+	}
+	text += "# Left by an interrupted ramify run; the next ramify command cleans up (ramify git-setup).\n"
+	text += strings.Join(missing, "\n") + "\n"
+	if err := format.WriteFileAtomic(path, []byte(text), 0o644); err != nil {
+		return nil, err
+	}
+	return []string{"updated .gitignore: " + strings.Join(missing, " ")}, nil
 }

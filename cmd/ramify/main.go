@@ -96,6 +96,14 @@ func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
 		return 0
 	}
 	e := newEnv(o, fs, stdout, stderr)
+	// git runs its drivers on temporary files, outside the repository's
+	// own writes; every other command first finishes what an interrupted
+	// run left behind.
+	if !strings.HasPrefix(c.name, "git-") {
+		if err := recoverInterrupted(e); err != nil {
+			return e.finish(c, err)
+		}
+	}
 	err := c.run(e, fs.Args())
 	return e.finish(c, err)
 }

@@ -38,6 +38,7 @@ func TestScripts(t *testing.T) {
 			// Decisions that must survive (decision_script_test.go).
 			"movecategory":  cmdMoveCategory,
 			"uniquerecords": cmdUniqueRecords,
+			"killtrials":    cmdKillTrials,
 		},
 		UpdateScripts: os.Getenv("RAMIFY_UPDATE") == "1",
 	})
