@@ -37,6 +37,10 @@ type Project struct {
 	// Outline is the committed taxonomy, nil when the file does not exist
 	// yet (a new repository before its first solve).
 	Outline *format.Outline
+	// Warnings are inputs that are not read but are no error: files in
+	// the constraints folder that look meant as constraint files. Every
+	// command may go on; `check --strict` fails on them.
+	Warnings format.Diags
 	// OutlineText is the outline file's bytes as read.
 	OutlineText []byte
 	// itemsBroken is set when an items file failed to parse; references
@@ -59,7 +63,7 @@ func (p *Project) OutlinePath() string {
 func Load(dir string) (*Project, format.Diags) {
 	p := &Project{Dir: dir, Index: map[string]int{}, Links: map[string]*format.LinkTable{}}
 	var ds format.Diags
-	settingsData, err := format.ReadFileLimited(filepath.Join(dir, SettingsFile), SettingsFile, format.MaxSmallFileBytes)
+	settingsData, err := ReadSettingsFile(dir)
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
 			ds.Add(format.Pos{File: SettingsFile}, "no %s here; run `ramify init` to start a taxonomy repository, or pass --dir", SettingsFile)
@@ -237,29 +241,59 @@ func sourceKey(i int, key string) string {
 
 // ConstraintFiles lists the constraint files of the repository in sorted
 // order, as repository-relative slash paths. Links and non-regular files
-// are skipped: nothing outside the repository is ever read through them.
+// are never read: nothing outside the repository is read through them.
 func ConstraintFiles(dir string) ([]string, error) {
-	entries, err := os.ReadDir(filepath.Join(dir, ConstraintsDir))
+	files, _, err := constraintEntries(dir)
+	return files, err
+}
+
+// constraintEntries lists the constraint files, and what lies in the
+// constraints folder that looks meant as one but is not read: a link, a
+// folder, a hidden .toml file, or a name ending in ".TOML" or the like.
+func constraintEntries(dir string) (files []string, skipped format.Diags, err error) {
+	folder, err := Resolve(dir, ConstraintsDir)
+	if err != nil {
+		return nil, nil, err
+	}
+	entries, err := os.ReadDir(folder)
 	if errors.Is(err, fs.ErrNotExist) {
-		return nil, nil
+		return nil, nil, nil
 	}
 	if err != nil {
-		return nil, err
+		return nil, nil, err
 	}
-	var out []string
 	for _, e := range entries {
-		if !e.Type().IsRegular() || !strings.HasSuffix(e.Name(), ".toml") || strings.HasPrefix(e.Name(), ".") {
-			continue
+		name := e.Name()
+		rel := ConstraintsDir + "/" + name
+		at := format.Pos{File: rel}
+		tomlish := strings.HasSuffix(strings.ToLower(name), ".toml")
+		switch {
+		case e.Type().IsRegular() && strings.HasSuffix(name, ".toml") && !strings.HasPrefix(name, "."):
+			files = append(files, rel)
+		case e.Type()&fs.ModeSymlink != 0:
+			skipped.Add(at, "a symbolic link; constraint files must be plain files, so it is not read")
+		case e.IsDir():
+			skipped.Add(at, "a folder; constraint files must lie directly in %s/, so nothing in it is read", ConstraintsDir)
+		case !tomlish:
+			// Not meant as a constraint file (a README, the .keep
+			// placeholder).
+		case strings.HasPrefix(name, "."):
+			skipped.Add(at, "a hidden file; it is not read (remove the leading \".\" to make it a constraint file)")
+		case !e.Type().IsRegular():
+			skipped.Add(at, "not a plain file; it is not read")
+		default:
+			skipped.Add(at, "constraint files end in \".toml\" (lower case); this one is not read")
 		}
-		out = append(out, ConstraintsDir+"/"+e.Name())
 	}
-	sort.Strings(out)
-	return out, nil
+	sort.Strings(files)
+	skipped.Sort()
+	return files, skipped, nil
 }
 
 func (p *Project) loadConstraints() format.Diags {
 	var ds format.Diags
-	files, err := ConstraintFiles(p.Dir)
+	files, skipped, err := constraintEntries(p.Dir)
+	p.Warnings = append(p.Warnings, skipped...)
 	if err != nil {
 		return format.Diags{{Pos: format.Pos{File: ConstraintsDir}, Msg: err.Error()}}
 	}

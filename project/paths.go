@@ -9,13 +9,15 @@ import (
 	"os"
 	"path/filepath"
 	"strings"
+
+	"github.com/ramify-tax/ramify/format"
 )
 
-// Resolve turns a repository-relative path from a settings file into a
-// path on disk, refusing anything that would leave the repository: an
-// absolute path, "..", or a symbolic link that points outside. Inputs can
-// come from an untrusted pull request, so this is the only way project
-// code turns a configured name into a file to open.
+// Resolve turns a repository-relative path into a path on disk, refusing
+// anything that would leave the repository: an absolute path, "..", a
+// symbolic link that points outside, or anything under .git. Inputs can
+// come from an untrusted pull request, so every file ramify reads or
+// writes in a repository goes through Resolve.
 func Resolve(root, rel string) (string, error) {
 	if rel == "" {
 		return "", errors.New("empty path")
@@ -26,6 +28,13 @@ func Resolve(root, rel string) (string, error) {
 	clean := filepath.Clean(filepath.FromSlash(rel))
 	if clean == ".." || strings.HasPrefix(clean, ".."+string(filepath.Separator)) {
 		return "", fmt.Errorf("path %q leaves the repository", rel)
+	}
+	for _, part := range strings.Split(clean, string(filepath.Separator)) {
+		// git's own files are never ramify's to read or write (and a
+		// case-insensitive file system folds ".GIT" into ".git").
+		if strings.EqualFold(part, ".git") {
+			return "", fmt.Errorf("path %q points into .git", rel)
+		}
 	}
 	full := filepath.Join(root, clean)
 	rootReal, err := filepath.EvalSymlinks(root)
@@ -54,4 +63,15 @@ func Resolve(root, rel string) (string, error) {
 		return "", fmt.Errorf("path %q leads outside the repository", rel)
 	}
 	return full, nil
+}
+
+// ReadSettingsFile reads dir's ramify.toml through Resolve, so that a
+// settings file linked to somewhere outside the repository is refused.
+// A missing file is an error that wraps fs.ErrNotExist.
+func ReadSettingsFile(dir string) ([]byte, error) {
+	full, err := Resolve(dir, SettingsFile)
+	if err != nil {
+		return nil, fmt.Errorf("%s: %w", SettingsFile, err)
+	}
+	return format.ReadFileLimited(full, SettingsFile, format.MaxSmallFileBytes)
 }

@@ -40,6 +40,8 @@ func TestResolveStaysInside(t *testing.T) {
 		{"escape/items.toml", false, "leads outside the repository"},
 		{`data\items.tsv`, false, "must be relative"},
 		{"", false, "empty path"},
+		{".git/config", false, "points into .git"},
+		{"data/.GIT/hooks/x", false, "points into .git"},
 	}
 	for _, c := range cases {
 		got, err := Resolve(root, c.rel)

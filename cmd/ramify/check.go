@@ -9,6 +9,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
+	"github.com/spf13/pflag"
 )
 
 func init() {
@@ -25,9 +26,15 @@ since ramify wrote it (run "ramify absorb" to record such edits), the
 constraints agree with each other, the outline honours every one of them,
 and it is what "ramify solve" would write now.
 
+Inputs that are not read (a linked, hidden or nested constraint file, or
+one named *.TOML) are warnings; --strict makes them problems.
+
 check never writes a file. Like every command, it first finishes an
 absorb that was interrupted (its journal) and removes temporary files a
 killed run left behind.`,
+		flags: func(fs *pflag.FlagSet, o *options) {
+			o.extra["strict"] = fs.Bool("strict", false, "treat warnings (inputs that are not read) as problems")
+		},
 		run: runCheck,
 	})
 }
@@ -39,6 +46,9 @@ func runCheck(e *env, args []string) error {
 	p, ds := project.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
+	}
+	if *e.opt.extra["strict"].(*bool) && len(p.Warnings) > 0 {
+		return p.Warnings
 	}
 	if _, err := checkRepository(e, p); err != nil {
 		return err
@@ -54,6 +64,12 @@ func runCheck(e *env, args []string) error {
 // when it passes). release runs it as its first gate.
 func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 	e.report["items"] = len(p.Items)
+	if len(p.Warnings) > 0 {
+		e.report["warnings"] = problemsJSON(p.Warnings.Capped())
+		for _, w := range p.Warnings.Capped() {
+			e.notice("warning: %s", w.String())
+		}
+	}
 	counts := countRecords(p.Constraints)
 	e.report["constraints"] = counts
 	rel := p.Settings.Taxonomy.File

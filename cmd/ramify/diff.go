@@ -284,7 +284,7 @@ func readDiffFile(dir, arg string) (*diffSide, error) {
 // folder now; it goes by its repository-relative name.
 func currentOutline(dir string) (*diffSide, error) {
 	settings := format.DefaultSettings()
-	data, err := format.ReadFileLimited(filepath.Join(dir, project.SettingsFile), project.SettingsFile, format.MaxSmallFileBytes)
+	data, err := project.ReadSettingsFile(dir)
 	switch {
 	case err == nil:
 		if settings, err = format.ParseSettings(project.SettingsFile, data); err != nil {

@@ -3,10 +3,10 @@ package main
 import (
 	"errors"
 	"io/fs"
-	"path/filepath"
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
 )
 
 func init() {
@@ -79,7 +79,10 @@ func gitSetup(e *env, dir string) ([]string, error) {
 		return nil, err
 	}
 	var changes []string
-	path := filepath.Join(dir, ".gitattributes")
+	path, err := project.Resolve(dir, ".gitattributes")
+	if err != nil {
+		return nil, err
+	}
 	old, err := format.ReadFileLimited(path, ".gitattributes", format.MaxSmallFileBytes)
 	if err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return nil, err
@@ -141,7 +144,10 @@ func gitSetupForInit(e *env, dir string) error {
 // journal to the .gitignore of dir, each when no line has it yet, and says
 // what it changed.
 func ignoreTempFiles(dir string) ([]string, error) {
-	path := filepath.Join(dir, ".gitignore")
+	path, err := project.Resolve(dir, ".gitignore")
+	if err != nil {
+		return nil, err
+	}
 	old, err := format.ReadFileLimited(path, ".gitignore", format.MaxSmallFileBytes)
 	if err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return nil, err

@@ -66,7 +66,11 @@ func importTaxonomy(e *env, dir, from string) error {
 		return err
 	}
 	for _, f := range []scaffoldFile{{importOutlineFile, string(outlineText)}, {importItemsFile, string(itemsText)}} {
-		if err := format.WriteFileAtomic(filepath.Join(dir, f.path), []byte(f.content), 0o644); err != nil {
+		full, err := project.Resolve(dir, f.path)
+		if err != nil {
+			return failf("%s: %v", f.path, err)
+		}
+		if err := format.WriteFileAtomic(full, []byte(f.content), 0o644); err != nil {
 			return err
 		}
 	}
@@ -150,7 +154,7 @@ func checkImportTargets(dir string) error {
 			return err
 		}
 	}
-	data, err := format.ReadFileLimited(filepath.Join(dir, project.SettingsFile), project.SettingsFile, format.MaxSmallFileBytes)
+	data, err := project.ReadSettingsFile(dir)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil
 	}

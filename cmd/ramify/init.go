@@ -7,6 +7,7 @@ import (
 	"path/filepath"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/project"
 )
 
 func init() {
@@ -81,9 +82,19 @@ func runInit(e *env, args []string) error {
 		{"reviews/open/.keep", ""},
 		{"reviews/done/.keep", ""},
 	}
+	// Resolve every target first: a linked folder that leads outside
+	// stops init before it writes anything.
+	fulls := make([]string, len(files))
+	for i, f := range files {
+		full, err := project.Resolve(dir, f.path)
+		if err != nil {
+			return failf("%s: %v; nothing was written", f.path, err)
+		}
+		fulls[i] = full
+	}
 	var wrote, kept []string
-	for _, f := range files {
-		full := filepath.Join(dir, filepath.FromSlash(f.path))
+	for i, f := range files {
+		full := fulls[i]
 		if _, err := os.Lstat(full); err == nil {
 			kept = append(kept, f.path)
 			continue

@@ -122,7 +122,11 @@ func runRelease(e *env, args []string) error {
 		return ds
 	}
 	manifestRel := "releases/" + version + ".toml"
-	if _, err := os.Stat(filepath.Join(dir, filepath.FromSlash(manifestRel))); err == nil {
+	manifestPath, err := project.Resolve(dir, manifestRel)
+	if err != nil {
+		return failf("%s: %v", manifestRel, err)
+	}
+	if _, err := os.Stat(manifestPath); err == nil {
 		return failf("release %s exists already (%s); choose a new version", version, manifestRel)
 	}
 
@@ -186,7 +190,11 @@ func runRelease(e *env, args []string) error {
 	c := countRecords(p.Constraints)
 	m.Constraints = manifestRecords{Records: c.Records, Triplets: sol.Compiled.Triplets, Groups: sol.Compiled.Groups, Shapes: c.Shapes}
 	for _, rel := range inputs {
-		data, err := os.ReadFile(filepath.Join(dir, filepath.FromSlash(rel)))
+		full, err := project.Resolve(dir, rel)
+		if err != nil {
+			return err
+		}
+		data, err := format.ReadFileLimited(full, rel, format.MaxDataFileBytes)
 		if err != nil {
 			return err
 		}
@@ -224,18 +232,25 @@ func runRelease(e *env, args []string) error {
 		e.say("  %s", summaryLine(m))
 		return nil
 	}
-	outDir := filepath.Join(dir, "releases", version)
-	if err := os.MkdirAll(outDir, 0o755); err != nil {
+	// Every target is resolved before anything is written, so a release
+	// folder that leads outside the repository writes nothing at all.
+	targets := make([]string, len(names))
+	for i, name := range names {
+		if targets[i], err = project.Resolve(dir, "releases/"+version+"/"+name); err != nil {
+			return failf("releases/%s/%s: %v", version, name, err)
+		}
+	}
+	if err := os.MkdirAll(filepath.Dir(targets[0]), 0o755); err != nil {
 		return err
 	}
 	written := []string{}
-	for _, name := range names {
-		if err := format.WriteFileAtomic(filepath.Join(outDir, name), exports[name], 0o644); err != nil {
+	for i, name := range names {
+		if err := format.WriteFileAtomic(targets[i], exports[name], 0o644); err != nil {
 			return err
 		}
 		written = append(written, "releases/"+version+"/"+name)
 	}
-	if err := format.WriteFileAtomic(filepath.Join(dir, filepath.FromSlash(manifestRel)), buf.Bytes(), 0o644); err != nil {
+	if err := format.WriteFileAtomic(manifestPath, buf.Bytes(), 0o644); err != nil {
 		return err
 	}
 	written = append(written, manifestRel)
@@ -292,7 +307,11 @@ func sha256Hex(b []byte) string {
 
 // packetFiles lists the .outline files of a reviews folder.
 func packetFiles(dir, rel string) ([]string, error) {
-	entries, err := os.ReadDir(filepath.Join(dir, filepath.FromSlash(rel)))
+	folder, err := project.Resolve(dir, rel)
+	if err != nil {
+		return nil, err
+	}
+	entries, err := os.ReadDir(folder)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil, nil
 	}
@@ -318,7 +337,11 @@ func readDonePackets(dir string) ([]*format.Packet, error) {
 	var out []*format.Packet
 	var ds format.Diags
 	for _, rel := range files {
-		data, err := format.ReadFileLimited(filepath.Join(dir, filepath.FromSlash(rel)), rel, format.MaxSmallFileBytes)
+		full, err := project.Resolve(dir, rel)
+		if err != nil {
+			return nil, err
+		}
+		data, err := format.ReadFileLimited(full, rel, format.MaxSmallFileBytes)
 		if err != nil {
 			ds = append(ds, format.AsDiags(err, rel)...)
 			continue
@@ -423,7 +446,11 @@ func releaseExports(p *project.Project, version string) (map[string][]byte, erro
 // previousRelease finds the newest earlier release (by manifest date, then
 // version) whose exported outline is readable.
 func previousRelease(dir string) (string, *format.Category) {
-	entries, err := os.ReadDir(filepath.Join(dir, "releases"))
+	releases, err := project.Resolve(dir, "releases")
+	if err != nil {
+		return "", nil
+	}
+	entries, err := os.ReadDir(releases)
 	if err != nil {
 		return "", nil
 	}
@@ -435,7 +462,7 @@ func previousRelease(dir string) (string, *format.Category) {
 			continue
 		}
 		var m releaseManifest
-		if _, err := toml.DecodeFile(filepath.Join(dir, "releases", en.Name()), &m); err != nil {
+		if _, err := toml.DecodeFile(filepath.Join(releases, en.Name()), &m); err != nil {
 			continue
 		}
 		found = append(found, rel{name, m.Date})
@@ -447,7 +474,10 @@ func previousRelease(dir string) (string, *format.Category) {
 		return found[i].version > found[j].version
 	})
 	for _, r := range found {
-		path := filepath.Join(dir, "releases", r.version, "taxonomy.outline")
+		path, err := project.Resolve(dir, "releases/"+r.version+"/taxonomy.outline")
+		if err != nil {
+			continue
+		}
 		data, err := format.ReadFileLimited(path, path, format.MaxOutlineBytes)
 		if err != nil {
 			continue
