@@ -43,6 +43,10 @@ type Project struct {
 	Warnings format.Diags
 	// OutlineText is the outline file's bytes as read.
 	OutlineText []byte
+	// NameSources are other versions of the outline (the other side of a
+	// merge) whose confirmed names were typed by people and count as such
+	// when naming a regenerated tree (see nameCategories).
+	NameSources []*format.Category
 	// itemsBroken is set when an items file failed to parse; references
 	// to items are then not checked.
 	itemsBroken bool

@@ -8,8 +8,10 @@ import (
 
 // nameCategories names a freshly solved tree: named groups fix their
 // category's name, categories that match one of the previous outline take
-// its name, and the rest get a provisional name from their members' tags
-// and words.
+// its name, names people typed (in answered packets, the shape records,
+// and in NameSources) replace provisional ones where the category they
+// name still exists, and the rest get a provisional name from their
+// members' tags and words.
 func (p *Project) nameCategories(root, prev *format.Category) naming.Counts {
 	var fixed []naming.Fixed
 	for _, f := range p.Constraints {
@@ -38,7 +40,35 @@ func (p *Project) nameCategories(root, prev *format.Category) naming.Counts {
 		cache[id] = w
 		return w
 	}
-	return naming.Assign(root, prev, fixed, words)
+	var typed []naming.Typed
+	for _, src := range p.NameSources {
+		typed = append(typed, TypedNames(src)...)
+	}
+	for _, f := range p.Constraints {
+		for _, s := range f.Shapes {
+			typed = append(typed, TypedNames(s.Tree)...)
+		}
+	}
+	return naming.AssignTyped(root, prev, fixed, typed, words)
+}
+
+// TypedNames lists the confirmed category names of a tree (a shape's
+// outline, or another version of the taxonomy) as names typed by people,
+// each over the items of the tree. Provisional names are left out: ramify
+// made them up.
+func TypedNames(tree *format.Category) []naming.Typed {
+	if tree == nil {
+		return nil
+	}
+	scope := tree.AllItems()
+	var out []naming.Typed
+	tree.Walk(func(c *format.Category, _ int) bool {
+		if c != tree && c.Name != "" && !c.Provisional {
+			out = append(out, naming.Typed{Items: c.AllItems(), Scope: scope, Name: c.Name})
+		}
+		return true
+	})
+	return out
 }
 
 // unnamingWords are words that describe an item well enough but never

@@ -62,14 +62,44 @@ func CheckAnswer(a *Answer, known func(id string) bool, shown *format.Category) 
 		return nil
 	}
 	same := SameShape(shown, p.Tree)
+	named := TypesNewName(shown, p.Tree)
 	verdictAt := format.Pos{File: a.File, Line: lineOf(a.Data, "verdict:"), Col: 1}
 	switch {
 	case p.Verdict == format.VerdictOK && !same:
 		ds.Add(verdictAt, "the verdict is ok but the tree below was changed; write \"verdict: fixed\" if the changed tree is your answer")
-	case p.Verdict == format.VerdictFixed && same:
+	case p.Verdict == format.VerdictOK && named:
+		ds.Add(verdictAt, "the verdict is ok but a category was renamed; write \"verdict: fixed\" to record the name")
+	case p.Verdict == format.VerdictFixed && same && !named:
 		ds.Add(verdictAt, "the verdict is fixed but the tree groups the items as drawn; move lines to show the right grouping, or write \"verdict: ok\"")
 	}
 	return ds
+}
+
+// TypesNewName reports whether the answer names a category (a confirmed
+// name) that the packet as drawn did not name so: a name typed by the
+// reviewer, which a "fixed" answer records.
+func TypesNewName(shown, answer *format.Category) bool {
+	had := map[string]string{}
+	shown.Walk(func(c *format.Category, _ int) bool {
+		if c != shown {
+			had[strings.Join(sortedItems(c), "\x00")] = c.DisplayName()
+		}
+		return true
+	})
+	found := false
+	answer.Walk(func(c *format.Category, _ int) bool {
+		if c != answer && !c.Provisional && had[strings.Join(sortedItems(c), "\x00")] != c.DisplayName() {
+			found = true
+		}
+		return !found
+	})
+	return found
+}
+
+func sortedItems(c *format.Category) []string {
+	ids := c.AllItems()
+	slices.Sort(ids)
+	return ids
 }
 
 // SameShape reports whether two trees over the same items resolve the

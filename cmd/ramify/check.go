@@ -88,6 +88,9 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 	if p.Outline.Edited() {
 		return nil, failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints", rel)
 	}
+	if err := checkGroupNames(p); err != nil {
+		return nil, err
+	}
 	root := p.Outline.Root
 	e.report["categories"] = root.CountCategories()
 	e.report["depth"] = root.Depth()

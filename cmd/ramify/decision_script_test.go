@@ -257,3 +257,43 @@ func repoFiles(ts *testscript.TestScript, dir string) map[string]string {
 	}))
 	return out
 }
+
+// cmdTypeName answers the first of the packets that shows a provisional
+// category: typename NAME REVIEWER GLOB... renames that category to NAME,
+// as a reviewer would type it, and sets the verdict to fixed.
+func cmdTypeName(ts *testscript.TestScript, neg bool, args []string) {
+	if neg || len(args) < 3 {
+		ts.Fatalf("usage: typename NAME REVIEWER GLOB...")
+	}
+	var files []string
+	for _, pat := range args[2:] {
+		m, err := filepath.Glob(ts.MkAbs(pat))
+		ts.Check(err)
+		files = append(files, m...)
+	}
+	slices.Sort(files)
+	for _, f := range files {
+		data, err := os.ReadFile(f)
+		ts.Check(err)
+		lines := strings.Split(string(data), "\n")
+		renamed := false
+		for i, l := range lines {
+			t := strings.TrimLeft(l, " ")
+			switch {
+			case strings.HasPrefix(l, "verdict:"):
+				lines[i] = "verdict: fixed"
+			case strings.HasPrefix(l, "reviewer:"):
+				lines[i] = "reviewer: " + args[1]
+			case !renamed && !strings.HasPrefix(l, "#") && strings.HasPrefix(t, "~ ") && strings.HasSuffix(t, "/"):
+				lines[i] = l[:len(l)-len(t)] + args[0] + "/"
+				renamed = true
+			}
+		}
+		if renamed {
+			ts.Check(os.WriteFile(f, []byte(strings.Join(lines, "\n")), 0o644))
+			ts.Logf("typed %q in %s", args[0], filepath.Base(f))
+			return
+		}
+	}
+	ts.Fatalf("no packet shows a provisional category")
+}

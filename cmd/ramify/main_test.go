@@ -39,6 +39,7 @@ func TestScripts(t *testing.T) {
 			"movecategory":  cmdMoveCategory,
 			"uniquerecords": cmdUniqueRecords,
 			"killtrials":    cmdKillTrials,
+			"typename":      cmdTypeName,
 		},
 		UpdateScripts: os.Getenv("RAMIFY_UPDATE") == "1",
 	})

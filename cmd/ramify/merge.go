@@ -224,6 +224,7 @@ func (m *outlineMerge) loadMerged(scratch string) (*project.Project, error) {
 	if err := os.WriteFile(outlinePath, oursData, 0o644); err != nil {
 		return nil, err
 	}
+	var theirs *format.Category
 	for _, side := range []struct{ file, who string }{{m.ours, "this branch"}, {m.theirs, "the merged branch"}} {
 		data, err := format.ReadFileLimited(side.file, outlineRel, format.MaxOutlineBytes)
 		if err != nil {
@@ -237,6 +238,7 @@ func (m *outlineMerge) loadMerged(scratch string) (*project.Project, error) {
 		if o.Edited() {
 			return nil, m.unresolved(fmt.Sprintf("%s on %s was reshaped by hand and the edit is not absorbed yet; regenerating would lose it (run `ramify absorb` there)", outlineRel, side.who))
 		}
+		theirs = o.Root
 	}
 	p, ds := project.Load(scratch)
 	if len(ds) > 0 {
@@ -246,6 +248,10 @@ func (m *outlineMerge) loadMerged(scratch string) (*project.Project, error) {
 		}
 		return nil, &failure{lines: append(lines, m.advice()...)}
 	}
+	// Ours is the previous version, whose names carry over; a name an
+	// editor typed on the other branch (a provisional name confirmed or
+	// replaced) counts as typed, so the merge keeps it too.
+	p.NameSources = []*format.Category{theirs}
 	return p, nil
 }
 

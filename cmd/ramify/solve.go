@@ -57,6 +57,9 @@ func runSolve(e *env, args []string) error {
 	if p.Outline != nil && p.Outline.Edited() {
 		return failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints, then solve again", rel)
 	}
+	if err := checkGroupNames(p); err != nil {
+		return err
+	}
 	sol, err := p.Regenerate(method, e.progressFunc())
 	e.endProgress()
 	if err != nil {

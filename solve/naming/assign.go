@@ -19,9 +19,21 @@ type Fixed struct {
 	Name  string
 }
 
+// Typed is a category name a person typed somewhere other than a named
+// group: in an answered review packet (a shape record) or in another
+// version of the outline. Items are the members of the named category
+// among Scope, the items that place shows; the category it names in a new
+// tree is the lowest one whose members among Scope are exactly Items.
+type Typed struct {
+	Items []string
+	Scope []string
+	Name  string
+}
+
 // Counts says how the categories got their names.
 type Counts struct {
 	Fixed       int // from a named group
+	Typed       int // typed by a person in a packet or another outline
 	Carried     int // from the matching category of the previous version
 	Provisional int // made up from the members' words
 	Suffixed    int // given " 2", " 3", … to differ from a sibling
@@ -56,6 +68,18 @@ const CarryJaccard = 0.5
 // smallest item id — and the others get " 2", " 3", … (the first number
 // no sibling uses). The outcome depends only on the inputs.
 func Assign(root, prev *format.Category, fixed []Fixed, words func(item string) []string) Counts {
+	return AssignTyped(root, prev, fixed, nil, words)
+}
+
+// AssignTyped is Assign with names typed by people (see Typed): after the
+// names of groups and those carried over, a category whose name would be
+// provisional — carried provisional, or made up — takes the name a person
+// typed for it, wherever that category still exists. When several typed
+// names fall on one category, the last in typed wins (records are read in
+// order, so the newest answer is usually last). A typed name never
+// replaces a confirmed one, and names that format.CheckCategoryName
+// rejects are ignored.
+func AssignTyped(root, prev *format.Category, fixed []Fixed, typed []Typed, words func(item string) []string) Counts {
 	cats := categories(root)
 	claims := make([]claim, len(cats))
 	var counts Counts
@@ -101,6 +125,12 @@ func Assign(root, prev *format.Category, fixed []Fixed, words func(item string) 
 		}
 	}
 
+	if len(typed) > 0 {
+		var fromCarried int
+		counts.Typed, fromCarried = applyTyped(cats, claims, typed)
+		counts.Carried -= fromCarried
+	}
+
 	maker := newWordCounter(words)
 	rootItems := root.AllItems()
 	slices.Sort(rootItems)
@@ -129,9 +159,57 @@ const (
 	claimNone claim = iota
 	claimFixed
 	claimCarried
+	claimTyped
 	claimCarriedProvisional
 	claimMade
 )
+
+// applyTyped gives typed names to the categories they name whose claim is
+// weaker than a typed one, and returns how many categories it named and
+// how many of those had carried a provisional name.
+func applyTyped(cats []category, claims []claim, typed []Typed) (named, fromCarried int) {
+	done := map[int]bool{}
+	for _, t := range typed {
+		if format.CheckCategoryName(t.Name) != "" || len(t.Items) == 0 {
+			continue
+		}
+		i := namedBy(cats, t)
+		if i < 0 || claims[i] == claimFixed || claims[i] == claimCarried {
+			continue
+		}
+		if claims[i] == claimCarriedProvisional {
+			fromCarried++
+		}
+		cats[i].cat.Name, cats[i].cat.Provisional = t.Name, false
+		claims[i] = claimTyped
+		done[i] = true
+	}
+	return len(done), fromCarried
+}
+
+// namedBy is the index of the lowest category whose members among the
+// typed name's scope are exactly its items, or -1.
+func namedBy(cats []category, t Typed) int {
+	scope := map[string]bool{}
+	for _, it := range t.Scope {
+		scope[it] = true
+	}
+	want := setKey(t.Items)
+	best := -1
+	for i, c := range cats {
+		var in []string
+		for _, it := range c.members {
+			if scope[it] {
+				in = append(in, it)
+			}
+		}
+		// Walk order puts children after parents: a later match is lower.
+		if len(in) == len(t.Items) && setKey(in) == want {
+			best = i
+		}
+	}
+	return best
+}
 
 // category is a non-root category with its members (all items below it,
 // sorted) and the index of its parent category (−1 for the top level).

@@ -273,3 +273,49 @@ func TestAssignRoundTripsAndIsDeterministic(t *testing.T) {
 		t.Errorf("round trip changed the outline:\n%s\nwant:\n%s", got, ta)
 	}
 }
+
+// A name typed in an answered packet replaces a provisional name wherever
+// the category it names still exists, and never a confirmed one.
+func TestAssignTypedNames(t *testing.T) {
+	parse := func(s string) *format.Category {
+		o, err := format.ParseOutline("t", []byte(s))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return o.Root
+	}
+	words := func(string) []string { return []string{"pastry", "tart"} }
+	tree := parse("Bakery/\n  A/\n    apple-tart\n    lemon-tart\n  croissant\n  eclair\nBread/\n  rye\n  sourdough\n")
+	for _, c := range tree.Children {
+		c.Name, c.Provisional = "", false
+		for _, g := range c.Children {
+			g.Name, g.Provisional = "", false
+		}
+	}
+	prev := parse("Bread/\n  rye\n  sourdough\n  spelt\n")
+	typed := []Typed{
+		// A packet over four items named the tarts; a later one named
+		// them again: the later name wins.
+		{Items: []string{"apple-tart", "lemon-tart"}, Scope: []string{"apple-tart", "lemon-tart", "croissant", "rye"}, Name: "Tarts"},
+		{Items: []string{"apple-tart", "lemon-tart"}, Scope: []string{"apple-tart", "lemon-tart", "eclair"}, Name: "Fruit tarts"},
+		// Bread keeps its confirmed name.
+		{Items: []string{"rye", "sourdough"}, Scope: []string{"rye", "sourdough", "eclair"}, Name: "Loaves"},
+		// A category that no longer exists names nothing.
+		{Items: []string{"croissant", "rye"}, Scope: []string{"croissant", "rye", "eclair"}, Name: "Breakfast"},
+	}
+	counts := AssignTyped(tree, prev, nil, typed, words)
+	got := string(format.FormatTree(tree))
+	for _, want := range []string{"  Fruit tarts/\n", "Bread/\n"} {
+		if !strings.Contains(got, want) {
+			t.Errorf("AssignTyped gave\n%s\nwant a line %q", got, want)
+		}
+	}
+	for _, bad := range []string{"Tarts/", "Loaves/", "Breakfast/"} {
+		if strings.Contains(got, "\n"+bad) || strings.Contains(got, " "+bad) {
+			t.Errorf("AssignTyped gave\n%s\nwith %q", got, bad)
+		}
+	}
+	if counts.Typed != 1 || counts.Carried != 1 {
+		t.Errorf("AssignTyped counts = %+v, want Typed 1, Carried 1", counts)
+	}
+}

@@ -37,5 +37,5 @@ func ExampleAssign() {
 	//     laser-level
 	//     spirit-level-60
 	//   tape-measure-8m
-	// {Fixed:1 Carried:0 Provisional:2 Suffixed:0}
+	// {Fixed:1 Typed:0 Carried:0 Provisional:2 Suffixed:0}
 }
