@@ -12,7 +12,12 @@
 //   - an item is BASE + "item/" + its id. Item ids only hold letters,
 //     digits and . _ : -, which an IRI path takes as they are, so an
 //     item keeps its address for as long as it keeps its id.
-//   - a category is BASE + "category/" + its path: the names from the top
+//   - a category with a concept identifier (every category of an
+//     outline ramify wrote) is BASE + "concept/" + its identifier, which
+//     stays the same across renames, moves and regenerations, so links
+//     that other systems keep to a concept keep working (package concept).
+//   - a category without one (a tree built in memory, or an outline from
+//     before identifiers) is BASE + "category/" + its path: the names from the top
 //     of the tree down to it, each percent-encoded and joined by "/". A
 //     name keeps its ASCII letters, digits and "-", "." and "_"; every
 //     other byte of its UTF-8 form is written as %XX (upper-case hex), so

@@ -12,7 +12,12 @@ import (
 const (
 	itemPrefix     = "item/"
 	categoryPrefix = "category/"
+	conceptPrefix  = "concept/"
 )
+
+// ConceptPrefix is what follows the base IRI in the address of a
+// category with a concept identifier: BASE + ConceptPrefix + ID.
+const ConceptPrefix = conceptPrefix
 
 // escapeSegment percent-encodes one category name for its place in an
 // address: ASCII letters, digits, "-", "." and "_" stay, every other byte

@@ -88,6 +88,9 @@ type skosGraph struct {
 }
 
 func (g *skosGraph) categoryIRI(c *format.Category) string {
+	if c.ID != "" {
+		return iriRef(g.opt.BaseIRI + conceptPrefix + c.ID)
+	}
 	return iriRef(g.opt.BaseIRI + categoryPrefix + g.slugs[c])
 }
 

@@ -30,7 +30,7 @@ func flatten(c *Category) []string {
 	}
 	var out []string
 	c.Walk(func(n *Category, depth int) bool {
-		out = append(out, fmt.Sprintf("%d %t %q %q %d", depth, n.Provisional, n.Name, n.Items, len(n.Children)))
+		out = append(out, fmt.Sprintf("%d %t %q %q %d %s", depth, n.Provisional, n.Name, n.Items, len(n.Children), n.ID))
 		return true
 	})
 	return out

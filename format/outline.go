@@ -34,6 +34,9 @@ func ParseOutline(file string, data []byte) (*Outline, error) {
 	out := &Outline{}
 	root, structure, ds := parseTree(file, data, 1, true)
 	out.Root, out.Structure = root, structure
+	if len(ds) == 0 {
+		ds = parseConcepts(file, data, root)
+	}
 	return out, ds.Err()
 }
 
@@ -223,6 +226,9 @@ func FormatOutline(root *Category) []byte {
 	b.WriteString(OutlineHeader + "\n")
 	b.WriteString("# structure " + StructureHash(root) + "\n")
 	writeTree(&b, root)
+	var ids strings.Builder
+	formatConcepts(&ids, root)
+	b.WriteString(ids.String())
 	return b.Bytes()
 }
 

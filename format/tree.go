@@ -24,6 +24,9 @@ type Category struct {
 	// ItemLines holds, parallel to Items, the line of each item in the
 	// parsed file (nil for trees built in memory).
 	ItemLines []int
+	// ID is the category's stable concept identifier (see concepts.go),
+	// "" when it has none yet.
+	ID string
 }
 
 // MaxIDLen bounds an item id; longer ids are refused as malformed.
@@ -185,7 +188,7 @@ func (c *Category) Depth() int {
 
 // Clone returns a deep copy of c.
 func (c *Category) Clone() *Category {
-	out := &Category{Name: c.Name, Provisional: c.Provisional, Line: c.Line}
+	out := &Category{Name: c.Name, Provisional: c.Provisional, Line: c.Line, ID: c.ID}
 	out.Items = append([]string(nil), c.Items...)
 	if c.ItemLines != nil {
 		out.ItemLines = append([]int(nil), c.ItemLines...)

@@ -45,7 +45,9 @@ type Project struct {
 	OutlineText []byte
 	// NameSources are other versions of the outline (the other side of a
 	// merge) whose confirmed names were typed by people and count as such
-	// when naming a regenerated tree (see nameCategories).
+	// when naming a regenerated tree (see nameCategories); their concept
+	// identifiers are carried too, after the outline's, so a category made
+	// on either branch keeps its identifier.
 	NameSources []*format.Category
 	// itemsBroken is set when an items file failed to parse; references
 	// to items are then not checked.

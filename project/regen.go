@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"time"
 
+	"github.com/ramify-tax/ramify/concept"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -115,6 +116,7 @@ func (p *Project) Regenerate(method Method, progress func(stage string, done, to
 		prev = p.Outline.Root
 	}
 	p.nameCategories(root, prev)
+	concept.Carry(root, append([]*format.Category{prev}, p.NameSources...)...)
 	text := format.FormatOutline(root)
 	return &Solution{
 		Root:     root,

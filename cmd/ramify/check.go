@@ -102,7 +102,10 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 	if err != nil {
 		return nil, solveError(e, err)
 	}
-	if !bytes.Equal(sol.Text, p.OutlineText) {
+	// A renamed category leaves its old path in the concept block (the
+	// identifiers still bind by members); solve refreshes the block, and
+	// that alone is no reason to fail.
+	if !bytes.Equal(sol.Text, p.OutlineText) && (p.Outline.Structure == "" || !bytes.Equal(sol.Text, format.FormatOutline(root.Clone()))) {
 		e.report["current"] = false
 		return nil, failf("%s is not what `ramify solve` writes now (%s); run `ramify solve` and commit the result",
 			rel, staleReason(root, p.OutlineText, sol.Root, sol.Text))

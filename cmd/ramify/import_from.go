@@ -9,6 +9,7 @@ import (
 	"path/filepath"
 	"strings"
 
+	"github.com/ramify-tax/ramify/concept"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/spf13/pflag"
@@ -53,7 +54,11 @@ func importTaxonomy(e *env, dir, from string) error {
 	source := filepath.Base(from)
 	itemsText := formatImportedItems(source, items)
 	root.Sort()
+	// Every category gets its concept identifier now, when it first
+	// appears in the repository (an imported file may bring its own).
+	concept.Carry(root)
 	outlineText := append([]byte(format.OutlineHeader+"\n"), format.FormatTree(root)...)
+	outlineText = append(outlineText, format.ConceptBlock(root)...)
 	// Both files must read back as what was imported; anything else is a
 	// bug here, and is caught before a byte is written.
 	if back, err := format.ParseItemsTOML(importItemsFile, itemsText); err != nil || len(back) != len(items) {

@@ -250,7 +250,8 @@ func (m *outlineMerge) loadMerged(scratch string) (*project.Project, error) {
 	}
 	// Ours is the previous version, whose names carry over; a name an
 	// editor typed on the other branch (a provisional name confirmed or
-	// replaced) counts as typed, so the merge keeps it too.
+	// replaced) counts as typed, so the merge keeps it too; so do concept identifiers
+	// made on the other branch.
 	p.NameSources = []*format.Category{theirs}
 	return p, nil
 }

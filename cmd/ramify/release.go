@@ -15,6 +15,7 @@ import (
 	"time"
 
 	"github.com/BurntSushi/toml"
+	"github.com/ramify-tax/ramify/concept"
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
@@ -45,7 +46,10 @@ Then it writes releases/VERSION.toml (version, date, structure hash, the
 sha256 of every input, counts, cost, constraint counts, the audit tally
 and interval, and what changed since the previous release) and the
 exports in releases/VERSION/ (taxonomy.outline, SKOS Turtle, Newick, JSON,
-CSV). With --tag it commits those files and makes an annotated git tag
+CSV). Since the previous release, the manifest's [concepts] table lists
+the concept identifiers added and retired — each retired one with the
+identifiers that took over its items — and the categories split or
+merged, so that systems linking to concept IRIs know what to update. With --tag it commits those files and makes an annotated git tag
 VERSION whose message summarises the manifest. --dry-run runs the gates
 and writes nothing.`,
 		flags: func(fs *pflag.FlagSet, o *options) {
@@ -74,6 +78,7 @@ type releaseManifest struct {
 	Constraints manifestRecords   `toml:"constraints"`
 	Audits      manifestAudits    `toml:"audits"`
 	Change      *manifestChange   `toml:"change,omitempty"`
+	Concepts    *concept.Changes  `toml:"concepts,omitempty"`
 	Inputs      map[string]string `toml:"inputs"`
 	Exports     map[string]string `toml:"exports"`
 }
@@ -206,6 +211,11 @@ func runRelease(e *env, args []string) error {
 			Since: prev, Added: len(rep.Added), Removed: len(rep.Removed), Moved: len(rep.AllMoved()),
 			TripletAgreement: roundSig(rep.Metrics.TripletAgreement, 6),
 		}
+		// Concepts whose identifiers are gone since the previous release,
+		// and who took over their items: what a system that links to
+		// concept IRIs must update.
+		ch := concept.Compare(prevRoot, p.Outline.Root)
+		m.Concepts = &ch
 	}
 	exports, err := releaseExports(p, version)
 	if err != nil {
@@ -296,6 +306,9 @@ func summaryLine(m *releaseManifest) string {
 		m.Items, m.Categories, m.Constraints.Records, m.Audits.Audits, m.Audits.Rejected, m.Audits.Upper)
 	if m.Change != nil {
 		s += fmt.Sprintf("; since %s: %d added, %d removed, %d moved", m.Change.Since, m.Change.Added, m.Change.Removed, m.Change.Moved)
+	}
+	if m.Concepts != nil {
+		s += fmt.Sprintf("; %s", plural(len(m.Concepts.Retired), "concept retired", "concepts retired"))
 	}
 	return s
 }

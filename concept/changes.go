@@ -1,0 +1,229 @@
+package concept
+
+import (
+	"slices"
+
+	"github.com/ramify-tax/ramify/diff"
+	"github.com/ramify-tax/ramify/format"
+)
+
+// Retired is an identifier of the earlier tree that the later one no
+// longer has, with where its items went.
+type Retired struct {
+	ID   string `json:"id" toml:"id"`
+	Name string `json:"name" toml:"name"`
+	// Successors are the identifiers that took over its items: the
+	// category it was merged into, the parts it was split into, or else
+	// the smallest category that now holds all its remaining items
+	// (when that is not the whole tree), or else the categories its
+	// items now sit in. Empty when none of its items is left in a
+	// category.
+	Successors []string `json:"successors" toml:"successors"`
+}
+
+// Split is a concept of the earlier tree whose items now sit in several
+// categories; the identifier may live on in one of them.
+type Split struct {
+	ID   string   `json:"id" toml:"id"`
+	Name string   `json:"name" toml:"name"`
+	Into []string `json:"into" toml:"into"`
+}
+
+// Merge is a category of the later tree made of several earlier ones.
+type Merge struct {
+	ID   string   `json:"id" toml:"id"`
+	Name string   `json:"name" toml:"name"`
+	From []string `json:"from" toml:"from"`
+}
+
+// Changes are what happened to the concepts between two trees.
+type Changes struct {
+	Added   []string  `json:"added" toml:"added"`
+	Retired []Retired `json:"retired" toml:"retired"`
+	Split   []Split   `json:"split" toml:"split"`
+	Merged  []Merge   `json:"merged" toml:"merged"`
+}
+
+// Compare lists the concept changes from old to new, whose categories
+// carry identifiers (categories without one are left out). Splits and
+// merges are diff.Compare's (its 80% rules), named by identifier. Every
+// list is sorted by identifier.
+func Compare(old, new *format.Category) Changes {
+	oldIDs, newIDs := idsByPath(old), idsByPath(new)
+	rep := diff.Compare(old, new)
+	ch := Changes{Added: []string{}, Retired: []Retired{}, Split: []Split{}, Merged: []Merge{}}
+
+	have := map[string]bool{}
+	for _, e := range newIDs {
+		have[e.id] = true
+	}
+	had := map[string]bool{}
+	for _, e := range oldIDs {
+		had[e.id] = true
+	}
+	for _, e := range newIDs {
+		if e.id != "" && !had[e.id] {
+			ch.Added = append(ch.Added, e.id)
+		}
+	}
+
+	look := func(m map[string]entry, p diff.Path) entry { return m[pathKey(p)] }
+	mergedInto := map[string]string{}
+	for _, m := range rep.Merged {
+		into := look(newIDs, m.Into)
+		var from []string
+		for _, p := range m.From {
+			if e := look(oldIDs, p); e.id != "" {
+				from = append(from, e.id)
+				mergedInto[e.id] = into.id
+			}
+		}
+		if into.id != "" && len(from) > 0 {
+			slices.Sort(from)
+			ch.Merged = append(ch.Merged, Merge{ID: into.id, Name: into.name, From: from})
+		}
+	}
+	splitInto := map[string][]string{}
+	for _, s := range rep.Split {
+		from := look(oldIDs, s.From)
+		var into []string
+		for _, p := range s.Into {
+			if e := look(newIDs, p); e.id != "" {
+				into = append(into, e.id)
+			}
+		}
+		if from.id != "" && len(into) > 0 {
+			slices.Sort(into)
+			splitInto[from.id] = into
+			ch.Split = append(ch.Split, Split{ID: from.id, Name: from.name, Into: into})
+		}
+	}
+
+	newTree := newHolder(new)
+	for _, e := range oldIDs {
+		if e.id == "" || have[e.id] {
+			continue
+		}
+		r := Retired{ID: e.id, Name: e.name, Successors: []string{}}
+		switch {
+		case mergedInto[e.id] != "":
+			r.Successors = []string{mergedInto[e.id]}
+		case splitInto[e.id] != nil:
+			r.Successors = splitInto[e.id]
+		default:
+			r.Successors = newTree.successors(e.cat.AllItems())
+		}
+		ch.Retired = append(ch.Retired, r)
+	}
+	sortBy := func(a, b string) int {
+		if a < b {
+			return -1
+		}
+		if a > b {
+			return 1
+		}
+		return 0
+	}
+	slices.Sort(ch.Added)
+	slices.SortFunc(ch.Retired, func(a, b Retired) int { return sortBy(a.ID, b.ID) })
+	slices.SortFunc(ch.Split, func(a, b Split) int { return sortBy(a.ID, b.ID) })
+	slices.SortFunc(ch.Merged, func(a, b Merge) int { return sortBy(a.ID, b.ID) })
+	return ch
+}
+
+// entry is a category's identifier and display path, by path.
+type entry struct {
+	id, name string
+	cat      *format.Category
+}
+
+func idsByPath(root *format.Category) map[string]entry {
+	out := map[string]entry{}
+	var rec func(c *format.Category, path []string)
+	rec = func(c *format.Category, path []string) {
+		for _, ch := range c.Children {
+			p := append(path[:len(path):len(path)], ch.DisplayName())
+			out[pathKey(p)] = entry{id: ch.ID, name: joinPath(p), cat: ch}
+			rec(ch, p)
+		}
+	}
+	rec(root, nil)
+	return out
+}
+
+func joinPath(p []string) string {
+	s := ""
+	for i, n := range p {
+		if i > 0 {
+			s += format.ConceptPathSeparator
+		}
+		s += n
+	}
+	return s
+}
+
+// holder finds, in one tree, where items sit.
+type holder struct {
+	parent map[*format.Category]*format.Category
+	of     map[string]*format.Category // item -> its category
+	root   *format.Category
+}
+
+func newHolder(root *format.Category) *holder {
+	h := &holder{parent: map[*format.Category]*format.Category{}, of: map[string]*format.Category{}, root: root}
+	root.Walk(func(c *format.Category, _ int) bool {
+		for _, ch := range c.Children {
+			h.parent[ch] = c
+		}
+		for _, it := range c.Items {
+			h.of[it] = c
+		}
+		return true
+	})
+	return h
+}
+
+// successors are the identifiers that hold items now: the smallest
+// category holding all of them, if not the root, else the distinct
+// categories they sit in (the root left out).
+func (h *holder) successors(items []string) []string {
+	var cats []*format.Category
+	for _, it := range items {
+		if c, ok := h.of[it]; ok {
+			cats = append(cats, c)
+		}
+	}
+	if len(cats) == 0 {
+		return []string{}
+	}
+	lca := cats[0]
+	for _, c := range cats[1:] {
+		lca = h.lca(lca, c)
+	}
+	if lca != h.root && lca.ID != "" {
+		return []string{lca.ID}
+	}
+	seen := map[string]bool{}
+	out := []string{}
+	for _, c := range cats {
+		if c != h.root && c.ID != "" && !seen[c.ID] {
+			seen[c.ID] = true
+			out = append(out, c.ID)
+		}
+	}
+	slices.Sort(out)
+	return out
+}
+
+func (h *holder) lca(a, b *format.Category) *format.Category {
+	anc := map[*format.Category]bool{}
+	for c := a; c != nil; c = h.parent[c] {
+		anc[c] = true
+	}
+	for c := b; c != nil; c = h.parent[c] {
+		if anc[c] {
+			return c
+		}
+	}
+	return h.root
+}
