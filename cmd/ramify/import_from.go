@@ -24,7 +24,8 @@ const (
 
 // importFlags adds init's --from flag.
 func importFlags(fs *pflag.FlagSet, o *options) {
-	o.extra["from"] = fs.String("from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file, or a CSV file with the columns id and path (and optionally label, tags, text), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \")")
+	o.extra["from"] = fs.String("from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file; a CSV file with the columns id and path (and optionally label, tags, text), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \"); or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json)")
+	skosFlags(fs, o)
 }
 
 // importSource is init's --from value, "" when it was not given.
@@ -44,7 +45,7 @@ func importSource(e *env) string {
 // writes. A problem in from is reported with its place and nothing is
 // written; existing items or outline files are never replaced.
 func importTaxonomy(e *env, dir, from string) error {
-	root, items, err := readImport(from)
+	root, items, err := readImport(e, from)
 	if err != nil {
 		return err
 	}
@@ -113,10 +114,13 @@ func importTaxonomy(e *env, dir, from string) error {
 }
 
 // readImport reads the tree and items of an import file, by extension.
-func readImport(from string) (*format.Category, []format.Item, error) {
+func readImport(e *env, from string) (*format.Category, []format.Item, error) {
 	ext := strings.ToLower(filepath.Ext(from))
-	if ext != ".csv" && ext != ".outline" {
-		return nil, nil, usagef("--from takes a .csv file (columns id and path) or an .outline file, not %q", from)
+	if ext != ".csv" && ext != ".outline" && skosSyntax(ext) == "" {
+		return nil, nil, usagef("--from takes a .csv file (columns id and path), an .outline file, or SKOS as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json), not %q", from)
+	}
+	if err := checkSKOSFlags(e, ext); err != nil {
+		return nil, nil, err
 	}
 	data, err := format.ReadFileLimited(from, from, format.MaxDataFileBytes)
 	if errors.Is(err, fs.ErrNotExist) {
@@ -124,6 +128,9 @@ func readImport(from string) (*format.Category, []format.Item, error) {
 	}
 	if err != nil {
 		return nil, nil, err
+	}
+	if skosSyntax(ext) != "" {
+		return readSKOSImport(e, from, ext, data)
 	}
 	if ext == ".csv" {
 		root, items, ds := parseImportCSV(from, data)

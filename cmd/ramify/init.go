@@ -24,9 +24,21 @@ and git merge of the outline go through ramify.
 --from FILE starts the repository from a taxonomy you already have: a CSV
 with id and path columns (optional label, tags, text; the path's category
 names joined by " > ", or by "/" when no path uses " > "), or an .outline
-file. It writes items.toml and taxonomy.outline with your category names,
-kept as the previous version: the first "ramify solve" stays close to it
-and keeps its names where the members stay together.
+file, or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or
+JSON-LD (.jsonld, .json). It writes items.toml and taxonomy.outline with
+your category names, kept as the previous version: the first "ramify
+solve" stays close to it and keeps its names where the members stay
+together. Every category gets its concept identifier then.
+
+From SKOS: concepts with no narrower concept become items (--items-are
+notation or --items-are TYPE-IRI chooses otherwise), the others
+categories; skos:broader and skos:narrower give the tree, prefLabel the
+names and labels (in --lang, default the file's most common language),
+definition and altLabel the items' text, notation the item ids. A concept
+with two broader concepts is an error naming both statements, unless
+--first-broader keeps the first. Concept IRIs that ramify exported keep
+their identifiers; others get identifiers made from their IRIs. JSON-LD
+contexts must be inline: nothing is fetched.
 
 Next steps: add your items to items.toml, then run "ramify solve".`,
 		flags: importFlags,
