@@ -47,6 +47,10 @@ Next steps: add your items to items.toml, then run "ramify solve".`,
 }
 
 // itemsTemplate is the items file a new repository starts with.
+// gitignoreTemplate keeps the generated report out of commits: it is
+// rebuilt from the repository at any time with ramify report.
+const gitignoreTemplate = "# written by ramify report; rebuilt at any time from the repository\n/" + defaultReportFile + "\n"
+
 const itemsTemplate = `# The items of this taxonomy, one [[item]] table each.
 #
 #   id     required: letters, digits and . _ : - (starting with a letter or digit)
@@ -90,6 +94,7 @@ func runInit(e *env, args []string) error {
 		{"ramify.toml", format.SettingsTemplate},
 		{"items.toml", itemsTemplate},
 		{".gitattributes", gitattributesTemplate},
+		{".gitignore", gitignoreTemplate},
 		{"constraints/.keep", ""},
 		{"reviews/open/.keep", ""},
 		{"reviews/done/.keep", ""},

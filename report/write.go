@@ -1,0 +1,332 @@
+package report
+
+import (
+	"bufio"
+	_ "embed"
+	"encoding/json"
+	"html"
+	"io"
+	"math"
+	"strconv"
+	"strings"
+	"unicode/utf8"
+)
+
+// The page's parts. They are kept as files of their own so that they can
+// be read and checked as what they are; WriteHTML puts them inline.
+var (
+	//go:embed page.html
+	pageHTML string
+	//go:embed page.css
+	pageCSS string
+	//go:embed page.js
+	pageJS string
+)
+
+// WriteHTML writes the page: the fixed markup, style and script, with the
+// data as one JSON document inside a script element of type
+// application/json. The script parses it once and builds rows only for
+// the categories a reader opens, so a page of 100,000 items shows its top
+// level at once.
+func (pg *Page) WriteHTML(w io.Writer) error {
+	bw := bufio.NewWriterSize(w, 1<<16)
+	head, rest, ok1 := strings.Cut(pageHTML, "{{META}}")
+	middle, tail, ok2 := strings.Cut(rest, "{{ITEMS}}")
+	if !ok1 || !ok2 {
+		panic("report: page.html lacks the {{META}} or {{ITEMS}} place")
+	}
+	r := strings.NewReplacer("{{TITLE}}", html.EscapeString(pg.Title), "{{CSS}}", pageCSS, "{{JS}}", pageJS)
+	r.WriteString(bw, head)
+	pg.writeMeta(&jsonWriter{w: bw})
+	r.WriteString(bw, middle)
+	pg.writeItems(&jsonWriter{w: bw})
+	r.WriteString(bw, tail)
+	return bw.Flush()
+}
+
+// JSON is the data the page embeds, as one document {"meta": ...,
+// "items": ...}, for tests and scripts.
+func (pg *Page) JSON() []byte {
+	var b strings.Builder
+	bw := bufio.NewWriter(&b)
+	bw.WriteString(`{"meta":`)
+	pg.writeMeta(&jsonWriter{w: bw})
+	bw.WriteString(",\n\"items\":")
+	pg.writeItems(&jsonWriter{w: bw})
+	bw.WriteString("}\n")
+	bw.Flush()
+	return []byte(b.String())
+}
+
+// The data is written compactly, categories and items as arrays rather
+// than objects since they are most of the bytes, in two documents: the
+// items, which the page parses only after it has shown the top level,
+// and everything else. The layout is documented in page.js, which reads
+// it.
+
+// writeMeta writes everything but the items.
+func (pg *Page) writeMeta(j *jsonWriter) {
+	w := j.w
+	w.WriteString(`{"title":`)
+	j.str(pg.Title)
+	w.WriteString(`,"structure":`)
+	j.str(pg.Structure)
+	w.WriteString(`,"base":`)
+	j.str(pg.Base)
+	w.WriteString(`,"note":`)
+	j.str(pg.Note)
+	w.WriteString(`,"support":`)
+	j.value(pg.Support)
+	w.WriteString(`,"weakest":`)
+	j.ints(pg.Weakest)
+	w.WriteString(`,"tags":[`)
+	for i, t := range pg.Tags {
+		if i > 0 {
+			w.WriteByte(',')
+		}
+		j.str(t)
+	}
+	w.WriteString(`],"recs":[`)
+	for i, r := range pg.Recs {
+		if i > 0 {
+			w.WriteByte(',')
+		}
+		w.WriteByte('[')
+		for k, s := range []string{r.Kind, r.Where, r.By, r.Date, r.Note, r.Summary} {
+			if k > 0 {
+				w.WriteByte(',')
+			}
+			j.str(s)
+		}
+		w.WriteByte(']')
+	}
+	w.WriteString("],\n\"cats\":[")
+	for i := range pg.Cats {
+		c := &pg.Cats[i]
+		if i > 0 {
+			w.WriteString(",\n")
+		}
+		w.WriteByte('[')
+		j.str(c.Name)
+		w.WriteByte(',')
+		w.WriteString(boolDigit(c.Provisional))
+		w.WriteByte(',')
+		w.WriteString(strconv.Itoa(c.Parent))
+		w.WriteByte(',')
+		w.WriteString(strconv.Itoa(c.Size))
+		w.WriteByte(',')
+		j.fraction(c.Support)
+		w.WriteByte(',')
+		j.ints(c.Children)
+		w.WriteByte(',')
+		j.ints(c.Items)
+		w.WriteByte(',')
+		j.ints(c.Records)
+		w.WriteString(`,[`)
+		for k, m := range c.Marks {
+			if k > 0 {
+				w.WriteByte(',')
+			}
+			j.str(m)
+		}
+		w.WriteString(`],`)
+		j.str(c.Was)
+		w.WriteByte(']')
+	}
+	w.WriteString("],\n\"moved\":[")
+	first := true
+	for i := range pg.Items {
+		it := &pg.Items[i]
+		if it.Mark != "moved" {
+			continue
+		}
+		if !first {
+			w.WriteByte(',')
+		}
+		first = false
+		w.WriteByte('[')
+		w.WriteString(strconv.Itoa(i))
+		w.WriteByte(',')
+		j.str(it.ID)
+		w.WriteByte(',')
+		j.str(it.From)
+		w.WriteByte(']')
+	}
+	w.WriteString("],\n\"changes\":")
+	j.value(pg.Changes)
+	w.WriteString(`,"review":`)
+	j.value(reviewJSON(pg.Review))
+	w.WriteString("}")
+}
+
+// writeItems writes the items.
+func (pg *Page) writeItems(j *jsonWriter) {
+	w := j.w
+	w.WriteByte('[')
+	for i := range pg.Items {
+		it := &pg.Items[i]
+		if i > 0 {
+			w.WriteString(",\n")
+		}
+		w.WriteByte('[')
+		j.str(it.ID)
+		w.WriteByte(',')
+		j.str(it.Label)
+		w.WriteByte(',')
+		j.str(it.Text)
+		w.WriteByte(',')
+		j.ints(it.Tags)
+		w.WriteByte(',')
+		w.WriteString(strconv.Itoa(it.Cat))
+		// Trailing fields only when there is something in them.
+		if len(it.Records) > 0 || it.Mark != "" {
+			w.WriteByte(',')
+			j.ints(it.Records)
+		}
+		if it.Mark != "" {
+			w.WriteByte(',')
+			j.str(it.Mark)
+			w.WriteByte(',')
+			j.str(it.From)
+		}
+		w.WriteByte(']')
+	}
+	w.WriteString("]")
+}
+
+func boolDigit(b bool) string {
+	if b {
+		return "1"
+	}
+	return "0"
+}
+
+// reviewJSON is the review state with the names page.js reads.
+func reviewJSON(r Review) any {
+	type open struct {
+		File    string   `json:"file"`
+		Reason  string   `json:"reason"`
+		Drawn   string   `json:"drawn"`
+		Verdict string   `json:"verdict"`
+		Current bool     `json:"current"`
+		Items   []string `json:"items"`
+	}
+	type audits struct {
+		Answered int       `json:"answered"`
+		Rejected int       `json:"rejected"`
+		Rate     float64   `json:"rate"`
+		Interval []float64 `json:"interval"`
+		Older    int       `json:"older"`
+	}
+	out := struct {
+		Open      []open  `json:"open"`
+		Audits    *audits `json:"audits"`
+		MinAudits int     `json:"min_audits"`
+		MaxReject float64 `json:"max_reject_rate"`
+		Passed    bool    `json:"gate_passed"`
+	}{Open: []open{}, MinAudits: r.Gate.MinAudits, MaxReject: r.Gate.MaxRejectRate, Passed: r.GatePassed}
+	for _, o := range r.Open {
+		out.Open = append(out.Open, open{o.File, o.Reason, o.Drawn, o.Verdict, o.Current, o.Items})
+	}
+	if a := r.Audits; a != nil {
+		out.Audits = &audits{a.Audits, a.Rejected, round4(a.Rate), []float64{round4(a.Lo), round4(a.Hi)}, a.Older}
+	}
+	return out
+}
+
+func round4(x float64) float64 { return math.Round(x*1e4) / 1e4 }
+
+// jsonWriter writes JSON values straight to the page.
+type jsonWriter struct {
+	w   *bufio.Writer
+	buf []byte
+}
+
+func (j *jsonWriter) ints(xs []int) {
+	j.w.WriteByte('[')
+	for i, x := range xs {
+		if i > 0 {
+			j.w.WriteByte(',')
+		}
+		j.buf = strconv.AppendInt(j.buf[:0], int64(x), 10)
+		j.w.Write(j.buf)
+	}
+	j.w.WriteByte(']')
+}
+
+// fraction writes a share with four decimals, or -1.
+func (j *jsonWriter) fraction(x float64) {
+	if x < 0 {
+		j.w.WriteString("-1")
+		return
+	}
+	j.buf = strconv.AppendFloat(j.buf[:0], round4(x), 'f', -1, 64)
+	j.w.Write(j.buf)
+}
+
+// value writes v with encoding/json, which escapes <, > and & so that no
+// text can close the script element it sits in.
+func (j *jsonWriter) value(v any) {
+	b, err := json.Marshal(v)
+	if err != nil {
+		panic("report: " + err.Error()) // only plain data is passed
+	}
+	j.w.Write(b)
+}
+
+// str writes s as a JSON string, escaped as encoding/json escapes it for
+// HTML: <, > and & as \u003c and so on, the line separators U+2028 and
+// U+2029, control characters, and invalid UTF-8 as U+FFFD.
+func (j *jsonWriter) str(s string) {
+	const hex = "0123456789abcdef"
+	w := j.w
+	w.WriteByte('"')
+	start := 0
+	for i := 0; i < len(s); {
+		c := s[i]
+		if c < utf8.RuneSelf {
+			if c >= 0x20 && c != '"' && c != '\\' && c != '<' && c != '>' && c != '&' {
+				i++
+				continue
+			}
+			w.WriteString(s[start:i])
+			switch c {
+			case '"', '\\':
+				w.WriteByte('\\')
+				w.WriteByte(c)
+			case '\n':
+				w.WriteString(`\n`)
+			case '\t':
+				w.WriteString(`\t`)
+			case '\r':
+				w.WriteString(`\r`)
+			default:
+				w.WriteString(`\u00`)
+				w.WriteByte(hex[c>>4])
+				w.WriteByte(hex[c&0xf])
+			}
+			i++
+			start = i
+			continue
+		}
+		r, size := utf8.DecodeRuneInString(s[i:])
+		if r == utf8.RuneError && size == 1 {
+			w.WriteString(s[start:i])
+			w.WriteString(`\ufffd`)
+			i += size
+			start = i
+			continue
+		}
+		if r == '\u2028' || r == '\u2029' {
+			w.WriteString(s[start:i])
+			w.WriteString(`\u202`)
+			w.WriteByte(hex[r&0xf])
+			i += size
+			start = i
+			continue
+		}
+		i += size
+	}
+	w.WriteString(s[start:])
+	w.WriteByte('"')
+}
