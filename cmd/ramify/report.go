@@ -95,7 +95,7 @@ func runReport(e *env, args []string) error {
 	for i, a := range done {
 		packets[i] = a.Packet
 	}
-	audits := review.SummarizeAudits(packets, structure)
+	audits := review.SummarizeAudits(packets, p.Outline.Root)
 	in.Audits = &audits
 
 	if err := reportBase(e, p, &in); err != nil {
