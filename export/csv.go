@@ -13,12 +13,20 @@ import (
 // export; `ramify init --from` reads the same separator back.
 const PathSeparator = " > "
 
-// CSV writes one row per item under the header id,label,path: the item's
-// id, its label (its id when it has none) and the names of the categories
-// from the top down to it joined by PathSeparator, a provisional name with
-// its "~ " marker, as the outline shows it. An item at the top level has
-// an empty path. Rows follow the outline's order; quoting is RFC 4180's
-// (encoding/csv), lines end in a line feed.
+// CSVColumns are the columns of the CSV export, in order.
+var CSVColumns = []string{"id", "label", "tags", "text", "path", "concepts"}
+
+// CSV writes one row per item under the header CSVColumns: the item's
+// id, its label (empty when it has none), its tags joined by ";"
+// (format.TagSeparator, which no tag holds), its text (line breaks
+// kept, inside quotes), the names of the categories from the top down to
+// it joined by PathSeparator, a provisional name with its "~ " marker, as
+// the outline shows it, and the concept identifiers of those categories
+// joined the same way (empty for a category without one). An item at the
+// top level has an empty path. So `ramify init --from` reads back the
+// same tree, names, identifiers and items: the export loses nothing.
+// Rows follow the outline's order; quoting is RFC 4180's (encoding/csv),
+// lines end in a line feed.
 //
 // A category name that holds PathSeparator cannot be told apart from two
 // levels, so it is refused rather than written ambiguously.
@@ -27,24 +35,32 @@ func CSV(w io.Writer, root *format.Category, items []format.Item) error {
 	idx := itemIndex(items)
 	var rows [][]string
 	var bad error
-	var rec func(c *format.Category, path []string)
-	rec = func(c *format.Category, path []string) {
+	var rec func(c *format.Category, path, ids []string)
+	rec = func(c *format.Category, path, ids []string) {
 		for _, ch := range c.Children {
 			if strings.Contains(ch.Name, PathSeparator) && bad == nil {
 				bad = fmt.Errorf("category %q holds %q, which separates the levels of a path in the CSV export; rename it to export CSV", ch.DisplayName(), PathSeparator)
 			}
-			rec(ch, append(path[:len(path):len(path)], ch.DisplayName()))
+			rec(ch, append(path[:len(path):len(path)], ch.DisplayName()), append(ids[:len(ids):len(ids)], ch.ID))
 		}
 		for _, id := range c.Items {
-			rows = append(rows, []string{id, labelOf(idx, id), strings.Join(path, PathSeparator)})
+			var label, tags, text string
+			if it, ok := idx[id]; ok {
+				label, tags, text = it.Label, strings.Join(it.Tags, format.TagSeparator), it.Text
+			}
+			concepts := strings.Join(ids, PathSeparator)
+			if strings.Trim(concepts, " >") == "" {
+				concepts = ""
+			}
+			rows = append(rows, []string{id, label, tags, text, strings.Join(path, PathSeparator), concepts})
 		}
 	}
-	rec(tree, nil)
+	rec(tree, nil, nil)
 	if bad != nil {
 		return bad
 	}
 	cw := csv.NewWriter(w)
-	if err := cw.Write([]string{"id", "label", "path"}); err != nil {
+	if err := cw.Write(CSVColumns); err != nil {
 		return err
 	}
 	if err := cw.WriteAll(rows); err != nil {

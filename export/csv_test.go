@@ -30,15 +30,15 @@ func TestCSVReadBack(t *testing.T) {
 	if err != nil {
 		t.Fatal(err)
 	}
-	if len(rows) == 0 || strings.Join(rows[0], ",") != "id,label,path" {
-		t.Fatalf("header %v, want id,label,path", rows)
+	if len(rows) == 0 || strings.Join(rows[0], ",") != "id,label,tags,text,path,concepts" {
+		t.Fatalf("header %v, want id,label,tags,text,path,concepts", rows)
 	}
 	got := &format.Category{}
 	labels := map[string]string{}
 	for _, row := range rows[1:] {
 		c := got
-		if row[2] != "" {
-			for _, seg := range strings.Split(row[2], PathSeparator) {
+		if row[4] != "" {
+			for _, seg := range strings.Split(row[4], PathSeparator) {
 				name, prov := strings.CutPrefix(seg, "~ ")
 				var next *format.Category
 				for _, ch := range c.Children {
@@ -59,7 +59,7 @@ func TestCSVReadBack(t *testing.T) {
 	if g, w := string(format.FormatTree(got)), string(format.FormatTree(root.Clone())); g != w {
 		t.Errorf("tree read back\n%s\nwant\n%s", g, w)
 	}
-	if labels["claw-hammer"] != `Claw hammer, 16 oz "everyday"` || labels["tape-measure-8m"] != "tape-measure-8m" {
+	if labels["claw-hammer"] != `Claw hammer, 16 oz "everyday"` || labels["tape-measure-8m"] != "" {
 		t.Errorf("labels read back wrong: %q, %q", labels["claw-hammer"], labels["tape-measure-8m"])
 	}
 	if len(rows)-1 != root.Size() {

@@ -22,8 +22,10 @@ import (
 // "/" instead; a file with " > " anywhere uses " > " throughout, so that
 // a name there may hold a "/". Spaces around each name are dropped, a
 // name starting with "~ " is provisional, and an empty path puts the item
-// at the top level.
-var importColumns = []string{"id", "path", "label", "tags", "text"}
+// at the top level. concepts, also optional, gives the concept
+// identifier of each category on the path, joined by " > " (what the
+// export writes), so identifiers survive the round trip.
+var importColumns = []string{"id", "path", "label", "tags", "text", "concepts"}
 
 // importSlash is the separator of files that never use export.PathSeparator.
 const importSlash = "/"
@@ -172,7 +174,7 @@ func importHeader(src *importText, header importRow, ds *format.Diags) (map[stri
 			if s := format.Suggest(name, importColumns); s != "" {
 				hint = fmt.Sprintf("; did you mean %q?", s)
 			}
-			ds.Add(at, "unknown column %q; an import reads the columns id, path, label, tags and text%s", name, hint)
+			ds.Add(at, "unknown column %q; an import reads the columns id, path, label, tags, text and concepts%s", name, hint)
 			ok = false
 		case dup:
 			ds.Add(at, "column %q appears twice in the header", name)

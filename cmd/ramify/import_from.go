@@ -24,7 +24,7 @@ const (
 
 // importFlags adds init's --from flag.
 func importFlags(fs *pflag.FlagSet, o *options) {
-	o.extra["from"] = fs.String("from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file; a CSV file with the columns id and path (and optionally label, tags, text), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \"); or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json)")
+	o.extra["from"] = fs.String("from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file; a CSV file with the columns id and path (and optionally label, tags, text, concepts), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \"); or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json)")
 	skosFlags(fs, o)
 }
 

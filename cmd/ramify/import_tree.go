@@ -5,6 +5,7 @@ import (
 	"strings"
 	"unicode"
 
+	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
 )
 
@@ -22,6 +23,8 @@ type importTree struct {
 	children map[*format.Category]map[string]*format.Category
 	seenAt   map[*format.Category]int
 	rows     int
+	// idAt finds the category of each concept identifier.
+	idAt map[string]*format.Category
 }
 
 func newImportTree(src *importText, sep string) *importTree {
@@ -79,7 +82,12 @@ func (b *importTree) row(r importRow, col map[string]int, width int, ds *format.
 		it.Text = text
 	}
 	pathCell, pathOff, _ := cell("path")
-	parent, ok := b.place(pathCell, pathOff, r.line, ds)
+	conceptsCell, conceptsOff, _ := cell("concepts")
+	ids, ok := b.conceptIDs(conceptsCell, conceptsOff, ds)
+	if !ok {
+		return
+	}
+	parent, ok := b.place(pathCell, pathOff, r.line, ids, ds)
 	if !ok || !good {
 		return
 	}
@@ -136,14 +144,50 @@ func (b *importTree) tags(cell string, off int, ds *format.Diags, good *bool) []
 	return out
 }
 
-// place finds (making it where needed) the category a path names.
-func (b *importTree) place(cell string, off, line int, ds *format.Diags) (*format.Category, bool) {
+// conceptID is one identifier of a concepts cell and where it starts.
+type conceptID struct {
+	id string
+	at format.Pos
+}
+
+// conceptIDs splits a concepts cell into one identifier per level ("" for
+// a level without one).
+func (b *importTree) conceptIDs(cell string, off int, ds *format.Diags) ([]conceptID, bool) {
 	if strings.TrimSpace(cell) == "" {
+		return nil, true
+	}
+	var out []conceptID
+	start := 0
+	for _, raw := range strings.Split(cell, export.PathSeparator) {
+		id := strings.TrimSpace(raw)
+		at := b.src.contentPos(off, start+len(raw)-len(strings.TrimLeft(raw, " ")))
+		start += len(raw) + len(export.PathSeparator)
+		if id != "" && !format.ValidConceptID(id) {
+			ds.Add(at, "%q is not a concept identifier (c and 10 hex digits, as ramify writes them)", id)
+			return nil, false
+		}
+		out = append(out, conceptID{id, at})
+	}
+	return out, true
+}
+
+// place finds (making it where needed) the category a path names; ids,
+// if not nil, gives each level's concept identifier.
+func (b *importTree) place(cell string, off, line int, ids []conceptID, ds *format.Diags) (*format.Category, bool) {
+	if strings.TrimSpace(cell) == "" {
+		if len(ids) > 0 {
+			ds.Add(ids[0].at, "concept identifiers for an item at the top level (its path is empty)")
+			return nil, false
+		}
 		return b.root, true
 	}
 	c := b.root
 	start := 0
 	parts := strings.Split(cell, b.sep)
+	if ids != nil && len(ids) != len(parts) {
+		ds.Add(ids[0].at, "%d concept identifiers for a path of %d levels", len(ids), len(parts))
+		return nil, false
+	}
 	for level, raw := range parts {
 		segStart := start
 		start += len(raw) + len(b.sep)
@@ -193,9 +237,34 @@ func (b *importTree) place(cell string, off, line int, ds *format.Diags) (*forma
 			ds.Add(at, "category %q is %s here but %s at line %d", name, mark(provisional), mark(next.Provisional), b.seenAt[next])
 			return nil, false
 		}
+		if ids != nil && !b.setID(next, ids[level], line, ds) {
+			return nil, false
+		}
 		c = next
 	}
 	return c, true
+}
+
+// setID gives c its concept identifier, which every row through c must
+// agree on and no other category may have.
+func (b *importTree) setID(c *format.Category, id conceptID, line int, ds *format.Diags) bool {
+	if id.id == "" {
+		return true
+	}
+	if b.idAt == nil {
+		b.idAt = map[string]*format.Category{}
+	}
+	switch other := b.idAt[id.id]; {
+	case c.ID != "" && c.ID != id.id:
+		ds.Add(id.at, "category %q has concept identifier %s here but %s at line %d", c.Name, id.id, c.ID, b.seenAt[c])
+		return false
+	case other != nil && other != c:
+		ds.Add(id.at, "concept identifier %s names category %q here but %q at line %d", id.id, c.Name, other.Name, b.seenAt[other])
+		return false
+	}
+	c.ID = id.id
+	b.idAt[id.id] = c
+	return true
 }
 
 // importHasControl reports a control character other than those allowed.

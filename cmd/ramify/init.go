@@ -22,7 +22,7 @@ In a git repository it also runs "ramify git-setup", so that git diff
 and git merge of the outline go through ramify.
 
 --from FILE starts the repository from a taxonomy you already have: a CSV
-with id and path columns (optional label, tags, text; the path's category
+with id and path columns (optional label, tags, text, concepts; the path's category
 names joined by " > ", or by "/" when no path uses " > "), or an .outline
 file, or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or
 JSON-LD (.jsonld, .json). It writes items.toml and taxonomy.outline with
