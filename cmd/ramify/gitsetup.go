@@ -23,6 +23,12 @@ func init() {
                    "git status" (the next ramify command removes or
                    finishes them)
   .git/config      the local config of the drivers (git config --local)
+  .git/hooks/pre-merge-commit
+                   runs "ramify git-merge-check" before a merge commit: a
+                   merge whose constraint records contradict each other
+                   stops there, even when only one branch changed the
+                   outline (and git ran no merge driver); a hook that is
+                   not ramify's is left alone
 
 Afterwards "git diff" shows what changed in an outline as ramify diff
 does, and "git log -p" (which runs no external diff unless given
@@ -123,7 +129,8 @@ func gitSetup(e *env, dir string) ([]string, error) {
 		}
 		changes = append(changes, "set git config "+c.key+" = "+c.value)
 	}
-	return changes, nil
+	hook, err := installMergeHook(e, dir, prog)
+	return append(changes, hook...), err
 }
 
 // gitSetupForInit is what `ramify init` runs: gitSetup when dir is in a
