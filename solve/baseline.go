@@ -27,6 +27,7 @@ func Baseline(g *graph.CSR, opt Options) (*Result, error) {
 		maxChildren: opt.MaxChildren,
 		maxDepth:    opt.MaxDepth,
 		ratio:       foldTightness,
+		browsable:   true,
 	}, progress)
 	return &Result{Binary: binary, Taxonomy: tax}, nil
 }

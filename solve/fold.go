@@ -3,6 +3,7 @@ package solve
 import (
 	"container/heap"
 	"math"
+	"slices"
 	"sort"
 
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -63,6 +64,8 @@ type foldParams struct {
 	// to stay, so that the previous outline is not refined needlessly.
 	prior     [][]int32
 	stability float64
+	// browsable opens chains and a dominant top level (see foldChains).
+	browsable bool
 }
 
 // folder is the mutable multiway tree over the binary tree's node ids.
@@ -109,6 +112,9 @@ func fold(g *graph.CSR, t *Tree, c *Constraints, p foldParams, progress func(str
 	progress("fold", 2, 3)
 	if p.maxDepth > 0 {
 		f.foldDeep()
+	}
+	if p.browsable {
+		f.foldChains()
 	}
 	if p.minSize > 1 {
 		f.foldSmall() // folds above may have made a blocked one legal
@@ -499,6 +505,113 @@ func (f *folder) foldDeep() {
 			}
 		}
 	}
+}
+
+// Browsable shape. Sparsest cuts on real similarity graphs often peel a
+// few outlying items off a large set, and the tightness rule keeps the
+// large remainder, which is far tighter than the loose set it was cut
+// from. The result is a caterpillar: a category whose one subcategory
+// holds nearly all of its items, inside another such, so that a reader
+// opens level after level before reaching any real grouping. Such a level
+// groups nothing; the items it sets apart are the outliers of its parent.
+const (
+	// chainShare: a category whose largest subcategory holds more than
+	// this share of its items is a chain, and that subcategory is folded
+	// into it (its children become the category's own).
+	chainShare = 0.8
+	// topShare is the same bound for the top level, where a reader starts:
+	// no top-level category holds more than this share of the items while
+	// one can be opened.
+	topShare = 0.6
+	// minTopLevel is the fewest top-level categories worth browsing: while
+	// the top level has fewer, its largest category is opened if that
+	// gives it more.
+	minTopLevel = 3
+)
+
+// foldChains opens chains top-down: at each category (the root first) it
+// folds the largest subcategory while that holds more than chainShare of
+// the category's items (topShare at the root, which also opens its largest
+// subcategory while it has fewer than minTopLevel). Folds keep every limit
+// and constraint (legal); a previous category kept by stability is never
+// opened, so stability still keeps the shelves editors know.
+func (f *folder) foldChains() {
+	cnt := f.leafCounts()
+	stack := []int32{f.t.Root}
+	for len(stack) > 0 {
+		v := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		share := chainShare
+		if v == f.t.Root {
+			share = topShare
+		}
+		for {
+			u, subs := f.largestSubcategory(v, cnt)
+			if u < 0 || (f.keep != nil && f.keep[u]) {
+				break
+			}
+			big := float64(cnt[u]) > share*float64(cnt[v])
+			// Opening a category with fewer than two subcategories would not
+			// give the top level more of them.
+			few := v == f.t.Root && subs < minTopLevel && f.subcategories(u) >= 2
+			if !big && !few {
+				break
+			}
+			if f.legal(u) {
+				f.contract(u)
+				continue
+			}
+			// Opening u would give v too many subcategories: lift u's
+			// largest subcategory beside it instead, one at a time.
+			if !big || !f.promotable(u) {
+				break
+			}
+			w, _ := f.largestSubcategory(u, cnt)
+			if w < 0 || (f.p.maxChildren > 0 && subs+1 > f.p.maxChildren) {
+				break
+			}
+			f.promote(w, cnt)
+		}
+		for _, k := range f.kids[v] {
+			if !f.t.IsLeaf(k) {
+				stack = append(stack, k)
+			}
+		}
+	}
+}
+
+// promotable reports whether a subcategory of u may move up beside u: u
+// loses those members, so u must not be a cluster constraint, nor the
+// lowest common ancestor of a constrained pair (whose third item could then
+// share the new common ancestor), nor a category kept by stability.
+func (f *folder) promotable(u int32) bool {
+	return f.alive[u] && u != f.t.Root && !f.pinned[u] && len(f.tripsAt[u]) == 0 && (f.keep == nil || !f.keep[u])
+}
+
+// promote moves category w from its parent up to its grandparent.
+func (f *folder) promote(w int32, cnt []int) {
+	u := f.parent[w]
+	v := f.parent[u]
+	f.kids[u] = slices.DeleteFunc(f.kids[u], func(x int32) bool { return x == w })
+	f.kids[v] = append(f.kids[v], w)
+	f.parent[w] = v
+	cnt[u] -= cnt[w]
+}
+
+// largestSubcategory is v's internal child with the most leaves (the
+// smallest id among equals), or -1, and the number of internal children.
+func (f *folder) largestSubcategory(v int32, cnt []int) (int32, int) {
+	best, subs := int32(-1), 0
+	for _, k := range f.kids[v] {
+		if f.t.IsLeaf(k) {
+			continue
+		}
+		subs++
+		if best < 0 || cnt[k] > cnt[best] || (cnt[k] == cnt[best] && k < best) {
+			best = k
+		}
+	}
+	return best, subs
 }
 
 // result builds the folded tree with fresh internal ids in post-order and

@@ -113,6 +113,7 @@ func solveWith(g *graph.CSR, c *Constraints, opt Options, cp constructParams) (*
 		ratio:       foldTightness,
 		prior:       priorForFold(opt),
 		stability:   opt.Stability,
+		browsable:   true,
 	}, progress)
 	return &Result{Binary: binary, Taxonomy: tax}, nil
 }

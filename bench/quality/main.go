@@ -39,6 +39,7 @@ weight = 1.0
 func main() {
 	methods := flag.String("method", "constrained,average", "comma-separated methods to measure")
 	only := flag.String("set", "", "measure only these comma-separated sets")
+	out := flag.String("out", "", "also write each set's outline to DIR/SET.METHOD.outline")
 	extra := flag.String("settings", "", "TOML appended to every benchmark repository's ramify.toml (to try other settings)")
 	flag.Parse()
 	sets, err := realdata.All()
@@ -66,6 +67,13 @@ func main() {
 		rows, err := measureAll(sets, method, settingsText+*extra)
 		if err != nil {
 			fail(err)
+		}
+		if *out != "" {
+			for _, r := range rows {
+				if err := os.WriteFile(filepath.Join(*out, r.name+"."+string(method)+".outline"), r.outline, 0o644); err != nil {
+					fail(err)
+				}
+			}
 		}
 		fmt.Printf("method %s\n\n", method)
 		printTable(rows)
