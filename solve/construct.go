@@ -7,6 +7,7 @@ import (
 	"runtime"
 	"sort"
 	"sync"
+	"sync/atomic"
 
 	"github.com/ramify-tax/ramify/solve/graph"
 )
@@ -72,11 +73,21 @@ func construct(g *graph.CSR, c *Constraints, p constructParams) (*Tree, error) {
 	}
 	b := &builder{g: g, n: n, params: p}
 	b.compile(c)
-	if !p.noGuide {
-		b.guide = newGuide(g)
-	}
 	if n == 1 {
 		return NewTree(1), nil
+	}
+	if !p.noGuide {
+		// The guide is built beside the first splits: the largest sets
+		// come first and keep one worker busy alone for a while, and
+		// nothing reads the guide before the first spectral split has
+		// its own cut (tryGuide waits for it there).
+		ready := make(chan struct{})
+		b.guideReady = ready
+		go func() {
+			defer close(ready)
+			b.guide = newGuide(g)
+		}()
+		defer func() { <-ready }()
 	}
 	b.order = make([]int32, n)
 	for i := range b.order {
@@ -108,6 +119,7 @@ func (b *builder) runWorkers() error {
 		done     = 0
 		reported = 0
 		firstErr error
+		idle     atomic.Int32
 	)
 	var wg sync.WaitGroup
 	for i := 0; i < workers; i++ {
@@ -115,10 +127,13 @@ func (b *builder) runWorkers() error {
 		go func() {
 			defer wg.Done()
 			w := newConstructWorker(b.n)
+			w.sp.helpers = helpers{&idle}
 			mu.Lock()
 			for {
 				for len(stack) == 0 && busy > 0 && firstErr == nil {
+					idle.Add(1)
 					cond.Wait()
+					idle.Add(-1)
 				}
 				if len(stack) == 0 || firstErr != nil {
 					mu.Unlock()
@@ -162,22 +177,24 @@ type ctask struct {
 // segments of order, trip and clus and its leaves' entries in uf, local and
 // side.
 type builder struct {
-	g        *graph.CSR
-	n        int
-	params   constructParams
-	guide    *guide    // the average-linkage second opinion; nil when off
-	trips    []Triplet // non-trivial triplets (three distinct leaves)
-	clusters [][]int32 // deduplicated, ascending, at least two leaves
-	groups   [][]int32 // previous categories (soft), same form
-	covered  []bool    // leaf lies in some previous category
-	order    []int32
-	gapDepth []int32
-	trip     []int32
-	clus     []int32
-	grp      []int32
-	uf       unionFind
-	local    []int32 // leaf → super-node index in its current set
-	side     []int8
+	g      *graph.CSR
+	n      int
+	params constructParams
+	guide  *guide // the average-linkage second opinion; nil when off
+	// guideReady is closed once guide is set (nil: no guide is built).
+	guideReady <-chan struct{}
+	trips      []Triplet // non-trivial triplets (three distinct leaves)
+	clusters   [][]int32 // deduplicated, ascending, at least two leaves
+	groups     [][]int32 // previous categories (soft), same form
+	covered    []bool    // leaf lies in some previous category
+	order      []int32
+	gapDepth   []int32
+	trip       []int32
+	clus       []int32
+	grp        []int32
+	uf         unionFind
+	local      []int32 // leaf → super-node index in its current set
+	side       []int8
 }
 
 func (b *builder) compile(c *Constraints) {

@@ -113,6 +113,10 @@ func (gd *guide) threshold(leaves []int32, buf []int32) (cut int32, ok bool, out
 // the same set when that has lower ψ after the same refinement. Super-nodes
 // go to the side holding most of their members.
 func (b *builder) tryGuide(w *constructWorker, h *graph.CSR) {
+	if b.guideReady == nil {
+		return
+	}
+	<-b.guideReady
 	if b.guide == nil {
 		return
 	}

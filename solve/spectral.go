@@ -193,6 +193,8 @@ type spectralWork struct {
 	s        []float64 // B^{-1/2}
 	w, out   []float64
 	h, qj, y []float64
+	qprev    []float64 // the Lanczos vector before qj
+	helpers  helpers   // who may help with the large kernels
 	diag     []float64 // A's diagonal
 	offA     []float64 // A's off-diagonal entries, in g's layout
 	alpha    []float64
@@ -303,12 +305,20 @@ func (sp *spectralWork) prepareA(g *graph.CSR, deg []float64) {
 	}
 }
 
-// applyA sets out = A y (prepareA must have run for g).
+// applyA sets out = A y (prepareA must have run for g). Rows are
+// independent, so large graphs split them across CPUs.
 func (sp *spectralWork) applyA(g *graph.CSR, y, out []float64) {
-	for i := 0; i < g.N; i++ {
+	parallelSpans(g.N, sp.helpers.parts(len(g.Targets)), func(lo, hi int) {
+		sp.applyARows(g, y, out, lo, hi)
+	})
+}
+
+func (sp *spectralWork) applyARows(g *graph.CSR, y, out []float64, lo, hi int) {
+	for i := lo; i < hi; i++ {
 		lo, hi := g.Offsets[i], g.Offsets[i+1]
 		acc := float64(sp.diag[i] * y[i])
 		ts, ws := g.Targets[lo:hi], sp.offA[lo:hi]
+		ws = ws[:len(ts)]
 		for k, t := range ts {
 			acc -= float64(ws[k] * y[t])
 		}
@@ -366,17 +376,19 @@ func dot(a, b []float64) float64 {
 	return s
 }
 
-// column copies basis column j into dst.
-func (sp *spectralWork) column(j int, dst []float64) {
-	for r := range dst {
-		dst[r] = sp.basis[r*sp.stride+j]
-	}
-}
-
-func (sp *spectralWork) setColumn(j int, src []float64, scale float64) {
-	for r, v := range src {
-		sp.basis[r*sp.stride+j] = float64(v * scale)
-	}
+// setColumn sets basis column j to scale·src and keeps a contiguous copy
+// of it in dst (nil: no copy), so the next step reads it without striding
+// through the basis.
+func (sp *spectralWork) setColumn(j int, src []float64, scale float64, dst []float64) {
+	parallelSpans(len(src), sp.helpers.parts(len(src)), func(lo, hi int) {
+		for r := lo; r < hi; r++ {
+			v := float64(src[r] * scale)
+			sp.basis[r*sp.stride+j] = v
+			if dst != nil {
+				dst[r] = v
+			}
+		}
+	})
 }
 
 // orthogonalise removes from w its components along basis columns 0..j by
@@ -387,37 +399,15 @@ func (sp *spectralWork) orthogonalise(w []float64, j int) float64 {
 	before := math.Sqrt(dot(w, w))
 	after := before
 	m := j + 1
-	stride := sp.stride
+	parts := sp.helpers.parts(len(w) * m)
 	for pass := 0; pass < 2; pass++ {
 		h := grow(sp.h, m)
 		sp.h = h
-		for i := range h {
-			h[i] = 0
-		}
-		for r, wr := range w {
-			row := sp.basis[r*stride : r*stride+m : r*stride+m]
-			hh := h[:len(row)]
-			for i, q := range row {
-				hh[i] += float64(q * wr)
-			}
-		}
-		for r := range w {
-			row := sp.basis[r*stride : r*stride+m : r*stride+m]
-			hh := h[:len(row)]
-			// Four partial sums in a fixed order: faster, still deterministic.
-			var a0, a1, a2, a3 float64
-			i := 0
-			for ; i+4 <= len(row); i += 4 {
-				a0 += float64(row[i] * hh[i])
-				a1 += float64(row[i+1] * hh[i+1])
-				a2 += float64(row[i+2] * hh[i+2])
-				a3 += float64(row[i+3] * hh[i+3])
-			}
-			for ; i < len(row); i++ {
-				a0 += float64(row[i] * hh[i])
-			}
-			w[r] -= (a0 + a1) + (a2 + a3)
-		}
+		sp.project(w, h)
+		// w −= Q h, row by row.
+		parallelSpans(len(w), parts, func(lo, hi int) {
+			sp.subtract(w, h[:m], lo, hi)
+		})
 		after = math.Sqrt(dot(w, w))
 		if after > 0.7071*before {
 			break
@@ -425,6 +415,46 @@ func (sp *spectralWork) orthogonalise(w []float64, j int) float64 {
 		before = after
 	}
 	return after
+}
+
+// project sets h = Qᵀw over basis columns 0..len(h)−1, each sum taken
+// over the rows in order. It streams the basis row by row, which keeps it
+// at the speed of memory; it stays on one goroutine, because splitting the
+// rows would change the order of the sums.
+func (sp *spectralWork) project(w, h []float64) {
+	for i := range h {
+		h[i] = 0
+	}
+	stride := sp.stride
+	for r, wr := range w {
+		row := sp.basis[r*stride : r*stride+len(h) : r*stride+len(h)]
+		hh := h[:len(row)]
+		for i, q := range row {
+			hh[i] += float64(q * wr)
+		}
+	}
+}
+
+// subtract sets w[r] −= (row r of the basis)·h for rows lo..hi−1.
+func (sp *spectralWork) subtract(w, h []float64, lo, hi int) {
+	stride := sp.stride
+	for r := lo; r < hi; r++ {
+		row := sp.basis[r*stride : r*stride+len(h) : r*stride+len(h)]
+		hh := h[:len(row)]
+		// Four partial sums in a fixed order: faster, still deterministic.
+		var a0, a1, a2, a3 float64
+		i := 0
+		for ; i+4 <= len(row); i += 4 {
+			a0 += float64(row[i] * hh[i])
+			a1 += float64(row[i+1] * hh[i+1])
+			a2 += float64(row[i+2] * hh[i+2])
+			a3 += float64(row[i+3] * hh[i+3])
+		}
+		for ; i < len(row); i++ {
+			a0 += float64(row[i] * hh[i])
+		}
+		w[r] -= (a0 + a1) + (a2 + a3)
+	}
 }
 
 // lanczos runs Lanczos with full reorthogonalisation on A, with its known
@@ -439,11 +469,12 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 	sp.basis = grow(sp.basis, n*sp.stride)
 	sp.w = grow(sp.w, n)
 	sp.qj = grow(sp.qj, n)
+	sp.qprev = grow(sp.qprev, n)
 	sp.y = grow(sp.y, n)
 	sp.alpha = sp.alpha[:0]
 	sp.beta = sp.beta[:0]
 	sp.prepareA(g, deg)
-	w, qj := sp.w, sp.qj
+	w, qj, qprev := sp.w, sp.qj, sp.qprev
 
 	// Column 0: the known bottom eigenvector B^{1/2}1, normalised.
 	total := 0.0
@@ -453,7 +484,7 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 	for i := range w {
 		w[i] = math.Sqrt(b[i] / total)
 	}
-	sp.setColumn(0, w, 1)
+	sp.setColumn(0, w, 1, nil)
 	// Column 1: the seeded start vector, made orthogonal to column 0.
 	for i := range w {
 		w[i] = startValue(seed, ids[i])
@@ -465,11 +496,11 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 		}
 		nrm = sp.orthogonalise(w, 0)
 	}
-	sp.setColumn(1, w, 1/nrm)
+	sp.setColumn(1, w, 1/nrm, qj)
 
 	steps := 0
 	for j := 1; j <= maxSteps; j++ {
-		sp.column(j, qj)
+		// qj holds basis column j, qprev column j−1.
 		sp.applyA(g, qj, w)
 		a := dot(qj, w)
 		sp.alpha = append(sp.alpha, a)
@@ -477,15 +508,15 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 		// against every earlier vector, which only has rounding to remove.
 		axpy(-a, qj, w)
 		if j > 1 {
-			sp.column(j-1, qj)
-			axpy(-sp.beta[j-2], qj, w)
+			axpy(-sp.beta[j-2], qprev, w)
 		}
 		beta := sp.orthogonalise(w, j)
 		steps = j
 		last := beta <= 1e-12*math.Max(1, math.Abs(a)) || j == maxSteps
 		if !last {
 			sp.beta = append(sp.beta, beta)
-			sp.setColumn(j+1, w, 1/beta)
+			qj, qprev = qprev, qj
+			sp.setColumn(j+1, w, 1/beta, qj)
 		}
 		due := j >= cutFirstCheck && (j-cutFirstCheck)%cutCheckEvery == 0
 		if !due && !last {
@@ -498,10 +529,12 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 			residual = math.Abs(float64(beta * coef[steps-1]))
 		}
 		y := sp.y
-		for r := range y {
-			row := sp.basis[r*sp.stride+1 : r*sp.stride+1+steps]
-			y[r] = dot(row, coef)
-		}
+		parallelSpans(n, sp.helpers.parts(n*steps), func(lo, hi int) {
+			for r := lo; r < hi; r++ {
+				row := sp.basis[r*sp.stride+1 : r*sp.stride+1+steps]
+				y[r] = dot(row, coef)
+			}
+		})
 		nrm := math.Sqrt(dot(y, y))
 		for i := range y {
 			y[i] /= nrm
