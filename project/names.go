@@ -21,25 +21,7 @@ func (p *Project) nameCategories(root, prev *format.Category) naming.Counts {
 			}
 		}
 	}
-	cache := map[string][]string{}
-	words := func(id string) []string {
-		if w, ok := cache[id]; ok {
-			return w
-		}
-		i, ok := p.Index[id]
-		if !ok {
-			return nil
-		}
-		it := p.Items[i]
-		w := append([]string(nil), it.Tags...)
-		for _, tok := range graph.Tokens(it.Label + " " + it.Text) {
-			if !unnamingWords[tok] && !isNumberLike(tok) {
-				w = append(w, tok)
-			}
-		}
-		cache[id] = w
-		return w
-	}
+	words := p.namingWords()
 	var typed []naming.Typed
 	for _, src := range p.NameSources {
 		typed = append(typed, TypedNames(src)...)
@@ -69,6 +51,54 @@ func TypedNames(tree *format.Category) []naming.Typed {
 		return true
 	})
 	return out
+}
+
+// namingWords lists, for each item, the words a provisional name may be
+// made of: its tags, the words of its label, and those words of its
+// description that name something somewhere in the collection, that is,
+// that stand in some item's label. Descriptions are full of words that
+// distinguish nothing ("used", "usually", "one", "small"): they describe
+// how a thing is, not what kind it is, and people do not name things by
+// them. Whether a word names things is read from where it occurs in the
+// data, not from a list. When no item has a label, every description word
+// may name. Plurals are folded (graph.PluralStem) so that "chairs" and
+// "chair" count as one word.
+func (p *Project) namingWords() func(id string) []string {
+	naming := map[string]bool{}
+	for _, it := range p.Items {
+		for _, tok := range graph.Tokens(it.Label) {
+			naming[graph.PluralStem(tok)] = true
+		}
+	}
+	cache := map[string][]string{}
+	return func(id string) []string {
+		if w, ok := cache[id]; ok {
+			return w
+		}
+		i, ok := p.Index[id]
+		if !ok {
+			return nil
+		}
+		it := p.Items[i]
+		w := append([]string(nil), it.Tags...)
+		add := func(tok string, fromLabel bool) {
+			tok = graph.PluralStem(tok)
+			if unnamingWords[tok] || isNumberLike(tok) {
+				return
+			}
+			if fromLabel || len(naming) == 0 || naming[tok] {
+				w = append(w, tok)
+			}
+		}
+		for _, tok := range graph.Tokens(it.Label) {
+			add(tok, true)
+		}
+		for _, tok := range graph.Tokens(it.Text) {
+			add(tok, false)
+		}
+		cache[id] = w
+		return w
+	}
 }
 
 // unnamingWords are words that describe an item well enough but never

@@ -71,16 +71,18 @@ func TestAssignProvisionalNames(t *testing.T) {
 	// {claw, mallet, drill} in all 6: hammer, hand, striking 2/3·ln 2 =
 	// 0.462 each (byte order: hammer, hand); rubber, power, drill, battery
 	// 1/3·ln 2 = 0.231.
-	// {claw, mallet} in those 3: hammer, hand, striking 1·ln 1.5 = 0.405;
-	// "hammer · hand" is the parent's name, so the next pair is taken.
+	// {claw, mallet} in those 3: hammer, hand, striking 1·ln 1.5 = 0.405,
+	// rubber 0.5·ln 1.5 = 0.203; hammer and hand are in the parent's name,
+	// so a name along the path would repeat them: striking and rubber.
 	// {laser, spirit, tape} in all 6: measure 1·ln 2 = 0.693, level
 	// 2/3·ln 2 = 0.462.
-	// {laser, spirit} in those 3: level 1·ln 1.5 = 0.405; laser, spirit
-	// 0.5·ln 1.5 = 0.203 (byte order: laser); measure is everywhere: 0.
+	// {laser, spirit} in those 3: level 1·ln 1.5 = 0.405 but in the
+	// parent's name; laser, spirit 0.5·ln 1.5 = 0.203 (byte order: laser);
+	// measure is everywhere and in the parent's name.
 	want := "~ hammer · hand\n" +
-		"  ~ hammer · striking\n" +
+		"  ~ striking · rubber\n" +
 		"~ measure · level\n" +
-		"  ~ level · laser\n"
+		"  ~ laser · spirit\n"
 	if got := names(root); got != want {
 		t.Errorf("names:\n%s\nwant:\n%s", got, want)
 	}
@@ -106,7 +108,7 @@ func TestAssignFixedNames(t *testing.T) {
 	}
 	counts := Assign(root, nil, fixed, tags(toolTags))
 	want := "~ hammer · hand\n" +
-		"  ~ hammer · striking\n" +
+		"  ~ striking · rubber\n" +
 		"~ measure · level\n" +
 		"  Levels\n"
 	if got := names(root); got != want {
@@ -318,4 +320,47 @@ func TestAssignTypedNames(t *testing.T) {
 	if counts.Typed != 1 || counts.Carried != 1 {
 		t.Errorf("AssignTyped counts = %+v, want Typed 1, Carried 1", counts)
 	}
+}
+
+// Provisional names repeat no word of the names above them and no
+// sibling's name: two sibling categories whose best words are the same
+// get different pairs, and a child never reuses its parent's words.
+func TestProvisionalNamesDistinctAlongPathsAndSiblings(t *testing.T) {
+	// Under the parent every word of a and b scores 0 (all its items hold
+	// them), so both children would take the first pair, "hand · saw";
+	// the second takes the next, "hand · tooth", instead of a number.
+	words := map[string]string{
+		"a1": "blade fine hand saw tooth", "a2": "blade fine hand saw tooth",
+		"b1": "blade fine hand saw tooth", "b2": "blade fine hand saw tooth",
+		"c1": "metal drill", "c2": "metal drill", "c3": "metal file",
+	}
+	root := unnamed(
+		[]any{[]any{"a1", "a2"}, []any{"b1", "b2"}},
+		[]any{"c1", "c2", "c3"},
+	)
+	if counts := Assign(root, nil, nil, tags(words)); counts.Suffixed != 0 {
+		t.Errorf("Assign numbered %d names apart:\n%s", counts.Suffixed, names(root))
+	}
+	var check func(c *format.Category, above map[string]bool)
+	check = func(c *format.Category, above map[string]bool) {
+		seen := map[string]bool{}
+		for _, ch := range c.Children {
+			if seen[ch.Name] {
+				t.Errorf("siblings share the name %q:\n%s", ch.Name, names(root))
+			}
+			seen[ch.Name] = true
+			mine := map[string]bool{}
+			for k := range above {
+				mine[k] = true
+			}
+			for _, w := range strings.Split(ch.Name, Separator) {
+				if above[w] {
+					t.Errorf("%q repeats %q from a name above it:\n%s", ch.Name, w, names(root))
+				}
+				mine[w] = true
+			}
+			check(ch, mine)
+		}
+	}
+	check(root, map[string]bool{})
 }

@@ -33,7 +33,7 @@ func ExampleAssign() {
 	//   claw-hammer
 	//   mallet-rubber
 	// ~ measure · level/
-	//   ~ level · laser/
+	//   ~ laser · spirit/
 	//     laser-level
 	//     spirit-level-60
 	//   tape-measure-8m

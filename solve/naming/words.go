@@ -49,10 +49,43 @@ type wordCounter struct {
 	words func(string) []string
 	cache map[int]map[string]int // by category index; −1 is the root
 	clean map[string][]string    // usable distinct words of each item
+	// up records, for each category named so far, its parent and the
+	// parent's name, so that the names along a path can be read back.
+	up map[int]link
+	// given holds the names made so far under each parent.
+	given map[int]map[string]bool
+}
+
+type link struct {
+	parent int
+	name   string
 }
 
 func newWordCounter(words func(string) []string) *wordCounter {
-	return &wordCounter{words: words, cache: map[int]map[string]int{}, clean: map[string][]string{}}
+	return &wordCounter{
+		words: words, cache: map[int]map[string]int{}, clean: map[string][]string{},
+		up: map[int]link{}, given: map[int]map[string]bool{},
+	}
+}
+
+// pathWords are the words of the names above a category whose parent is
+// parent (named parentName): its parent's and, through the categories
+// named before, every ancestor's that is known.
+func (w *wordCounter) pathWords(parent int, parentName string) map[string]bool {
+	out := map[string]bool{}
+	name := parentName
+	for {
+		for _, part := range strings.Split(name, Separator) {
+			for _, x := range strings.Fields(strings.ToLower(part)) {
+				out[x] = true
+			}
+		}
+		l, ok := w.up[parent]
+		if !ok || parent < 0 {
+			return out
+		}
+		parent, name = l.parent, l.name
+	}
 }
 
 func (w *wordCounter) itemWords(item string) []string {
@@ -92,8 +125,23 @@ func (w *wordCounter) df(key int, items []string) map[string]int {
 // category parent (parentItems, named parentName); the indices key the
 // count cache.
 func (w *wordCounter) name(self int, members []string, parent int, parentItems []string, parentName string) string {
+	name := w.pick(self, members, parent, parentItems, parentName)
+	w.up[self] = link{parent, parentName}
+	if w.given[parent] == nil {
+		w.given[parent] = map[string]bool{}
+	}
+	w.given[parent][name] = true
+	return name
+}
+
+// pick chooses the name; see ProvisionalName. Words of the names above the
+// category are left out (a subcategory named "~ chair · garden" under
+// "~ chair · back" says "chair" twice and tells the reader nothing new),
+// and so are names a sibling was given already.
+func (w *wordCounter) pick(self int, members []string, parent int, parentItems []string, parentName string) string {
 	inCat := w.df(self, members)
 	inParent := w.df(parent, parentItems)
+	above := w.pathWords(parent, parentName)
 	type scored struct {
 		word  string
 		score float64
@@ -102,6 +150,9 @@ func (w *wordCounter) name(self int, members []string, parent int, parentItems [
 	var cands []scored
 	nC, nP := float64(len(members)), float64(len(parentItems))
 	for x, df := range inCat {
+		if above[strings.ToLower(x)] {
+			continue
+		}
 		// The category is inside its parent, so df_P ≥ df_C > 0.
 		pC, pP := float64(df)/nC, float64(max(inParent[x], df))/nP
 		cands = append(cands, scored{x, round12(pC * math.Log(pC/pP)), df})
@@ -133,16 +184,22 @@ func (w *wordCounter) name(self int, members []string, parent int, parentItems [
 			usable++
 		}
 	}
-	if usable == 1 {
-		return cands[0].word
+	taken := w.given[parent]
+	if usable == 1 || len(cands) == 1 {
+		if !taken[cands[0].word] || len(cands) == 1 {
+			return cands[0].word
+		}
+		usable = max(usable, 2)
 	}
-	// The best pair, in rank order (0,1), (0,2), (1,2), (0,3), …, whose
-	// name differs from the parent's: a subcategory named like its parent
-	// would tell the reader nothing.
+	// The best pair, in rank order (0,1), (0,2), (1,2), (0,3), …, that no
+	// sibling has and that differs from the parent's name.
 	first := cands[0].word + Separator + cands[1].word
-	for j := 1; j < usable; j++ {
+	for j := 1; j < len(cands); j++ {
+		if j >= usable && j > 1 {
+			break
+		}
 		for i := 0; i < j; i++ {
-			if n := cands[i].word + Separator + cands[j].word; n != parentName {
+			if n := cands[i].word + Separator + cands[j].word; n != parentName && !taken[n] {
 				return n
 			}
 		}

@@ -1,0 +1,30 @@
+package project
+
+import (
+	"slices"
+	"testing"
+
+	"github.com/ramify-tax/ramify/format"
+)
+
+// Description words that stand in no item's label ("used", "usually")
+// cannot name a category; label words, tags and description words that
+// some label holds can. Plurals fold into their singular.
+func TestNamingWordsKeepWordsThatName(t *testing.T) {
+	p := &Project{Items: []format.Item{
+		{ID: "a", Label: "claw hammer", Tags: []string{"striking"}, Text: "usually used for nails; a kind of mallet"},
+		{ID: "b", Label: "rubber mallet", Text: "used on tiles"},
+	}, Index: map[string]int{"a": 0, "b": 1}}
+	words := p.namingWords()
+	if got, want := words("a"), []string{"striking", "claw", "hammer", "mallet"}; !slices.Equal(got, want) {
+		t.Errorf("namingWords(a) = %q, want %q", got, want)
+	}
+	if got, want := words("b"), []string{"rubber", "mallet"}; !slices.Equal(got, want) {
+		t.Errorf("namingWords(b) = %q, want %q", got, want)
+	}
+	// Without labels, every description word may name.
+	q := &Project{Items: []format.Item{{ID: "a", Text: "usually used for nails"}}, Index: map[string]int{"a": 0}}
+	if got, want := q.namingWords()("a"), []string{"usually", "used", "nail"}; !slices.Equal(got, want) {
+		t.Errorf("namingWords without labels = %q, want %q", got, want)
+	}
+}
