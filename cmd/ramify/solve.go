@@ -72,7 +72,7 @@ func runSolve(e *env, args []string) error {
 	fillSolveReport(e, p, sol, prev)
 	changed := !bytes.Equal(sol.Text, p.OutlineText)
 	if changed && !dryRun {
-		if err := format.WriteFileAtomic(p.OutlinePath(), sol.Text, 0o644); err != nil {
+		if err := writeOutlineGuarded(p, sol.Text); err != nil {
 			return err
 		}
 	}
