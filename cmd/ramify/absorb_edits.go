@@ -43,7 +43,7 @@ func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date strin
 		return nil, nil
 	}
 	if ms := p.OutlineMembership(); len(ms) > 0 {
-		return nil, ms
+		return nil, outlineMembershipError(ms, p.Settings.Taxonomy.File+" does not place exactly the repository's items; fix the lines named, then absorb")
 	}
 	rel := p.Settings.Taxonomy.File
 	edited := p.Outline.Root

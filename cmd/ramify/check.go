@@ -55,7 +55,7 @@ func runCheck(e *env, args []string) error {
 	}
 	root := p.Outline.Root
 	counts := countRecords(p.Constraints)
-	e.say("ok: %d items in %d categories (depth %d); %s, all holding", len(p.Items), root.CountCategories(), root.Depth(), describeRecords(counts))
+	e.say("ok: %s in %s (depth %d); %s, all holding", plural(len(p.Items), "item", "items"), plural(root.CountCategories(), "category", "categories"), root.Depth(), describeRecords(counts))
 	return nil
 }
 
@@ -77,13 +77,7 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 		return nil, failf("%s does not exist yet; run `ramify solve` to write it", rel)
 	}
 	if ms := p.OutlineMembership(); len(ms) > 0 {
-		lines := make([]string, 0, len(ms)+1)
-		for _, d := range ms {
-			lines = append(lines, d.String())
-		}
-		lines = append(lines, rel+" is out of date with the items; run `ramify solve`")
-		e.report["problems"] = problemsJSON(ms)
-		return nil, &failure{lines: lines}
+		return nil, outlineMembershipError(ms, rel+" is out of date with the items; run `ramify solve`")
 	}
 	if p.Outline.Edited() {
 		return nil, failf("%s was reshaped by hand since ramify wrote it; run `ramify absorb` to record the edits as constraints", rel)

@@ -95,6 +95,23 @@ func usagef(format string, args ...any) error {
 	return &usageError{msg: fmt.Sprintf(format, args...)}
 }
 
+// adviceDiags is bad input (exit 2, like format.Diags) with lines of
+// advice printed after the problems: what to run to put them right.
+type adviceDiags struct {
+	ds     format.Diags
+	advice []string
+}
+
+func (a *adviceDiags) Error() string { return a.ds.Error() }
+
+// outlineMembershipError is how every command reports an outline that
+// names items the repository does not have, or leaves some out: each
+// problem at its file:line:col, exit status 2 (a file problem, as the
+// README's rule says), and what to run.
+func outlineMembershipError(ms format.Diags, advice string) error {
+	return &adviceDiags{ds: ms, advice: []string{advice}}
+}
+
 // problemJSON is one problem in a --json report.
 type problemJSON struct {
 	File    string `json:"file"`
@@ -128,8 +145,19 @@ func (e *env) finish(c *command, err error) int {
 	var ds format.Diags
 	var fl *failure
 	var ue *usageError
+	var ad *adviceDiags
 	switch {
 	case err == nil:
+	case errors.As(err, &ad):
+		code = exitUsage
+		e.report["problems"] = problemsJSON(ad.ds)
+		for _, d := range ad.ds {
+			fmt.Fprintln(e.stderr, d.String())
+		}
+		for _, l := range ad.advice {
+			fmt.Fprintln(e.stderr, l)
+		}
+		e.report["advice"] = ad.advice
 	case errors.As(err, &ds):
 		code = exitUsage
 		shown := ds.Capped()

@@ -53,14 +53,22 @@ func run(args []string, stdout, stderr io.Writer) int {
 	name := args[0]
 	switch name {
 	case "help", "-h", "--help":
-		if len(args) > 1 {
-			if c, ok := commands[args[1]]; ok {
-				printCommandHelp(stdout, c)
-				return 0
-			}
+		if len(args) == 1 {
+			printOverview(stdout)
+			return 0
 		}
-		printOverview(stdout)
-		return 0
+		topic := strings.Join(args[1:], " ")
+		if c, ok := commands[topic]; ok {
+			printCommandHelp(stdout, c)
+			return 0
+		}
+		msg := fmt.Sprintf("ramify help: no command %q", topic)
+		if s := suggestCommand(args[1]); s != "" && s != args[1] {
+			msg += fmt.Sprintf("; did you mean %q?", s)
+		}
+		fmt.Fprintln(stderr, msg)
+		fmt.Fprintln(stderr, "run `ramify help` for the list of commands")
+		return exitUsage
 	case "version", "--version":
 		fmt.Fprintln(stdout, "ramify", version)
 		return 0

@@ -281,7 +281,16 @@ func runRelease(e *env, args []string) error {
 
 func withGate(name string, err error) error {
 	var f *failure
-	if errors.As(err, &f) {
+	// A gate that finds file problems fails (exit 1, a gate), naming them.
+	var ad *adviceDiags
+	if errors.As(err, &ad) {
+		f = &failure{}
+		for _, d := range ad.ds {
+			f.lines = append(f.lines, d.String())
+		}
+		f.lines = append(f.lines, ad.advice...)
+	}
+	if f != nil || errors.As(err, &f) {
 		lines := append([]string{"gate " + name + ": " + f.lines[0]}, f.lines[1:]...)
 		return &failure{lines: lines}
 	}

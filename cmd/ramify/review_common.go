@@ -115,12 +115,7 @@ func currentTaxonomy(p *project.Project, what string) (string, error) {
 		return "", failf("%s does not exist yet; run `ramify solve` first, then %s", rel, what)
 	}
 	if ms := p.OutlineMembership(); len(ms) > 0 {
-		lines := make([]string, 0, len(ms)+1)
-		for _, d := range ms {
-			lines = append(lines, d.String())
-		}
-		lines = append(lines, fmt.Sprintf("%s is out of date with the items; run `ramify solve` first, then %s", rel, what))
-		return "", &failure{lines: lines}
+		return "", outlineMembershipError(ms, fmt.Sprintf("%s is out of date with the items; run `ramify solve` first, then %s", rel, what))
 	}
 	if p.Outline.Edited() {
 		return "", failf("%s was reshaped by hand; run `ramify absorb` to record the edit and `ramify solve`, then %s", rel, what)

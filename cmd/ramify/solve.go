@@ -30,11 +30,16 @@ exits with status 1 without writing anything.
 When taxonomy.outline was reshaped by hand, solve stops and asks you to
 run "ramify absorb" first, so the edit is kept as a decision.
 
---method average writes plain average linkage on the same graph instead:
-a baseline to compare with, which ignores the constraints.`,
+--method average builds plain average linkage on the same graph instead:
+a baseline to compare with, which ignores the constraints. solve lists the
+records it breaks and writes it only elsewhere (--out FILE) or, with
+--replace, over the taxonomy. --out FILE works with either method and
+leaves the taxonomy alone.`,
 		flags: func(fs *pflag.FlagSet, o *options) {
 			o.extra["method"] = fs.String("method", "constrained", "how to build the tree: constrained or average")
 			o.extra["dry-run"] = fs.Bool("dry-run", false, "report what would change without writing the outline")
+			o.extra["out"] = fs.String("out", "", "write the tree to this `FILE` in the repository and leave the taxonomy alone")
+			o.extra["replace"] = fs.Bool("replace", false, "with --method average: replace the taxonomy even though the baseline breaks records")
 		},
 		run: runSolve,
 	})
@@ -70,6 +75,9 @@ func runSolve(e *env, args []string) error {
 		prev = p.Outline.Root
 	}
 	fillSolveReport(e, p, sol, prev)
+	if handled, err := solveElsewhere(e, p, sol, method, dryRun); handled {
+		return err
+	}
 	changed := !bytes.Equal(sol.Text, p.OutlineText)
 	if changed && !dryRun {
 		if err := writeOutlineGuarded(p, sol.Text); err != nil {
@@ -139,14 +147,17 @@ func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *fo
 	e.report["depth"] = sol.Root.Depth()
 	e.report["cost"] = roundSig(sol.Cost, 10)
 	e.report["edges"] = sol.Graph.NumEdges()
+	// Counts of records by kind, as check prints them; the triplets the
+	// solver works with (shapes stand for many) are counted apart.
 	counts := countRecords(p.Constraints)
 	e.report["constraints"] = map[string]any{
-		"records":   total,
-		"triplets":  sol.Compiled.Triplets,
-		"groups":    sol.Compiled.Groups,
-		"shapes":    counts.Shapes,
-		"satisfied": total - violated,
-		"violated":  violated,
+		"records":         total,
+		"triplets":        counts.Triplets,
+		"groups":          counts.Groups,
+		"shapes":          counts.Shapes,
+		"solver_triplets": sol.Compiled.Triplets,
+		"satisfied":       total - violated,
+		"violated":        violated,
 	}
 	moved, movedCats := []string{}, []categoryMoveJSON{}
 	if prev != nil {
@@ -162,15 +173,15 @@ func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *fo
 
 func printSolveReport(e *env, p *project.Project, sol *project.Solution) {
 	r := e.report
-	e.say("%d items in %d categories, depth %d", len(p.Items), r["categories"], r["depth"])
+	e.say("%s in %s, depth %d", plural(len(p.Items), "item", "items"), plural(r["categories"].(int), "category", "categories"), r["depth"])
 	e.say("  cost         %s  (Dasgupta, on a graph of %d edges)", formatCost(sol.Cost), sol.Graph.NumEdges())
 	c := r["constraints"].(map[string]any)
 	if c["records"].(int) == 0 {
 		e.say("  constraints  none recorded")
 	} else if c["violated"].(int) == 0 {
-		e.say("  constraints  all %d records hold (%d triplets, %d groups)", c["records"], c["triplets"], c["groups"])
+		e.say("  constraints  %s, all holding", describeRecords(countRecords(p.Constraints)))
 	} else {
-		e.say("  constraints  %d of %d records broken (the average-linkage baseline ignores them)", c["violated"], c["records"])
+		e.say("  constraints  %d of %s broken (the average-linkage baseline ignores them)", c["violated"], plural(c["records"].(int), "record", "records"))
 	}
 	if p.Outline != nil {
 		e.say("  moved        %s since the previous outline", describeMoves(len(r["moved"].([]string)), r["moved_categories"].([]categoryMoveJSON)))
