@@ -26,7 +26,8 @@ const MaxConstraintFiles = 10000
 type Project struct {
 	Dir      string
 	Settings *format.Settings
-	Items    []format.Item
+	// Items are in id order, whatever the order of the items files.
+	Items []format.Item
 	// Index maps an item id to its position in Items.
 	Index   map[string]int
 	Vectors *format.Vectors
@@ -143,9 +144,15 @@ func (p *Project) loadItems() format.Diags {
 				continue
 			}
 			firstSeen[it.ID] = it.Pos
-			p.Index[it.ID] = len(p.Items)
 			p.Items = append(p.Items, it)
 		}
+	}
+	// Everything downstream works on item indices; in id order they, and
+	// so every output, do not depend on the order of the lines or on how
+	// the items are split over files.
+	sort.Slice(p.Items, func(i, j int) bool { return p.Items[i].ID < p.Items[j].ID })
+	for i, it := range p.Items {
+		p.Index[it.ID] = i
 	}
 	return ds
 }
