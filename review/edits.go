@@ -4,7 +4,6 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
 )
 
@@ -40,13 +39,7 @@ type Move struct {
 // also holds in the base tree says nothing new and is left out, unless it
 // is the only one. Items placed in only one of the trees are not moves.
 func PinMoves(base, edited *format.Category, affinity func(a, b string) float64) []Move {
-	rep := diff.Compare(base, edited)
-	moved := map[string]bool{}
-	for _, m := range rep.AllMoved() {
-		moved[m.Item] = true
-	}
-	bx, ex := newCatIndex(base), newCatIndex(edited)
-	bx.affinity, ex.affinity = affinity, affinity
+	rep, moved, bx, ex := compareEdit(base, edited, affinity)
 	var out []Move
 	for _, m := range rep.Moved {
 		x := m.Item

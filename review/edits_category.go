@@ -40,13 +40,7 @@ type CategoryMove struct {
 // go back under its old ancestors), and the new neighbours join the
 // members first. Representatives are ranked as in PinMoves.
 func PinCategoryMoves(base, edited *format.Category, affinity func(a, b string) float64) []CategoryMove {
-	rep := diff.Compare(base, edited)
-	moved := map[string]bool{}
-	for _, m := range rep.AllMoved() {
-		moved[m.Item] = true
-	}
-	bx, ex := newCatIndex(base), newCatIndex(edited)
-	bx.affinity, ex.affinity = affinity, affinity
+	rep, moved, bx, ex := compareEdit(base, edited, affinity)
 	var out []CategoryMove
 	for _, cm := range rep.MovedCategories {
 		mv := CategoryMove{From: strings.Join(cm.From, " / "), To: strings.Join(cm.To, " / "), Items: slices.Clone(cm.Items)}
@@ -116,6 +110,20 @@ func PinCategoryMoves(base, edited *format.Category, affinity func(a, b string) 
 		out = append(out, mv)
 	}
 	return out
+}
+
+// compareEdit is what both kinds of pins start from: the semantic diff of
+// the hand edit, the set of every moved item (never a representative) and
+// the two trees indexed.
+func compareEdit(base, edited *format.Category, affinity func(a, b string) float64) (*diff.Report, map[string]bool, *catIndex, *catIndex) {
+	rep := diff.Compare(base, edited)
+	moved := map[string]bool{}
+	for _, m := range rep.AllMoved() {
+		moved[m.Item] = true
+	}
+	bx, ex := newCatIndex(base), newCatIndex(edited)
+	bx.affinity, ex.affinity = affinity, affinity
+	return rep, moved, bx, ex
 }
 
 // thinNeighbours keeps at most n of the old neighbours, nearest levels
