@@ -2,12 +2,14 @@ package review
 
 import (
 	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/graph"
 )
 
 // ProjectCommittee solves the committee for a project's current taxonomy,
 // as `review draw` and `review status` do: the committee size of the
-// settings (DefaultCommitteeSize when unset), the project's similarity
-// graph and compiled records, and a seed taken from the structure hash, so
+// settings (DefaultCommitteeSize when unset), members solved from the
+// project's views of the items (project.Views, BuildViewCommittee) under
+// the compiled records, and a seed taken from the structure hash, so
 // the same taxonomy always gets the same committee. progress may be nil.
 // A conflict among the records comes back as the solver's
 // *solve.ConflictError, naming records by their compiled number.
@@ -29,6 +31,14 @@ func ProjectCommittee(p *project.Project, structure string, progress func(stage 
 	if size < 2 {
 		size = DefaultCommitteeSize
 	}
-	c, err := BuildCommittee(g, compiled.Constraints, opt, size, Seed(structure))
+	views, err := p.Views(project.Seed, g)
+	if err != nil {
+		return nil, nil, err
+	}
+	graphs := make([]*graph.CSR, len(views))
+	for i, v := range views {
+		graphs[i] = v.Graph
+	}
+	c, err := BuildViewCommittee(graphs, compiled.Constraints, opt, size, Seed(structure))
 	return c, compiled, err
 }

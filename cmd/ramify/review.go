@@ -49,7 +49,9 @@ estimated reject rate, and the least supported categories.`,
 		name:    "review draw",
 		summary: "write review packets where the tree is least certain, plus random audits",
 		help: `Solves a committee of trees (review.committee in ramify.toml, default 20)
-on randomly reweighted copies of the similarity graph, under the same
+from different views of the items — the similarity graph solve uses, each
+similarity source alone, the label channels and the descriptions apart —
+and from randomly reweighted copies of each view, all under the same
 constraint records, and writes packets to reviews/open/:
 
   uncertain  where the committee's trees arrange the items otherwise than
