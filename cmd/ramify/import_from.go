@@ -26,6 +26,7 @@ const (
 func importFlags(fs *pflag.FlagSet, o *options) {
 	o.extra["from"] = fs.String("from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file; a CSV file with the columns id and path (and optionally label, tags, text, concepts), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \"); or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json)")
 	skosFlags(fs, o)
+	pinFlag(fs, o)
 }
 
 // importSource is init's --from value, "" when it was not given.
@@ -80,18 +81,52 @@ func importTaxonomy(e *env, dir, from string) error {
 			return err
 		}
 	}
-	// The rest is plain init's, which keeps the two files just written.
+	var pinned []string
+	pinGroups := 0
+	if pinWanted(e) {
+		date, err := releaseDate("")
+		if err != nil {
+			return err
+		}
+		rel, text, n := pinRecords(root, source, date)
+		full, err := pinPath(dir, rel)
+		if err != nil {
+			return failf("%s: %v", rel, err)
+		}
+		if err := os.MkdirAll(filepath.Dir(full), 0o755); err != nil {
+			return err
+		}
+		if err := format.WriteFileAtomic(full, text, 0o644); err != nil {
+			return err
+		}
+		pinned, pinGroups = []string{rel}, n
+	}
+	// The rest is plain init's, which keeps the files just written.
 	wrote, kept, err := scaffoldRest(e)
 	if err != nil {
 		return err
 	}
-	wrote = append([]string{importItemsFile, importOutlineFile}, wrote...)
+	wrote = append(append([]string{importItemsFile, importOutlineFile}, pinned...), wrote...)
 	e.say("imported %s in %s from %s", plural(len(items), "item", "items"), plural(root.CountCategories(), "category", "categories"), source)
 	for _, p := range wrote {
 		e.say("wrote %s", p)
 	}
 	for _, p := range kept {
 		e.say("kept  %s (already there)", p)
+	}
+	// What the first solve will do with the imported tree, so that a team
+	// sees before solving whether it keeps what they had.
+	moved, keptCats, total, created, perr := firstSolvePreview(dir, root)
+	if perr == nil {
+		e.report["first_solve"] = map[string]any{"moved": moved, "categories_kept": keptCats, "categories": total, "categories_created": created, "pinned": len(pinned) > 0}
+		if len(pinned) > 0 {
+			e.say("pinned: %s records the imported tree as %s (by = %q)", pinned[0], plural(pinGroups, "group", "groups"), PinBy)
+			e.say("the first solve keeps %d of the %d imported categories; it adds %s and moves %s",
+				keptCats, total, plural(created, "new category", "new categories"), plural(moved, "item", "items"))
+		} else {
+			e.say("the first solve, as things stand, keeps %d of the %d imported categories, adds %s and moves %s; `init --from %s --pin` records the imported tree as decisions so that every category is kept",
+				keptCats, total, plural(created, "new category", "new categories"), plural(moved, "item", "items"), source)
+		}
 	}
 	described := 0
 	for _, it := range items {

@@ -28,7 +28,12 @@ file, or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or
 JSON-LD (.jsonld, .json). It writes items.toml and taxonomy.outline with
 your category names, kept as the previous version: the first "ramify
 solve" stays close to it and keeps its names where the members stay
-together. Every category gets its concept identifier then.
+together. Every category gets its concept identifier then. init says
+what the first solve would do to the imported tree (categories kept,
+added, items moved); --pin records the tree as decisions, one named group
+per category by "import" in constraints/import-HASH.toml, so that the
+first solve keeps every imported category (it may still add subcategories
+inside them).
 
 From SKOS: concepts with no narrower concept become items (--items-are
 notation or --items-are TYPE-IRI chooses otherwise), the others
