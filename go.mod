@@ -8,6 +8,7 @@ require (
 	github.com/google/go-cmp v0.7.0
 	github.com/piprate/json-gold v0.9.1
 	github.com/rogpeppe/go-internal v1.16.0
+	github.com/sbinet/npyio v0.6.0
 	github.com/sergi/go-diff v1.4.0
 	github.com/spf13/pflag v1.1.0
 	golang.org/x/term v0.48.0
@@ -15,9 +16,11 @@ require (
 )
 
 require (
+	github.com/campoy/embedmd v1.0.0 // indirect
 	github.com/cayleygraph/quad v1.3.0 // indirect
 	github.com/chromedp/cdproto v0.160.1 // indirect
 	github.com/go-json-experiment/json v0.0.0-20260213210345-44df1a37e875 // indirect
+	github.com/pmezard/go-difflib v1.0.0 // indirect
 	github.com/pquerna/cachecontrol v0.2.0 // indirect
 	golang.org/x/sys v0.50.0 // indirect
 	golang.org/x/tools v0.30.0 // indirect

@@ -197,6 +197,30 @@ func FuzzParseItemsTable(f *testing.F) {
 	})
 }
 
+func FuzzParseNPYVectors(f *testing.F) {
+	f.Add(npyBytes(f, [2][2]float64{{1, 2}, {3, 4}}), []byte("a\nb\n"))
+	f.Add(npyBytes(f, [1][3]float32{{1, 2, 3}}), []byte("a\n"))
+	f.Fuzz(func(t *testing.T, data, ids []byte) {
+		v, err := ParseNPYVectors("e.npy", data, "ids.txt", ids)
+		if err != nil {
+			for _, d := range err.(Diags) {
+				if d.Pos.File != "e.npy" && d.Pos.File != "ids.txt" {
+					t.Fatalf("diagnostic for %q: %v", d.Pos.File, d)
+				}
+			}
+			return
+		}
+		if len(v.Values) != len(v.IDs)*len(v.Features) || len(v.RowPos) != len(v.IDs) {
+			t.Fatalf("%d values for %d rows of %d features", len(v.Values), len(v.IDs), len(v.Features))
+		}
+		for _, x := range v.Values {
+			if math.IsNaN(x) || math.IsInf(x, 0) {
+				t.Fatalf("non-finite value %v accepted", x)
+			}
+		}
+	})
+}
+
 func FuzzParseVectors(f *testing.F) {
 	f.Add([]byte("id\tf1\tf2\na\t1\t2.5\nb\t-3e2\t0x1p-2\n"))
 	f.Fuzz(func(t *testing.T, data []byte) {

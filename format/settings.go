@@ -27,7 +27,9 @@ type Settings struct {
 // ItemsSettings says where the items are.
 type ItemsSettings struct {
 	Files   []string // .toml, .tsv or .csv, relative to the repository
-	Vectors string   // optional vectors.tsv
+	Vectors string   // optional vectors.tsv, or a .npy matrix
+	// VectorIDs names the rows of a .npy vectors file: one item id a line.
+	VectorIDs string
 }
 
 // SimilaritySettings says how the similarity graph is built.

@@ -20,7 +20,7 @@ var settingsLimits = tomlLimits{
 var (
 	settingsSections = []string{"items", "similarity", "taxonomy", "review", "release"}
 	settingsKeys     = map[string][]string{
-		"items":      {"files", "vectors"},
+		"items":      {"files", "vectors", "vector_ids"},
 		"similarity": {"neighbors", "source", "text"},
 		"taxonomy":   {"file", "min_size", "max_children", "max_depth", "stability"},
 		"review":     {"size", "audit_share", "committee"},
@@ -86,6 +86,7 @@ func (r *settingsReader) section(sec string, t map[string]any) {
 			}
 		}
 		r.str(t, "items.vectors", &s.Items.Vectors)
+		r.str(t, "items.vector_ids", &s.Items.VectorIDs)
 	case "similarity":
 		r.int(t, "similarity.neighbors", &s.Similarity.Neighbors, 0, 200)
 		if v, ok := t["source"]; ok {
@@ -258,7 +259,16 @@ func (r *settingsReader) crossChecks() {
 		seenFile[f] = true
 	}
 	if s.Items.Vectors != "" {
-		r.path("items.vectors", s.Items.Vectors, ".tsv")
+		r.path("items.vectors", s.Items.Vectors, ".tsv", ".npy")
+	}
+	npy := strings.EqualFold(path.Ext(s.Items.Vectors), ".npy")
+	switch {
+	case npy && s.Items.VectorIDs == "":
+		r.ds.Add(s.PosOf("items.vectors"), "a .npy vectors file needs items.vector_ids, a text file with the id of each row, one a line")
+	case s.Items.VectorIDs != "" && !npy:
+		r.ds.Add(s.PosOf("items.vector_ids"), "items.vector_ids is only for a .npy vectors file; a .tsv file names its rows itself")
+	case s.Items.VectorIDs != "":
+		r.path("items.vector_ids", s.Items.VectorIDs, ".txt")
 	}
 	r.path("taxonomy.file", s.Taxonomy.File, ".outline")
 	seenSource := map[Source]bool{}

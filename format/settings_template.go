@@ -17,6 +17,11 @@ files = ["items.toml"]
 # one column per feature, one row per item. Uncomment to use it, and add a
 # source of kind "vector" below.
 # vectors = "vectors.tsv"
+# Or a NumPy .npy matrix (float32 or float64, one row per item, as
+# numpy.save writes embeddings) with a text file naming each row's item,
+# one id a line, in row order:
+# vectors = "embeddings.npy"
+# vector_ids = "embeddings-ids.txt"
 
 [similarity]
 # How many nearest neighbours each item keeps in the similarity graph.

@@ -176,7 +176,17 @@ func (p *Project) loadVectors() format.Diags {
 	if len(ds) > 0 {
 		return ds
 	}
-	v, err := format.ParseVectors(rel, data)
+	var v *format.Vectors
+	var err error
+	if ids := p.Settings.Items.VectorIDs; ids != "" {
+		idData, ids2 := p.read(ids, format.MaxDataFileBytes, p.keyPos("items.vector_ids"))
+		if len(ids2) > 0 {
+			return ids2
+		}
+		v, err = format.ParseNPYVectors(rel, data, ids, idData)
+	} else {
+		v, err = format.ParseVectors(rel, data)
+	}
 	if err != nil {
 		return format.AsDiags(err, rel)
 	}

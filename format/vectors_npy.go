@@ -1,0 +1,173 @@
+package format
+
+import (
+	"bytes"
+	"math"
+	"strconv"
+	"strings"
+
+	"github.com/sbinet/npyio"
+)
+
+// ParseNPYVectors reads vectors from a NumPy .npy file (a two-dimensional
+// float32 or float64 matrix in C order, one row per item, as numpy.save
+// writes an embedding matrix) and the ids of its rows from a text file with
+// one item id per line, in row order. Features are named f1, f2, …. The
+// header's shape is checked against the data's length before anything is
+// allocated, so a file cannot ask for more memory than its own size.
+func ParseNPYVectors(file string, data []byte, idsFile string, ids []byte) (v *Vectors, err error) {
+	var ds Diags
+	at := Pos{File: file, Line: 1, Col: 1}
+	if msg := checkNPYPrefix(data); msg != "" {
+		ds.Add(at, "not a NumPy .npy file: %s", msg)
+		return nil, ds
+	}
+	// The reader trusts its input in places; a malformed file must still
+	// be an error, never a crash.
+	defer func() {
+		if p := recover(); p != nil {
+			var pds Diags
+			pds.Add(at, "not a NumPy .npy file: the header cannot be read")
+			v, err = nil, pds
+		}
+	}()
+	r, err := npyio.NewReader(bytes.NewReader(data))
+	if err != nil {
+		ds.Add(at, "not a NumPy .npy file: %s", clip(err.Error()))
+		return nil, ds
+	}
+	h := r.Header.Descr
+	if len(h.Shape) != 2 {
+		ds.Add(at, "the array has %d dimensions; vectors need a matrix of rows by features", len(h.Shape))
+		return nil, ds
+	}
+	rows, cols := h.Shape[0], h.Shape[1]
+	size := 0
+	switch h.Type {
+	case "<f4", "|f4", ">f4":
+		size = 4
+	case "<f8", "|f8", ">f8":
+		size = 8
+	default:
+		ds.Add(at, "the array holds %q; vectors must be float32 or float64", clip(h.Type))
+		return nil, ds
+	}
+	switch {
+	case rows < 1 || cols < 1:
+		ds.Add(at, "the matrix is %d by %d; it needs at least one row and one feature", rows, cols)
+	case cols > MaxFeatures:
+		ds.Add(at, "%d features; at most %d are allowed", cols, MaxFeatures)
+	case rows > MaxItems:
+		ds.Add(at, "%d rows; at most %s are allowed", rows, grouped(MaxItems))
+	case rows*cols*size > len(data):
+		ds.Add(at, "the header says %d by %d values but the file is only %d bytes long", rows, cols, len(data))
+	case h.Fortran:
+		ds.Add(at, "the matrix is in column order (Fortran); save it in row order (numpy.ascontiguousarray)")
+	}
+	if len(ds) > 0 {
+		return nil, ds
+	}
+	values := make([]float64, rows*cols)
+	if size == 4 {
+		buf := make([]float32, 0, rows*cols)
+		err = r.Read(&buf)
+		for i, x := range buf {
+			values[i] = float64(x)
+		}
+	} else {
+		err = r.Read(&values)
+	}
+	if err != nil {
+		ds.Add(at, "cannot read the matrix: %s", clip(err.Error()))
+		return nil, ds
+	}
+	for i, x := range values {
+		if math.IsNaN(x) || math.IsInf(x, 0) {
+			ds.Add(at, "row %d, feature %d is %v; every value must be a finite number", i/cols+1, i%cols+1, x)
+			return nil, ds
+		}
+	}
+	v = &Vectors{Values: values, Features: make([]string, cols)}
+	for j := range cols {
+		v.Features[j] = "f" + strconv.Itoa(j+1)
+	}
+	v.IDs, v.RowPos = parseRowIDs(idsFile, ids, rows, &ds)
+	if len(ds) > 0 {
+		return nil, ds
+	}
+	return v, nil
+}
+
+// maxNPYHeader bounds the header of a .npy file; numpy writes a few
+// hundred bytes.
+const maxNPYHeader = 1 << 16
+
+// checkNPYPrefix checks the magic string, the version and the header
+// length of a .npy file (NumPy's format: "\x93NUMPY", major and minor
+// version bytes, a little-endian header length of 2 bytes in version 1 and
+// 4 in versions 2 and 3, then the header ending in a newline) before the
+// reader allocates anything by them.
+func checkNPYPrefix(data []byte) string {
+	if len(data) < 10 || string(data[:6]) != "\x93NUMPY" {
+		return "it does not start with the .npy magic string"
+	}
+	var hdrLen, start int
+	switch data[6] {
+	case 1:
+		hdrLen, start = int(data[8])|int(data[9])<<8, 10
+	case 2, 3:
+		if len(data) < 12 {
+			return "the file ends inside its header"
+		}
+		hdrLen, start = int(data[8])|int(data[9])<<8|int(data[10])<<16|int(data[11])<<24, 12
+	default:
+		return "unknown format version " + strconv.Itoa(int(data[6]))
+	}
+	switch {
+	case hdrLen > maxNPYHeader:
+		return "the header is over " + strconv.Itoa(maxNPYHeader) + " bytes long"
+	case start+hdrLen > len(data):
+		return "the file ends inside its header"
+	case hdrLen == 0 || data[start+hdrLen-1] != '\n':
+		return "the header does not end in a newline"
+	}
+	return ""
+}
+
+// parseRowIDs reads one item id per line (blank lines and lines starting
+// with "#" skipped) and checks there are exactly rows of them, each valid
+// and given once.
+func parseRowIDs(file string, data []byte, rows int, ds *Diags) ([]string, []Pos) {
+	text, cds := CleanText(file, data)
+	if len(cds) > 0 {
+		*ds = append(*ds, cds...)
+		return nil, nil
+	}
+	ids := make([]string, 0, rows)
+	pos := make([]Pos, 0, rows)
+	first := map[string]int{}
+	for n, line := range strings.Split(string(text), "\n") {
+		id := strings.TrimSpace(line)
+		if id == "" || strings.HasPrefix(id, "#") {
+			continue
+		}
+		p := Pos{File: file, Line: n + 1, Col: 1}
+		switch {
+		case len(ids) == rows:
+			ds.Add(p, "more ids than the %d rows of the matrix", rows)
+			return nil, nil
+		case !ValidItemID(id):
+			ds.Add(p, "%q is not a valid item id: %s", clip(id), ItemIDRule)
+		case first[id] != 0:
+			ds.Add(p, "item %q has a second row (first at line %d)", id, first[id])
+		default:
+			first[id] = n + 1
+		}
+		ids = append(ids, id)
+		pos = append(pos, p)
+	}
+	if len(ids) < rows && len(*ds) == 0 {
+		ds.Add(Pos{File: file, Line: 1, Col: 1}, "%d ids for the %d rows of the matrix; give one id per row, in row order", len(ids), rows)
+	}
+	return ids, pos
+}
