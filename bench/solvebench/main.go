@@ -5,6 +5,7 @@
 //
 //	go run ./bench/solvebench                  # n = 1,000 and 10,000
 //	go run ./bench/solvebench -n 1000,10000,100000
+//	go run ./bench/solvebench -peer            # beside fastcluster at 10k, 20k, 40k
 //
 // Each size runs in a child process of its own, so the peak resident
 // memory reported is that size's alone.
@@ -29,7 +30,19 @@ func main() {
 	sizes := flag.String("n", "1000,10000", "comma-separated item counts")
 	one := flag.Int("one", 0, "measure one size and print its row (used by the parent)")
 	seed := flag.Uint64("seed", 1, "planted-hierarchy seed")
+	peer := flag.Bool("peer", false, "compare with fastcluster on planted points (default sizes 10000,20000,40000)")
+	peerOne := flag.Int("peer-one", 0, "measure ramify on one size of planted points (used by the parent)")
+	avgMax := flag.Int("peer-average-max", 20000, "largest size for fastcluster's average linkage, which keeps all n²/2 distances")
 	flag.Parse()
+	if *peerOne > 0 {
+		row, err := measurePeerOne(*peerOne, *seed)
+		if err != nil {
+			fmt.Fprintln(os.Stderr, err)
+			os.Exit(1)
+		}
+		fmt.Println(row)
+		return
+	}
 	if *one > 0 {
 		row, err := measure(*one, *seed)
 		if err != nil {
@@ -43,6 +56,36 @@ func main() {
 	if err != nil {
 		fmt.Fprintln(os.Stderr, err)
 		os.Exit(1)
+	}
+	if *peer {
+		list := *sizes
+		set := false
+		flag.Visit(func(f *flag.Flag) { set = set || f.Name == "n" })
+		if !set {
+			list = "10000,20000,40000"
+		}
+		version, have := peerAvailable()
+		if have {
+			fmt.Printf("fastcluster %s (%s)\n\n", version, debianPython)
+		} else {
+			fmt.Printf("fastcluster is not installed (apt-get install python3-fastcluster): its columns are skipped\n\n")
+		}
+		fmt.Println("| n | ramify s | ramify MiB | ramify agreement | linkage_vector Ward s | Ward MiB | Ward agreement | average linkage s | average MiB | average agreement | ramify s / Ward s |")
+		fmt.Println("|---:|---:|---:|---|---:|---:|---|---:|---:|---|---:|")
+		for _, s := range strings.Split(list, ",") {
+			n, err := strconv.Atoi(strings.TrimSpace(s))
+			if err != nil || n < 10 {
+				fmt.Fprintf(os.Stderr, "bad size %q\n", s)
+				os.Exit(2)
+			}
+			row, err := peerRow(self, n, *seed, *avgMax, have)
+			if err != nil {
+				fmt.Fprintln(os.Stderr, err)
+				os.Exit(1)
+			}
+			fmt.Println(row)
+		}
+		return
 	}
 	fmt.Println("| n | edges | planted categories | solve s | average linkage s | peak RSS MiB | cost / average-linkage cost | taxonomy cost / planted-tree cost | triplet agreement with planted |")
 	fmt.Println("|---:|---:|---:|---:|---:|---:|---:|---:|---:|")
