@@ -21,7 +21,6 @@ import (
 	"syscall"
 	"time"
 
-	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/planted"
 )
@@ -35,21 +34,11 @@ func main() {
 	avgMax := flag.Int("peer-average-max", 20000, "largest size for fastcluster's average linkage, which keeps all n²/2 distances")
 	flag.Parse()
 	if *peerOne > 0 {
-		row, err := measurePeerOne(*peerOne, *seed)
-		if err != nil {
-			fmt.Fprintln(os.Stderr, err)
-			os.Exit(1)
-		}
-		fmt.Println(row)
+		printChild(measurePeerOne(*peerOne, *seed))
 		return
 	}
 	if *one > 0 {
-		row, err := measure(*one, *seed)
-		if err != nil {
-			fmt.Fprintln(os.Stderr, err)
-			os.Exit(1)
-		}
-		fmt.Println(row)
+		printChild(measure(*one, *seed))
 		return
 	}
 	self, err := os.Executable()
@@ -122,19 +111,22 @@ func measure(n int, seed uint64) (string, error) {
 	// The planted tree's own cost says whether a miss is the solver's: a
 	// tree cheaper than the truth is the objective's answer on this graph.
 	vsPlanted := solve.Cost(inst.Graph, res.Taxonomy) / solve.Cost(inst.Graph, inst.Tree)
-	agreement := ""
-	if n <= 3000 {
-		agreement = fmt.Sprintf("%.4f (exact)", diff.TripletAgreement(res.Taxonomy, inst.Tree))
-	} else {
-		est, lo, hi := diff.TripletAgreementSampled(res.Taxonomy, inst.Tree, 200000, 1)
-		agreement = fmt.Sprintf("%.4f [%.4f, %.4f] (sampled)", est, lo, hi)
-	}
+	agreement := agreement(res.Taxonomy, inst.Tree)
 	var ru syscall.Rusage
 	syscall.Getrusage(syscall.RUSAGE_SELF, &ru)
 	peakMiB := float64(ru.Maxrss) / 1024 // Linux reports kilobytes
 	categories := inst.Tree.NumNodes() - inst.Tree.N
 	return fmt.Sprintf("| %d | %d | %d | %.2f | %.2f | %.0f | %.4f | %.4f | %s |",
 		n, inst.Graph.NumEdges(), categories, solveSec, avgSec, peakMiB, ratio, vsPlanted, agreement), nil
+}
+
+// printChild prints a child run's row, or its error with exit status 1.
+func printChild(row string, err error) {
+	if err != nil {
+		fmt.Fprintln(os.Stderr, err)
+		os.Exit(1)
+	}
+	fmt.Println(row)
 }
 
 // levelsFor picks a planted depth that gives bottom categories of a few

@@ -200,5 +200,5 @@ func agreement(t, planted *solve.Tree) string {
 		return fmt.Sprintf("%.4f (exact)", diff.TripletAgreement(t, planted))
 	}
 	est, lo, hi := diff.TripletAgreementSampled(t, planted, 200000, 1)
-	return fmt.Sprintf("%.4f [%.4f, %.4f]", est, lo, hi)
+	return fmt.Sprintf("%.4f [%.4f, %.4f] (sampled)", est, lo, hi)
 }
