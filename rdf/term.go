@@ -10,6 +10,7 @@ import (
 	"fmt"
 	"strings"
 
+	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
 )
 
@@ -108,33 +109,9 @@ func (t Triple) Where() string {
 	return fmt.Sprintf("%s: %s", t.Pos.File, t)
 }
 
-// quoteLiteral writes s as an N-Triples STRING_LITERAL_QUOTE: quote,
-// backslash, line feed and carriage return escaped (the grammar's
-// requirement), other control characters as \uXXXX.
-func quoteLiteral(s string) string {
-	var b strings.Builder
-	b.WriteByte('"')
-	for _, r := range s {
-		switch r {
-		case '"':
-			b.WriteString(`\"`)
-		case '\\':
-			b.WriteString(`\\`)
-		case '\n':
-			b.WriteString(`\n`)
-		case '\r':
-			b.WriteString(`\r`)
-		default:
-			if r < 0x20 || r == 0x7f {
-				fmt.Fprintf(&b, `\u%04X`, r)
-			} else {
-				b.WriteRune(r)
-			}
-		}
-	}
-	b.WriteByte('"')
-	return b.String()
-}
+// quoteLiteral writes s as an N-Triples STRING_LITERAL_QUOTE, with the
+// escapes Turtle, N-Triples and TOML share (export.QuotedString).
+func quoteLiteral(s string) string { return export.QuotedString(s) }
 
 // escapeIRI writes the characters an N-Triples IRIREF cannot hold as
 // \uXXXX escapes.
