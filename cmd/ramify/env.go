@@ -18,6 +18,10 @@ const (
 	exitOK     = 0
 	exitFailed = 1 // a check or gate failed: conflict, violation, stale file
 	exitUsage  = 2 // bad input or bad usage
+	// exitInternal: ramify itself could not finish — an operating system
+	// error (a disk full, a permission refused), git failing, or a bug —
+	// so that CI never takes it for bad input in a pull request.
+	exitInternal = 3
 )
 
 // env is what a command runs with: its options, output streams, and the
@@ -184,8 +188,8 @@ func (e *env) finish(c *command, err error) int {
 		fmt.Fprintf(e.stderr, "run `ramify %s --help` for its options\n", c.name)
 		e.report["error"] = ue.msg
 	default:
-		code = exitUsage
-		fmt.Fprintf(e.stderr, "ramify %s: %v\n", c.name, err)
+		code = exitInternal
+		fmt.Fprintf(e.stderr, "ramify %s: %s\n", c.name, firstLineOf(err.Error()))
 		e.report["error"] = err.Error()
 	}
 	if e.opt.json {
@@ -196,7 +200,7 @@ func (e *env) finish(c *command, err error) int {
 		enc.SetEscapeHTML(false)
 		if err := enc.Encode(e.report); err != nil {
 			fmt.Fprintf(e.stderr, "ramify: writing the report: %v\n", err)
-			return exitUsage
+			return exitInternal
 		}
 	}
 	return code

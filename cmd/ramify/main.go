@@ -44,7 +44,8 @@ func main() {
 }
 
 // run executes one ramify invocation and returns its exit status:
-// 0 success, 1 a check or gate failed, 2 bad input or usage.
+// 0 success, 1 a check or gate failed, 2 bad input or usage, 3 an
+// internal failure (an operating system or git error, or a bug).
 func run(args []string, stdout, stderr io.Writer) int {
 	if len(args) == 0 {
 		printOverview(stderr)
@@ -112,8 +113,27 @@ func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
 			return e.finish(c, err)
 		}
 	}
-	err := c.run(e, fs.Args())
+	err := runRecovering(c, e, fs.Args())
 	return e.finish(c, err)
+}
+
+// internalError is a failure inside ramify (a panic): it exits with
+// exitInternal and one line, never a goroutine dump that reads like a
+// verdict on the input.
+type internalError struct{ msg string }
+
+func (ie *internalError) Error() string { return "internal error: " + ie.msg + " (please report this)" }
+
+// runRecovering runs the command, turning a panic into an internalError.
+// The Go runtime's own out-of-memory stop cannot be caught; the budgets
+// checked before allocating keep inputs from reaching it.
+func runRecovering(c *command, e *env, args []string) (err error) {
+	defer func() {
+		if r := recover(); r != nil {
+			err = &internalError{msg: fmt.Sprint(r)}
+		}
+	}()
+	return c.run(e, args)
 }
 
 // commandFlags builds a command's flag set: the options every command
@@ -158,7 +178,8 @@ Commands:
 	fmt.Fprint(w, `
 Every command takes --dir DIR (the repository, default "."), --json,
 --quiet and --help. Exit status: 0 success, 1 a check or gate failed,
-2 bad input or usage.
+2 bad input or usage, 3 an internal failure (an operating system or git
+error, or a bug; one line says which).
 
 Run "ramify help COMMAND" for a command's details.
 `)
