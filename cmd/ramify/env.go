@@ -35,7 +35,8 @@ type env struct {
 	report map[string]any
 	// color is true when stdout is a terminal and NO_COLOR is unset.
 	color bool
-	// progress is true when stderr is a terminal and --quiet is off.
+	// progress is true when stderr is a terminal and neither --quiet nor
+	// --json is given.
 	progress bool
 	// shownProgress is set once a progress line is on the terminal.
 	shownProgress bool
@@ -45,7 +46,7 @@ func newEnv(o *options, fs *pflag.FlagSet, stdout, stderr io.Writer) *env {
 	e := &env{opt: o, flags: fs, stdout: stdout, stderr: stderr, report: map[string]any{}}
 	_, noColor := os.LookupEnv("NO_COLOR")
 	e.color = !noColor && !o.json && isTerminal(stdout)
-	e.progress = !o.quiet && isTerminal(stderr)
+	e.progress = !o.quiet && !o.json && isTerminal(stderr)
 	return e
 }
 
