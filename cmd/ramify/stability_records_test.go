@@ -150,4 +150,3 @@ func writeRecord(t *testing.T, dir, text string) {
 		t.Fatal(err)
 	}
 }
-
