@@ -1,6 +1,10 @@
 package review
 
-import "github.com/ramify-tax/ramify/format"
+import (
+	"fmt"
+
+	"github.com/ramify-tax/ramify/format"
+)
 
 // Restrict is the tree restricted to the given items (METHODS 8.2, the
 // tree a review packet shows): items not listed are dropped, categories
@@ -24,8 +28,27 @@ func Restrict(root *format.Category, items []string) *format.Category {
 		out = out.Children[0]
 	}
 	res := &format.Category{Children: out.Children, Items: out.Items}
+	uniqueSiblingNames(res)
 	res.Sort()
 	return res
+}
+
+// uniqueSiblingNames renames a category whose name a sibling has already
+// ("house" becomes "house (2)"): dropping a category with a single child
+// can bring a category and a namesake from another level side by side,
+// and an outline's siblings need distinct names.
+func uniqueSiblingNames(c *format.Category) {
+	seen := map[string]bool{}
+	for _, ch := range c.Children {
+		if ch.Name != "" && seen[ch.Name] {
+			base := ch.Name
+			for k := 2; seen[ch.Name]; k++ {
+				ch.Name = fmt.Sprintf("%s (%d)", base, k)
+			}
+		}
+		seen[ch.Name] = true
+		uniqueSiblingNames(ch)
+	}
 }
 
 // restrictNode copies c restricted to keep, or nil when nothing is left.

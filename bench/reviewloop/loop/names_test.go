@@ -4,6 +4,7 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/review"
 )
 
 // TestUniqueSiblingNames: a restricted reference with two sibling
@@ -13,7 +14,7 @@ func TestUniqueSiblingNames(t *testing.T) {
 		{Name: "house", Items: []string{"a", "b"}},
 		{Name: "house", Items: []string{"c", "d"}},
 	}}
-	uniqueSiblingNames(tree)
+	tree = review.Restrict(tree, []string{"a", "b", "c", "d"})
 	pk := &format.Packet{Reason: format.ReasonAudit, From: "0123456789ab", Drawn: "2027-01-01", Size: 4, Verdict: format.VerdictFixed, Reviewer: "R", Tree: tree}
 	if _, err := format.ParsePacket("p.outline", format.FormatPacket(pk)); err != nil {
 		t.Fatal(err)
