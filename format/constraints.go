@@ -319,7 +319,7 @@ func parseShapeOutline(r *tomlRecord, text string) (*Category, []Ref, Diags) {
 	var refs []Ref
 	tree, _, ds := parseTreeLines(r.doc.file, lines, start, false, func(id string, at Pos) {
 		refs = append(refs, Ref{ID: id, Pos: at})
-	})
+	}, nil)
 	tree.Sort()
 	return tree, refs, ds
 }

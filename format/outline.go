@@ -2,6 +2,7 @@ package format
 
 import (
 	"bytes"
+	"slices"
 	"strings"
 )
 
@@ -15,6 +16,19 @@ type Outline struct {
 	// Structure is the hash from the "# structure" line as read, or ""
 	// when the file has none (made by hand or imported).
 	Structure string
+	// Records are the decisions the tree was last solved under, from the
+	// "# record" lines at the end of the file (see OutlineRecord).
+	Records []OutlineRecord
+}
+
+// OutlineRecord is one "# record KEY ID…" line: the fingerprint of a
+// constraint record (kind and content, provenance excluded) that held when
+// ramify wrote the outline, and the items it names. When the record later
+// disappears from constraints/, its items are what the decision held in
+// place, and the next solve lets them go.
+type OutlineRecord struct {
+	Key   string
+	Items []string
 }
 
 // Edited reports whether the tree's shape no longer matches the structure
@@ -32,8 +46,10 @@ func ParseOutline(file string, data []byte) (*Outline, error) {
 		return nil, ds
 	}
 	out := &Outline{}
-	root, structure, ds := parseTree(file, data, 1, true)
-	out.Root, out.Structure = root, structure
+	lines := strings.Split(string(data), "\n")
+	meta := &outlineMeta{}
+	root, _, ds := parseTreeLines(file, lines, func(i int) lineCol { return lineCol{1 + i, 1} }, true, nil, meta)
+	out.Root, out.Structure, out.Records = root, meta.structure, meta.records
 	if len(ds) == 0 {
 		ds = parseConcepts(file, data, root)
 	}
@@ -46,7 +62,36 @@ func ParseOutline(file string, data []byte) (*Outline, error) {
 // structure hash.
 func parseTree(file string, data []byte, firstLine int, header bool) (*Category, string, Diags) {
 	lines := strings.Split(string(data), "\n")
-	return parseTreeLines(file, lines, func(i int) lineCol { return lineCol{firstLine + i, 1} }, header, nil)
+	return parseTreeLines(file, lines, func(i int) lineCol { return lineCol{firstLine + i, 1} }, header, nil, nil)
+}
+
+// outlineMeta collects what an outline file's comment lines say about it.
+type outlineMeta struct {
+	structure string
+	records   []OutlineRecord
+}
+
+// parseRecordLine reads the rest of a "# record " line: a 12-hex-digit key
+// and the item ids the record names.
+func parseRecordLine(rest string, at func(int) Pos, off int, ds *Diags) (OutlineRecord, bool) {
+	fields := strings.Fields(rest)
+	if len(fields) == 0 || !isHex(fields[0]) || len(fields[0]) != 12 {
+		key := ""
+		if len(fields) > 0 {
+			key = fields[0]
+		}
+		ds.Add(at(off), "record key %q is not 12 hex digits", clip(key))
+		return OutlineRecord{}, false
+	}
+	rec := OutlineRecord{Key: fields[0]}
+	for _, id := range fields[1:] {
+		if !ValidItemID(id) {
+			ds.Add(at(off), "%q in a record line is not a valid item id: %s", clip(id), ItemIDRule)
+			return OutlineRecord{}, false
+		}
+		rec.Items = append(rec.Items, id)
+	}
+	return rec, true
 }
 
 // parseTreeLines parses outline lines whose places in the file are given
@@ -54,7 +99,7 @@ func parseTree(file string, data []byte, firstLine int, header bool) (*Category,
 // shape's outline sits inside a TOML string, so its lines need not start
 // at column 1 or follow one another in the file. onItem, if not nil, hears
 // of every item accepted, with its place, in file order.
-func parseTreeLines(file string, lines []string, start func(i int) lineCol, header bool, onItem func(id string, at Pos)) (*Category, string, Diags) {
+func parseTreeLines(file string, lines []string, start func(i int) lineCol, header bool, onItem func(id string, at Pos), meta *outlineMeta) (*Category, string, Diags) {
 	var ds Diags
 	root := &Category{}
 	// stack[d] is the open category at depth d; stack[0] is the root.
@@ -100,6 +145,12 @@ func parseTreeLines(file string, lines []string, start func(i int) lineCol, head
 		body := strings.TrimLeft(trimmed, " ")
 		indent := len(trimmed) - len(body)
 		if strings.HasPrefix(body, "#") {
+			if rest, ok := strings.CutPrefix(body, "# record "); ok && meta != nil && indent == 0 {
+				if rec, ok := parseRecordLine(rest, at, len("# record "), &ds); ok {
+					meta.records = append(meta.records, rec)
+				}
+				continue
+			}
 			if inHeader && indent == 0 {
 				if v, ok := strings.CutPrefix(body, "# ramify outline "); ok {
 					if v != "1" {
@@ -206,6 +257,9 @@ func parseTreeLines(file string, lines []string, start func(i int) lineCol, head
 		return true
 	})
 	ds.Sort()
+	if meta != nil {
+		meta.structure = structure
+	}
 	return root, structure, ds
 }
 
@@ -229,6 +283,30 @@ func FormatOutline(root *Category) []byte {
 	var ids strings.Builder
 	formatConcepts(&ids, root)
 	b.WriteString(ids.String())
+	return b.Bytes()
+}
+
+// FormatOutlineRecords is FormatOutline followed by one "# record" line
+// per record, in key order, each with its items sorted: the decisions the
+// tree was solved under.
+func FormatOutlineRecords(root *Category, records []OutlineRecord) []byte {
+	out := FormatOutline(root)
+	recs := slices.Clone(records)
+	slices.SortFunc(recs, func(a, b OutlineRecord) int { return strings.Compare(a.Key, b.Key) })
+	var b bytes.Buffer
+	b.Write(out)
+	for i, r := range recs {
+		if i > 0 && r.Key == recs[i-1].Key {
+			continue
+		}
+		b.WriteString("# record " + r.Key)
+		items := slices.Clone(r.Items)
+		slices.Sort(items)
+		for _, id := range slices.Compact(items) {
+			b.WriteString(" " + id)
+		}
+		b.WriteByte('\n')
+	}
 	return b.Bytes()
 }
 

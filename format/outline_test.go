@@ -254,3 +254,31 @@ func TestOutlineRecordsLines(t *testing.T) {
 		t.Errorf("lines: A=%d x=%v B=%d y=%v z=%v", a.Line, a.ItemLines, a.Children[0].Line, a.Children[0].ItemLines, o.Root.ItemLines)
 	}
 }
+
+// The "# record" lines at the end of an outline: read back as written,
+// sorted by key with items sorted, and malformed ones reported with their
+// place.
+func TestOutlineRecordLines(t *testing.T) {
+	src := "# ramify outline 1\nA/\n  x\n  y\nz\n# record ffffffffffff z\n# record 0123456789ab y x\n"
+	o, err := ParseOutline("t.outline", []byte(src))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := []OutlineRecord{{Key: "ffffffffffff", Items: []string{"z"}}, {Key: "0123456789ab", Items: []string{"y", "x"}}}
+	if diff := cmp.Diff(want, o.Records); diff != "" {
+		t.Fatalf("ParseOutline records (-want +got):\n%s", diff)
+	}
+	got := string(FormatOutlineRecords(o.Root, o.Records))
+	if !strings.HasSuffix(got, "z\n# record 0123456789ab x y\n# record ffffffffffff z\n") {
+		t.Errorf("FormatOutlineRecords ends\n%s", got)
+	}
+	for _, tc := range []struct{ src, msg string }{
+		{"x\n# record 12345 x\n", "t.outline:2:10: record key \"12345\" is not 12 hex digits"},
+		{"x\n# record 0123456789ab x$\n", "t.outline:2:10: \"x$\" in a record line is not a valid item id"},
+	} {
+		_, err := ParseOutline("t.outline", []byte(tc.src))
+		if err == nil || !strings.HasPrefix(err.Error(), tc.msg) {
+			t.Errorf("ParseOutline(%q) = %v, want %s…", tc.src, err, tc.msg)
+		}
+	}
+}

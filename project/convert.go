@@ -53,6 +53,12 @@ func FromCategory(root *format.Category, index map[string]int, n int) *solve.Tre
 // became. A category left with a single child has no node of its own and
 // maps to its child's node; a category without known items is not mapped.
 func CategoryNodes(root *format.Category, index map[string]int, n int) (*solve.Tree, map[*format.Category]int32) {
+	return categoryNodes(root, index, n, false)
+}
+
+// categoryNodes builds the tree; keepChains gives every category a node of
+// its own, single-child ones too.
+func categoryNodes(root *format.Category, index map[string]int, n int, keepChains bool) (*solve.Tree, map[*format.Category]int32) {
 	t := solve.NewTree(n)
 	nodes := map[*format.Category]int32{}
 	var build func(c *format.Category) (int32, bool)
@@ -69,10 +75,12 @@ func CategoryNodes(root *format.Category, index map[string]int, n int) (*solve.T
 			}
 		}
 		var id int32
-		switch len(kids) {
-		case 0:
+		switch {
+		case keepChains && (len(kids) > 0 || c == root):
+			id = t.Add(kids...)
+		case len(kids) == 0:
 			return 0, false
-		case 1:
+		case len(kids) == 1:
 			id = kids[0]
 		default:
 			id = t.Add(kids...)
@@ -84,6 +92,15 @@ func CategoryNodes(root *format.Category, index map[string]int, n int) (*solve.T
 		t.Root = r
 	}
 	return t, nodes
+}
+
+// CategoryTree is FromCategory that keeps every category as a node of its
+// own, single-child ones too, so that a tree read from an outline and
+// printed again is the same outline. Categories without known items are
+// dropped; a tree with no known item has an empty root.
+func CategoryTree(root *format.Category, index map[string]int, n int) *solve.Tree {
+	t, _ := categoryNodes(root, index, n, true)
+	return t
 }
 
 // PriorClusters lists the leaf sets (item indices, sorted) of every

@@ -3,6 +3,7 @@ package project
 import (
 	"errors"
 	"fmt"
+	"slices"
 	"time"
 
 	"github.com/ramify-tax/ramify/concept"
@@ -39,6 +40,13 @@ type Solution struct {
 	// average-linkage baseline).
 	Violated []int
 	Seconds  float64
+	// Mode is how the tree came about (ModeKept, ModeLocal, ModeRebuild);
+	// Reason says why it was rebuilt.
+	Mode, Reason string
+	// Placed counts the items a local re-solve took out and put back;
+	// Regions the sizes of the subtrees it had to re-solve whole.
+	Placed  int
+	Regions []int
 }
 
 // ConflictError says that the constraint records cannot all hold; Records
@@ -51,11 +59,52 @@ func (e *ConflictError) Error() string {
 	return fmt.Sprintf("%d constraint records contradict each other", len(e.Records))
 }
 
+// RegenOptions steer Regenerate.
+type RegenOptions struct {
+	Method Method
+	// Rebuild solves from scratch (with the stability pull toward the
+	// previous outline) even when a local re-solve would do.
+	Rebuild  bool
+	Progress func(stage string, done, total int)
+}
+
+// Modes of a regeneration (Solution.Mode).
+const (
+	// ModeKept: nothing forced a change; the previous tree stands.
+	ModeKept = "kept"
+	// ModeLocal: the previous tree was repaired where the change forces
+	// it (solve.Repair).
+	ModeLocal = "local"
+	// ModeRebuild: solved from scratch.
+	ModeRebuild = "rebuild"
+)
+
+// LocalShare is the largest share of the items that may be new or gone
+// for a local re-solve; a larger change rebuilds the tree.
+const LocalShare = 0.10
+
 // Regenerate solves the taxonomy from the project's inputs. progress may
 // be nil. The previous outline (if any) gives names and, with stability,
 // a pull toward the previous shape.
 func (p *Project) Regenerate(method Method, progress func(stage string, done, total int)) (*Solution, error) {
+	return p.RegenerateWith(RegenOptions{Method: method, Progress: progress})
+}
+
+// RegenerateWith solves the taxonomy. What stability means: among the
+// trees that satisfy every record, ramify writes the previous tree changed
+// only where the change of inputs forces it — new items placed, items that
+// a new or changed record names moved as little as the records need, items
+// a removed record held let go, removed items dropped in place — and among
+// such repairs the one whose Dasgupta cost rises least (solve.Repair). The
+// stability setting is how much costlier (1 + stability times) an item's
+// old place may be than its best one and still keep it, and the strength
+// of the pull toward the previous tree when the tree is rebuilt. A rebuild
+// happens with --rebuild, on the first solve, after an import, and when
+// over LocalShare of the items are new or gone; Solution.Mode and Reason
+// say which happened and why.
+func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	start := time.Now()
+	method, progress := ro.Method, ro.Progress
 	if len(p.Items) == 0 {
 		return nil, errors.New("there are no items yet; add some to " + p.itemsFilesText())
 	}
@@ -82,11 +131,57 @@ func (p *Project) Regenerate(method Method, progress func(stage string, done, to
 	for i, it := range p.Items {
 		ids[i] = it.ID
 	}
-	// With stability, the previous outline pulls the new tree toward
-	// itself, so solving twice could move a few items the second time.
-	// Each round therefore takes the previous round's tree as the prior
-	// until the shape settles: the written outline is then a fixed point,
-	// and solving again (or `check`) reproduces it exactly.
+	keys := p.RecordKeys()
+	sol := &Solution{Graph: g, Compiled: compiled}
+	var tree *solve.Tree
+	plan, reason := p.localPlan(ro, keys)
+	if plan != nil {
+		if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
+			return nil, p.conflict(compiled, recs)
+		}
+		if opt.MaxChildren == 1 {
+			return nil, errors.New("solve: max children must be at least 2")
+		}
+		var rep *solve.RepairReport
+		opt.Prior = PriorClusters(p.Outline.Root, p.Index)
+		tree, rep, err = solve.Repair(g, compiled.Constraints, plan.prev, plan.change, opt)
+		if err != nil {
+			return nil, err
+		}
+		sol.Mode, sol.Placed, sol.Regions = ModeLocal, rep.Placed, rep.Regions
+		if rep.Placed == 0 {
+			sol.Mode = ModeKept
+		}
+		if rep.Rebuilt {
+			sol.Mode, sol.Reason = ModeRebuild, "no local repair keeps every record"
+		}
+	} else {
+		sol.Mode, sol.Reason = ModeRebuild, reason
+		tree, err = p.rebuild(method, g, compiled, opt, ids)
+		if err != nil {
+			return nil, err
+		}
+	}
+	root := ToCategory(tree, ids)
+	var prev *format.Category
+	if p.Outline != nil {
+		prev = p.Outline.Root
+	}
+	p.nameCategories(root, prev)
+	concept.Carry(root, append([]*format.Category{prev}, p.NameSources...)...)
+	sol.Root, sol.Tree = root, tree
+	sol.Text = format.FormatOutlineRecords(root, keys)
+	sol.Cost = solve.Cost(g, tree)
+	sol.Violated = solve.Satisfies(tree, compiled.Constraints)
+	sol.Seconds = time.Since(start).Seconds()
+	return sol, nil
+}
+
+// rebuild solves from scratch. With stability, the previous outline pulls
+// the new tree toward itself, so solving twice could move a few items the
+// second time. Each round therefore takes the previous round's tree as
+// the prior until the shape settles.
+func (p *Project) rebuild(method Method, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string) (*solve.Tree, error) {
 	var prior *format.Category
 	if p.Outline != nil {
 		prior = p.Outline.Root
@@ -110,24 +205,101 @@ func (p *Project) Regenerate(method Method, progress func(stage string, done, to
 		}
 		prior = next
 	}
-	root := ToCategory(tree, ids)
-	var prev *format.Category
-	if p.Outline != nil {
-		prev = p.Outline.Root
+	return tree, nil
+}
+
+// localPlan is what a local re-solve starts from: the previous tree over
+// the current items (new items not in it yet) and the items that removed
+// records let go.
+type localPlan struct {
+	prev   *solve.Tree
+	change solve.Change
+}
+
+// localPlan decides whether a local re-solve applies; when not, it says
+// why the tree is rebuilt.
+func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord) (*localPlan, string) {
+	switch {
+	case ro.Method == MethodAverage:
+		return nil, "the average-linkage baseline is always built from scratch"
+	case ro.Rebuild:
+		return nil, "asked for with --rebuild"
+	case p.Outline == nil:
+		return nil, "there is no previous outline"
+	case p.Outline.Structure == "":
+		return nil, "the previous outline was not written by ramify (imported or made by hand)"
 	}
-	p.nameCategories(root, prev)
-	concept.Carry(root, append([]*format.Category{prev}, p.NameSources...)...)
-	text := format.FormatOutline(root)
-	return &Solution{
-		Root:     root,
-		Text:     text,
-		Graph:    g,
-		Tree:     tree,
-		Cost:     solve.Cost(g, tree),
-		Compiled: compiled,
-		Violated: solve.Satisfies(tree, compiled.Constraints),
-		Seconds:  time.Since(start).Seconds(),
-	}, nil
+	known := 0
+	for _, id := range p.Outline.Root.AllItems() {
+		if _, ok := p.Index[id]; ok {
+			known++
+		}
+	}
+	if known == 0 {
+		return nil, "no item of the previous outline is left"
+	}
+	gone := len(p.Outline.Root.AllItems()) - known
+	fresh := len(p.Items) - known
+	if float64(gone+fresh) > LocalShare*float64(len(p.Items)) {
+		return nil, fmt.Sprintf("%d of %d items are new or gone (over %d%%)", gone+fresh, len(p.Items), int(LocalShare*100))
+	}
+	current := map[string]bool{}
+	for _, k := range keys {
+		current[k.Key] = true
+	}
+	var freed []int32
+	for _, r := range p.Outline.Records {
+		if current[r.Key] {
+			continue
+		}
+		for _, id := range r.Items {
+			if i, ok := p.Index[id]; ok {
+				freed = append(freed, int32(i))
+			}
+		}
+	}
+	slices.Sort(freed)
+	return &localPlan{
+		prev:   CategoryTree(p.dissolveShrunk(p.Outline.Root), p.Index, len(p.Items)),
+		change: solve.Change{Freed: slices.Compact(freed)},
+	}, ""
+}
+
+// dissolveShrunk returns a copy of root in which every category that lost
+// items (they are gone from the items files) and is left with fewer than
+// min_size hands what is left to its parent: a shelf emptied down to one
+// tool is no shelf any more. Categories that lost nothing stay as they are,
+// however small.
+func (p *Project) dissolveShrunk(root *format.Category) *format.Category {
+	minSize := p.Settings.Taxonomy.MinSize
+	out := root.Clone()
+	var rec func(c *format.Category) (known int, lost bool)
+	rec = func(c *format.Category) (int, bool) {
+		known, lost := 0, false
+		var kids []*format.Category
+		for _, ch := range c.Children {
+			k, l := rec(ch)
+			known += k
+			lost = lost || l
+			if l && k < minSize && k > 0 {
+				c.Items = append(c.Items, ch.Items...)
+				kids = append(kids, ch.Children...)
+				continue
+			}
+			kids = append(kids, ch)
+		}
+		c.Children = kids
+		for _, it := range c.Items {
+			if _, ok := p.Index[it]; ok {
+				known++
+			} else {
+				lost = true
+			}
+		}
+		return known, lost
+	}
+	rec(out)
+	return out
 }
 
 // maxSettleRounds bounds the rounds Regenerate spends letting a tree
@@ -146,16 +318,21 @@ func (p *Project) build(method Method, g *graph.CSR, compiled *Compiled, opt sol
 	res, err := solve.Solve(g, compiled.Constraints, opt)
 	var ce *solve.ConflictError
 	if errors.As(err, &ce) {
-		conflict := &ConflictError{}
-		for _, r := range ce.Records {
-			conflict.Records = append(conflict.Records, compiled.Records[r])
-		}
-		return nil, conflict
+		return nil, p.conflict(compiled, ce.Records)
 	}
 	if err != nil {
 		return nil, err
 	}
 	return res.Taxonomy, nil
+}
+
+// conflict names the records of a conflicting set.
+func (p *Project) conflict(compiled *Compiled, recs []int) *ConflictError {
+	conflict := &ConflictError{}
+	for _, r := range recs {
+		conflict.Records = append(conflict.Records, compiled.Records[r])
+	}
+	return conflict
 }
 
 func (p *Project) itemsFilesText() string {

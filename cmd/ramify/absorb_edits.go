@@ -6,6 +6,7 @@ import (
 	"errors"
 	"fmt"
 	"io/fs"
+	"slices"
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
@@ -116,7 +117,10 @@ func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date strin
 		}
 		h.file, h.text = parsed, text
 	}
-	h.outline = format.FormatOutline(edited.Clone())
+	// The edited outline now holds the new records too: listing them makes
+	// a later removal of the edit file let the moved items go again.
+	records := append(slices.Clone(p.Outline.Records), project.RecordKeysOf(h.file)...)
+	h.outline = format.FormatOutlineRecords(edited.Clone(), records)
 	h.overridden = brokenByEdit(p, edited)
 	return h, nil
 }

@@ -99,10 +99,19 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 	// A renamed category leaves its old path in the concept block (the
 	// identifiers still bind by members); solve refreshes the block, and
 	// that alone is no reason to fail.
-	if !bytes.Equal(sol.Text, p.OutlineText) && (p.Outline.Structure == "" || !bytes.Equal(sol.Text, format.FormatOutline(root.Clone()))) {
+	if !bytes.Equal(sol.Text, p.OutlineText) && (p.Outline.Structure == "" || !bytes.Equal(sol.Text, format.FormatOutlineRecords(root.Clone(), p.RecordKeys()))) {
 		e.report["current"] = false
-		return nil, failf("%s is not what `ramify solve` writes now (%s); run `ramify solve` and commit the result",
-			rel, staleReason(root, p.OutlineText, sol.Root, sol.Text))
+		gone, fresh := recordChanges(p.Outline.Records, p.RecordKeys())
+		e.report["records_gone"], e.report["records_new"] = gone, fresh
+		why := ""
+		if gone > 0 {
+			why += fmt.Sprintf("; it was solved under %s that no longer %s, so what %s held is let go", plural(gone, "record", "records"), pick(gone, "exists", "exist"), pick(gone, "it", "they"))
+		}
+		if fresh > 0 {
+			why += fmt.Sprintf("; %s not solved under yet", plural(fresh, "record is", "records are"))
+		}
+		return nil, failf("%s is not what `ramify solve` writes now (%s%s); run `ramify solve` and commit the result",
+			rel, staleReason(root, p.OutlineText, sol.Root, sol.Text), why)
 	}
 	e.report["current"] = true
 	return sol, nil
@@ -161,6 +170,35 @@ func describeRecords(c recordCounts) string {
 		" (" + plural(c.Triplets, "triplet", "triplets") + ", " +
 		plural(c.Groups, "group", "groups") + ", " +
 		plural(c.Shapes, "shape", "shapes") + ")"
+}
+
+// recordChanges counts the records an outline was solved under that are
+// gone now, and the current records it was not solved under.
+func recordChanges(solved, current []format.OutlineRecord) (gone, fresh int) {
+	now := map[string]bool{}
+	for _, r := range current {
+		now[r.Key] = true
+	}
+	then := map[string]bool{}
+	for _, r := range solved {
+		then[r.Key] = true
+		if !now[r.Key] {
+			gone++
+		}
+	}
+	for k := range now {
+		if !then[k] {
+			fresh++
+		}
+	}
+	return gone, fresh
+}
+
+func pick(n int, one, many string) string {
+	if n == 1 {
+		return one
+	}
+	return many
 }
 
 func plural(n int, one, many string) string {

@@ -43,7 +43,11 @@ func staleReason(committed *format.Category, committedText []byte, fresh *format
 		return strings.Join(parts, ", ")
 	}
 	line := firstDifferentLine(committedText, freshText)
-	if bytes.Equal(format.FormatOutline(committed.Clone()), freshText) {
+	var records []format.OutlineRecord
+	if o, err := format.ParseOutline("fresh", freshText); err == nil {
+		records = o.Records
+	}
+	if bytes.Equal(format.FormatOutlineRecords(committed.Clone(), records), freshText) {
 		if line <= 2 {
 			return "the same tree; only the header lines differ"
 		}

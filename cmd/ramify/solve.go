@@ -27,6 +27,13 @@ When the constraints contradict each other, solve names the smallest set
 of records that cannot all hold, with file, line, author and reason, and
 exits with status 1 without writing anything.
 
+solve changes only what the change of inputs forces: new items are
+placed into the existing tree, items that a new record names move as
+little as the record needs, items a removed record held are let go, and
+everything else stays where it was. It rebuilds the tree from scratch on
+the first solve, after an import, when over a tenth of the items are new
+or gone, and with --rebuild; the report says which it did.
+
 When taxonomy.outline was reshaped by hand, solve stops and asks you to
 run "ramify absorb" first, so the edit is kept as a decision.
 
@@ -40,6 +47,7 @@ leaves the taxonomy alone.`,
 			o.extra["dry-run"] = fs.Bool("dry-run", false, "report what would change without writing the outline")
 			o.extra["out"] = fs.String("out", "", "write the tree to this `FILE` in the repository and leave the taxonomy alone")
 			o.extra["replace"] = fs.Bool("replace", false, "with --method average: replace the taxonomy even though the baseline breaks records")
+			o.extra["rebuild"] = fs.Bool("rebuild", false, "solve from scratch instead of changing only what the new inputs force")
 		},
 		run: runSolve,
 	})
@@ -65,7 +73,7 @@ func runSolve(e *env, args []string) error {
 	if err := checkGroupNames(p); err != nil {
 		return err
 	}
-	sol, err := p.Regenerate(method, e.progressFunc())
+	sol, err := p.RegenerateWith(project.RegenOptions{Method: method, Rebuild: *e.opt.extra["rebuild"].(*bool), Progress: e.progressFunc()})
 	e.endProgress()
 	if err != nil {
 		return solveError(e, err)
@@ -168,6 +176,11 @@ func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *fo
 	}
 	e.report["moved"] = moved
 	e.report["moved_categories"] = movedCats
+	e.report["mode"] = sol.Mode
+	if sol.Reason != "" {
+		e.report["rebuild_reason"] = sol.Reason
+	}
+	e.report["placed"] = sol.Placed
 	e.report["seconds"] = roundSig(sol.Seconds, 3)
 }
 
@@ -185,6 +198,18 @@ func printSolveReport(e *env, p *project.Project, sol *project.Solution) {
 	}
 	if p.Outline != nil {
 		e.say("  moved        %s since the previous outline", describeMoves(len(r["moved"].([]string)), r["moved_categories"].([]categoryMoveJSON)))
+	}
+	switch sol.Mode {
+	case project.ModeRebuild:
+		e.say("  solved       from scratch: %s", sol.Reason)
+	case project.ModeLocal:
+		how := "placed where the change forces"
+		if len(sol.Regions) > 0 {
+			how += fmt.Sprintf(", %s re-solved whole", plural(len(sol.Regions), "subtree", "subtrees"))
+		}
+		e.say("  solved       locally: %s (%s)", plural(sol.Placed, "item", "items"), how)
+	case project.ModeKept:
+		e.say("  solved       locally: nothing forced a change")
 	}
 	e.say("  time         %.2f s", sol.Seconds)
 }

@@ -1,0 +1,651 @@
+package solve
+
+import (
+	"cmp"
+	"errors"
+	"math"
+	"math/rand/v2"
+	"slices"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// Change says what moved between the tree a repository was last solved
+// into and its inputs now, as Repair needs it.
+type Change struct {
+	// Freed lists items that a removed record used to hold in place: they
+	// are re-placed by similarity alone, with no pull toward where they are.
+	Freed []int32
+}
+
+// RepairReport says what Repair did.
+type RepairReport struct {
+	// Placed counts the items that were taken out and put back (new
+	// items, items the records name, items freed by removed records).
+	Placed int
+	// Regions lists the subtrees Repair had to re-solve because no single
+	// placement could satisfy the records, by their leaf counts.
+	Regions []int
+	// Rebuilt is set when Repair gave up and solved from scratch.
+	Rebuilt bool
+}
+
+// Repair keeps prev, the previous tree over the current items, and changes
+// only what the constraints and the item set force. It is the local
+// re-solve of a taxonomy under a small change of its inputs:
+//
+//   - items of prev that are no longer wanted are already absent (prev is
+//     built over the current items only);
+//   - items absent from prev (new ones), items named by a record that prev
+//     violates, and the items of ch are taken out and put back one unit at
+//     a time, a violated group first as one category solved on its own;
+//   - each unit goes where Dasgupta's cost (Dasgupta, STOC 2016) rises
+//     least among the places that keep every record whose items are all
+//     placed, or stays where it was when that place is allowed and costs at
+//     most a factor (1 + opt.Stability) of the best;
+//   - a unit with no allowed place makes Repair re-solve the smallest
+//     subtree that holds every item its records name (the solver with the
+//     region's old categories as prior), widened past categories a group
+//     fixes.
+//
+// Among trees that satisfy every record, the result is therefore the
+// previous tree with as few items moved as a greedy placement finds, and
+// among those placements the cheapest. c must be consistent (Solve's
+// check); prev must be a tree over g's leaves whose unreachable leaves are
+// the new items. The result is multiway, like prev, and keeps prev's
+// single-child categories.
+func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*Tree, *RepairReport, error) {
+	if g == nil || prev == nil || prev.N != g.N {
+		return nil, nil, errors.New("solve: repair needs a previous tree over the graph's items")
+	}
+	if c == nil {
+		c = &Constraints{}
+	}
+	if err := checkLeaves(g.N, c); err != nil {
+		return nil, nil, err
+	}
+	r := newRepairer(g, c, prev, opt)
+	rep := &RepairReport{}
+	// What must be taken out: new items, the items of violated records,
+	// and the items the change names.
+	violated := Satisfies(prev, c)
+	bad := map[int]bool{}
+	for _, rec := range violated {
+		bad[rec] = true
+	}
+	stay := map[int32]bool{}
+	out := map[int32]bool{}
+	for _, x := range ch.Freed {
+		out[x] = true
+	}
+	for _, t := range c.Triplets {
+		if bad[t.Record] {
+			for _, x := range [3]int32{t.A, t.B, t.C} {
+				out[x], stay[x] = true, true
+			}
+		}
+	}
+	var groups [][]int32 // violated clusters, each becomes one unit
+	for _, cl := range c.Clusters {
+		if bad[cl.Record] && len(cl.Leaves) > 1 {
+			groups = append(groups, cl.Leaves)
+			for _, x := range cl.Leaves {
+				out[x], stay[x] = true, true
+			}
+		}
+	}
+	for x := int32(0); x < int32(g.N); x++ {
+		if !r.t.placed(x) {
+			out[x] = true
+		} else if stay[x] && !out[x] {
+			// A record names x but prev satisfies it: x need not move.
+			delete(stay, x)
+		}
+	}
+	oldParent := make(map[int32]int32, len(out))
+	for x := range out {
+		if r.t.placed(x) {
+			if stay[x] {
+				oldParent[x] = r.t.parent[x]
+			}
+			r.t.detach(x)
+		}
+	}
+	rep.Placed = len(out)
+	var free []int32
+	for _, u := range r.units(groups, out) {
+		if len(u.items) == 1 && len(r.touch[u.root]) == 0 {
+			free = append(free, u.root)
+			continue
+		}
+		if err := r.place(u, oldParent, rep); err != nil {
+			return nil, nil, err
+		}
+	}
+	r.placeFree(free, oldParent)
+	tree := r.t.compact()
+	if len(Satisfies(tree, c)) > 0 {
+		// Not reached when every placement was checked; kept so that a
+		// flaw here can never write a tree that breaks a record.
+		res, err := Solve(g, c, opt)
+		if err != nil {
+			return nil, nil, err
+		}
+		rep.Rebuilt = true
+		return res.Taxonomy, rep, nil
+	}
+	return tree, rep, nil
+}
+
+// placeFree puts items that no record names where the cost rises least,
+// each against the same tree (they are placed independently, so a batch
+// of new items costs one index of the tree), under existing categories
+// only: new items never make new categories by themselves.
+func (r *repairer) placeFree(items []int32, oldParent map[int32]int32) {
+	if len(items) == 0 {
+		return
+	}
+	ix := r.t.index(r.g, r.keys, r.c)
+	dest := make([]int32, len(items))
+	for i, x := range items {
+		u := unit{items: []int32{x}, root: x}
+		best, bestCost := r.t.root, math.Inf(1)
+		for _, s := range r.candidates(ix, u) {
+			if s.beside || !r.allowed(ix, u, s) {
+				continue
+			}
+			if c := r.cost(ix, u, s); c < bestCost {
+				best, bestCost = s.v, c
+			}
+		}
+		if p, ok := oldParent[x]; ok && r.t.alive(p) && r.allowed(ix, u, spot{p, false}) {
+			c := r.cost(ix, u, spot{p, false})
+			if c <= bestCost*(1+r.opt.Stability)+1e-12 {
+				best = p
+			}
+		}
+		dest[i] = best
+	}
+	for i, x := range items {
+		r.t.attach(x, spot{dest[i], false})
+	}
+}
+
+// unit is what Repair places in one step: a single item, or a violated
+// group built into its own category (root) first.
+type unit struct {
+	items []int32
+	root  int32 // the leaf itself, or the group's category node
+}
+
+// units orders the work: violated groups (largest first, then by first
+// item), then the remaining items, those named by fewer constraints first,
+// so that an item a record does not need to move gets back its place
+// before the items that must move are placed around it.
+func (r *repairer) units(groups [][]int32, out map[int32]bool) []unit {
+	slices.SortFunc(groups, func(a, b []int32) int {
+		return cmp.Or(cmp.Compare(len(b), len(a)), cmp.Compare(a[0], b[0]))
+	})
+	inGroup := map[int32]bool{}
+	var us []unit
+	for _, gr := range groups {
+		if inGroup[gr[0]] {
+			continue // nested in a larger violated group: solved with it
+		}
+		for _, x := range gr {
+			inGroup[x] = true
+		}
+		us = append(us, unit{items: gr, root: -1})
+	}
+	var singles []int32
+	for x := range out {
+		if !inGroup[x] {
+			singles = append(singles, x)
+		}
+	}
+	slices.SortFunc(singles, func(a, b int32) int {
+		return cmp.Or(cmp.Compare(len(r.touch[a]), len(r.touch[b])), cmp.Compare(a, b))
+	})
+	for _, x := range singles {
+		us = append(us, unit{items: []int32{x}, root: x})
+	}
+	return us
+}
+
+// repairer holds the tree being repaired and the per-item constraint
+// index.
+type repairer struct {
+	g   *graph.CSR
+	c   *Constraints
+	opt Options
+	t   *mutableTree
+	// touch[x] lists the triplets (index ≥ 0) and clusters (−1−index)
+	// naming item x.
+	touch [][]int
+	keys  []uint64 // random key per item, for hashing leaf sets
+}
+
+func newRepairer(g *graph.CSR, c *Constraints, prev *Tree, opt Options) *repairer {
+	r := &repairer{g: g, c: c, opt: opt, t: newMutableTree(prev), touch: make([][]int, g.N)}
+	for i, t := range c.Triplets {
+		for _, x := range uniqueTriple(t) {
+			r.touch[x] = append(r.touch[x], i)
+		}
+	}
+	for i, cl := range c.Clusters {
+		for _, x := range cl.Leaves {
+			r.touch[x] = append(r.touch[x], -1-i)
+		}
+	}
+	rng := rand.New(rand.NewPCG(opt.Seed, 0x6c6f63616c)) // "local"
+	r.keys = make([]uint64, g.N)
+	for i := range r.keys {
+		r.keys[i] = rng.Uint64() | 1
+	}
+	return r
+}
+
+func uniqueTriple(t Triplet) []int32 {
+	out := []int32{t.A}
+	if t.B != t.A {
+		out = append(out, t.B)
+	}
+	if t.C != t.A && t.C != t.B {
+		out = append(out, t.C)
+	}
+	return out
+}
+
+// spot is a place for a unit: under category v (beside false), or beside
+// node v, the two joined by a new category in v's parent (beside true).
+type spot struct {
+	v      int32
+	beside bool
+}
+
+// place puts one unit into the tree.
+func (r *repairer) place(u unit, oldParent map[int32]int32, rep *RepairReport) error {
+	if u.root < 0 {
+		root, err := r.buildGroup(u.items)
+		if err != nil {
+			return err
+		}
+		u.root = root
+	}
+	ix := r.t.index(r.g, r.keys, r.c)
+	best, bestCost := r.bestSpot(ix, u, r.candidates(ix, u))
+	// The old place, when the unit is a single item a record names and
+	// that place is still allowed, wins unless it is much worse.
+	if len(u.items) == 1 {
+		if p, ok := oldParent[u.items[0]]; ok && r.t.alive(p) {
+			s := spot{p, false}
+			if r.allowed(ix, u, s) {
+				if c := r.cost(ix, u, s); c <= bestCost*(1+r.opt.Stability)+1e-12 {
+					best = s
+				}
+			}
+		}
+	}
+	if best.v >= 0 {
+		r.t.attach(u.root, best)
+		return nil
+	}
+	return r.resolveRegion(ix, u, oldParent, rep)
+}
+
+// bestSpot is the allowed place of least cost: a place under an existing
+// category if there is one, else beside a node in a new category of two
+// (which only a record can need, as it makes a category below min_size).
+func (r *repairer) bestSpot(ix *treeIndex, u unit, cands []spot) (spot, float64) {
+	best, bestCost := spot{-1, false}, math.Inf(1)
+	for _, beside := range [2]bool{false, true} {
+		for _, s := range cands {
+			if s.beside != beside || !r.allowed(ix, u, s) {
+				continue
+			}
+			if c := r.cost(ix, u, s); c < bestCost {
+				best, bestCost = s, c
+			}
+		}
+		if best.v >= 0 {
+			break
+		}
+	}
+	return best, bestCost
+}
+
+// candidates lists the places worth scoring: every category on the root
+// path of a placed neighbour of the unit (deeper places only raise the
+// cost), the nodes on those paths for a new joint category, the root, and
+// the old parents of the unit's items.
+func (r *repairer) candidates(ix *treeIndex, u unit) []spot {
+	seen := map[spot]bool{}
+	var out []spot
+	add := func(s spot) {
+		if !seen[s] {
+			seen[s] = true
+			out = append(out, s)
+		}
+	}
+	add(spot{r.t.root, false})
+	for _, x := range u.items {
+		targets, _ := r.g.Neighbors(int(x))
+		for _, y := range targets {
+			if !r.t.placed(y) || ix.inUnit(u, y) {
+				continue
+			}
+			for v := y; v >= 0; v = r.t.parent[v] {
+				if !r.t.isLeaf(v) {
+					add(spot{v, false})
+				}
+				if v != r.t.root {
+					add(spot{v, true})
+				}
+			}
+		}
+		// Items a record ties to x are places too, even with no edge.
+		for _, k := range r.touch[x] {
+			for _, y := range r.constraintItems(k) {
+				if r.t.placed(y) && !ix.inUnit(u, y) {
+					if p := r.t.parent[y]; p >= 0 {
+						add(spot{p, false})
+					}
+					add(spot{y, true})
+				}
+			}
+		}
+	}
+	slices.SortFunc(out, func(a, b spot) int {
+		if a.v != b.v {
+			return cmp.Compare(a.v, b.v)
+		}
+		if a.beside == b.beside {
+			return 0
+		}
+		if !a.beside {
+			return -1
+		}
+		return 1
+	})
+	return out
+}
+
+func (r *repairer) constraintItems(k int) []int32 {
+	if k >= 0 {
+		return uniqueTriple(r.c.Triplets[k])
+	}
+	return r.c.Clusters[-1-k].Leaves
+}
+
+// cost is the rise of Dasgupta's cost, Σ w(i,j)·|leaves(lca(i,j))|, when
+// the unit goes to s, over the edges between placed items and the unit
+// (the unit's inner edges cost the same everywhere):
+//
+//	under v:  Σ_y w_y (|lca(v,y)| + k) + k·C(v)
+//	beside v: Σ_{y under v} w_y (|v| + k) + Σ_{other y} w_y (|lca(p,y)| + k) + k·C(p)
+//
+// with k the unit's size, p the parent of v, and C(a) the weight of the
+// placed pairs whose lca is a or one of its ancestors, each of which gains
+// k leaves.
+func (r *repairer) cost(ix *treeIndex, u unit, s spot) float64 {
+	k := float64(len(u.items))
+	ix.loadNeighbours(r.g, r.t, u)
+	if !s.beside {
+		return ix.edgeTerm(r.t, s.v, 0) + k*ix.wTotal + k*ix.upper[s.v]
+	}
+	p := r.t.parent[s.v]
+	under := ix.under[s.v]
+	return under*(float64(ix.size[s.v])+k) + ix.edgeTerm(r.t, p, under) + k*(ix.wTotal-under) + k*ix.upper[p]
+}
+
+// allowed reports whether placing u at s keeps every record whose items
+// are then all placed, and the depth and width limits.
+func (r *repairer) allowed(ix *treeIndex, u unit, s spot) bool {
+	t := r.t
+	attach := s.v
+	if s.beside {
+		attach = t.parent[s.v]
+		if attach < 0 {
+			return false
+		}
+	}
+	// A category that is exactly a group must gain nothing.
+	for a := attach; a >= 0; a = t.parent[a] {
+		if ix.locked[a] {
+			return false
+		}
+	}
+	h := ix.unitHeight(t, u.root)
+	if r.opt.MaxDepth > 0 {
+		limit := int32(r.opt.MaxDepth) + 1
+		if !s.beside && ix.depth[s.v]+1+h > limit {
+			return false
+		}
+		if s.beside && (ix.depth[s.v]+1+max(h, ix.height[s.v]) > limit) {
+			return false
+		}
+	}
+	if r.opt.MaxChildren > 0 && !s.beside && !t.isLeaf(u.root) && ix.subcats[s.v] >= int32(r.opt.MaxChildren) {
+		return false
+	}
+	checked := map[int]bool{}
+	for _, x := range u.items {
+		for _, k := range r.touch[x] {
+			if checked[k] {
+				continue
+			}
+			checked[k] = true
+			if !r.holds(ix, u, s, k) {
+				return false
+			}
+		}
+	}
+	return true
+}
+
+// holds checks constraint k (see touch) with u placed at s; a constraint
+// with an item still waiting to be placed is not judged yet.
+func (r *repairer) holds(ix *treeIndex, u unit, s spot, k int) bool {
+	t := r.t
+	if k >= 0 {
+		tr := r.c.Triplets[k]
+		if tr.A == tr.B {
+			return true
+		}
+		for _, x := range [3]int32{tr.A, tr.B, tr.C} {
+			if !t.placed(x) && !ix.inUnit(u, x) {
+				return true
+			}
+		}
+		return r.pairDepth(ix, u, s, tr.A, tr.B) > r.pairDepth(ix, u, s, tr.A, tr.C)
+	}
+	cl := r.c.Clusters[-1-k]
+	var rest uint64
+	restSize := int32(0)
+	inside := 0
+	for _, x := range cl.Leaves {
+		switch {
+		case ix.inUnit(u, x):
+			inside++
+		case t.placed(x):
+			rest ^= r.keys[x]
+			restSize++
+		default:
+			return true
+		}
+	}
+	if restSize == 0 {
+		return true // inside the unit, which was solved with it
+	}
+	if inside < len(u.items) {
+		return false // the unit would straddle the group's border
+	}
+	n, ok := ix.byHash[rest]
+	if !ok || ix.size[n] != restSize {
+		return false
+	}
+	attach := s.v
+	if s.beside {
+		if n == s.v {
+			return true
+		}
+		attach = t.parent[s.v]
+	}
+	return ix.isAncestor(n, attach)
+}
+
+// pairDepth is twice the depth of lca(a, b) with u placed at s; a node
+// joined beside v sits half a level above v, so that depths along any root
+// path stay in order.
+func (r *repairer) pairDepth(ix *treeIndex, u unit, s spot, a, b int32) int32 {
+	t := r.t
+	ina, inb := ix.inUnit(u, a), ix.inUnit(u, b)
+	base := 2 * (ix.depth[s.v] + 1)
+	if s.beside {
+		base = 2 * ix.depth[s.v]
+	}
+	switch {
+	case ina && inb:
+		return base + 2*ix.depthInUnit(t, u.root, t.lca(a, b))
+	case ina || inb:
+		y := b
+		if inb {
+			y = a
+		}
+		if s.beside {
+			if ix.isAncestor(s.v, y) {
+				return 2*ix.depth[s.v] - 1
+			}
+			return 2 * ix.depth[t.lcaIdx(ix, t.parent[s.v], y)]
+		}
+		return 2 * ix.depth[t.lcaIdx(ix, s.v, y)]
+	default:
+		return 2 * ix.depth[t.lcaIdx(ix, a, b)]
+	}
+}
+
+// buildGroup solves a violated group on its own (its items, the edges and
+// records among them) and returns the detached category node that holds
+// it.
+func (r *repairer) buildGroup(items []int32) (int32, error) {
+	sub := r.subproblem(items)
+	opt := r.opt
+	opt.Prior, opt.Stability, opt.Progress = nil, 0, nil
+	if opt.MaxDepth > 1 {
+		opt.MaxDepth--
+	}
+	res, err := Solve(sub.g, sub.c, opt)
+	if err != nil {
+		return 0, err
+	}
+	return r.t.graft(res.Taxonomy, items), nil
+}
+
+// resolveRegion re-solves the smallest subtree that holds the unit's
+// records, with the unit inside it, when no single place will do.
+func (r *repairer) resolveRegion(ix *treeIndex, u unit, oldParent map[int32]int32, rep *RepairReport) error {
+	t := r.t
+	region := int32(-1)
+	join := func(v int32) {
+		if region < 0 {
+			region = v
+		} else {
+			region = t.lcaIdx(ix, region, v)
+		}
+	}
+	for _, x := range u.items {
+		if p, ok := oldParent[x]; ok && t.alive(p) {
+			join(p)
+		}
+		for _, k := range r.touch[x] {
+			for _, y := range r.constraintItems(k) {
+				if t.placed(y) && !ix.inUnit(u, y) {
+					join(y)
+				}
+			}
+		}
+	}
+	if region >= 0 && t.isLeaf(region) {
+		region = t.parent[region]
+	}
+	if region < 0 {
+		region = t.root
+	}
+	// Widen past any category that is exactly a group, which the unit
+	// would otherwise join.
+	for a := region; a >= 0; a = t.parent[a] {
+		if ix.locked[a] {
+			region = a
+			if t.parent[a] >= 0 {
+				region = t.parent[a]
+			}
+		}
+	}
+	items := append(t.leavesUnder(region), u.items...)
+	slices.Sort(items)
+	rep.Regions = append(rep.Regions, len(items))
+	sub := r.subproblem(items)
+	opt := r.opt
+	opt.Progress = nil
+	if opt.MaxDepth > 0 {
+		opt.MaxDepth = max(1, opt.MaxDepth-int(ix.depth[region]))
+	}
+	opt.Prior = t.priorUnder(region, items)
+	res, err := Solve(sub.g, sub.c, opt)
+	if err != nil {
+		return err
+	}
+	// The unit's own nodes (a group's category) are replaced by the
+	// region's new tree.
+	t.discard(u.root)
+	t.replaceUnder(region, res.Taxonomy, items)
+	return nil
+}
+
+type subproblem struct {
+	g *graph.CSR
+	c *Constraints
+}
+
+// subproblem is the graph and the records restricted to items (sorted),
+// renumbered 0..len(items)-1 in that order.
+func (r *repairer) subproblem(items []int32) subproblem {
+	local := make(map[int32]int32, len(items))
+	for i, x := range items {
+		local[x] = int32(i)
+	}
+	var edges []graph.Edge
+	for i, x := range items {
+		targets, weights := r.g.Neighbors(int(x))
+		for j, y := range targets {
+			if ly, ok := local[y]; ok && ly > int32(i) {
+				edges = append(edges, graph.Edge{A: int32(i), B: ly, W: weights[j]})
+			}
+		}
+	}
+	g, err := graph.FromEdges(len(items), edges)
+	if err != nil {
+		panic(err) // edges of a valid graph restricted to a subset stay valid
+	}
+	c := &Constraints{}
+	for _, t := range r.c.Triplets {
+		a, ok1 := local[t.A]
+		b, ok2 := local[t.B]
+		o, ok3 := local[t.C]
+		if ok1 && ok2 && ok3 {
+			c.Triplets = append(c.Triplets, Triplet{A: a, B: b, C: o, Record: t.Record})
+		}
+	}
+	for _, cl := range r.c.Clusters {
+		var ls []int32
+		for _, x := range cl.Leaves {
+			if lx, ok := local[x]; ok {
+				ls = append(ls, lx)
+			}
+		}
+		if len(ls) == len(cl.Leaves) {
+			c.Clusters = append(c.Clusters, Cluster{Leaves: ls, Record: cl.Record})
+		}
+	}
+	return subproblem{g, c}
+}
