@@ -118,7 +118,7 @@ func runExplain(e *env, args []string) error {
 		}
 		q := unpulled(p)
 		q.Constraints = nil
-		sol, err := q.Regenerate(project.MethodConstrained, nil)
+		sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
 		if err != nil {
 			return err
 		}
@@ -135,7 +135,7 @@ func runExplain(e *env, args []string) error {
 			}
 			q := unpulled(p)
 			q.Constraints = withoutRecord(p.Constraints, r)
-			sol, err := q.Regenerate(project.MethodConstrained, nil)
+			sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
 			if err != nil {
 				return nil, err
 			}
