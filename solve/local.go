@@ -452,10 +452,15 @@ func (r *repairer) holds(ix *treeIndex, u unit, s spot, k int) bool {
 		if tr.A == tr.B {
 			return true
 		}
-		for _, x := range [3]int32{tr.A, tr.B, tr.C} {
-			if !t.placed(x) && !ix.inUnit(u, x) {
-				return true
-			}
+		here := func(x int32) bool { return t.placed(x) || ix.inUnit(u, x) }
+		switch {
+		case here(tr.A) && here(tr.B) && !here(tr.C):
+			// The odd one out is still to come: it can only stay out of
+			// the pair if the pair meets below the root (Repair never adds
+			// a node above the root).
+			return r.pairDepth(ix, u, s, tr.A, tr.B) > 0
+		case !here(tr.A) || !here(tr.B) || !here(tr.C):
+			return true // a pair member can always be put beside the other
 		}
 		return r.pairDepth(ix, u, s, tr.A, tr.B) > r.pairDepth(ix, u, s, tr.A, tr.C)
 	}
