@@ -50,6 +50,19 @@ func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size 
 	}
 	opt.Prior, opt.Stability, opt.Progress = nil, 0, nil
 	edges := g.Edges()
+	trees, binary, err := solveMembers(size, func(b int) (*solve.Tree, *solve.Tree, error) {
+		return solveReplicate(g.N, edges, c, opt, replicateSeed(seed, b))
+	})
+	if err != nil {
+		return nil, err
+	}
+	return newCommittee(g.N, trees, binary), nil
+}
+
+// solveMembers solves the committee's size members on committeeWorkers
+// goroutines, member b by solveOne(b), and returns their taxonomies and
+// binary trees in member order, or the first error.
+func solveMembers(size int, solveOne func(b int) (taxonomy, binary *solve.Tree, err error)) ([]*solve.Tree, []*solve.Tree, error) {
 	trees := make([]*solve.Tree, size)
 	binary := make([]*solve.Tree, size)
 	errs := make([]error, size)
@@ -60,7 +73,7 @@ func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size 
 		go func() {
 			defer wg.Done()
 			for b := range jobs {
-				trees[b], binary[b], errs[b] = solveReplicate(g.N, edges, c, opt, replicateSeed(seed, b))
+				trees[b], binary[b], errs[b] = solveOne(b)
 			}
 		}()
 	}
@@ -71,10 +84,10 @@ func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size 
 	wg.Wait()
 	for _, err := range errs {
 		if err != nil {
-			return nil, err
+			return nil, nil, err
 		}
 	}
-	return newCommittee(g.N, trees, binary), nil
+	return trees, binary, nil
 }
 
 // NewCommittee wraps trees that were built elsewhere (tests, or a caller

@@ -3,7 +3,6 @@ package review
 import (
 	"errors"
 	"fmt"
-	"sync"
 
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -37,35 +36,16 @@ func BuildViewCommittee(views []*graph.CSR, c *solve.Constraints, opt solve.Opti
 	for i, v := range views {
 		edges[i] = v.Edges()
 	}
-	trees := make([]*solve.Tree, size)
-	binary := make([]*solve.Tree, size)
-	errs := make([]error, size)
-	jobs := make(chan int)
-	var wg sync.WaitGroup
-	for range min(committeeWorkers, size) {
-		wg.Add(1)
-		go func() {
-			defer wg.Done()
-			for b := range jobs {
-				v := b % len(views)
-				s := replicateSeed(seed, b)
-				if b < len(views) {
-					trees[b], binary[b], errs[b] = solveView(views[v], c, opt, s)
-				} else {
-					trees[b], binary[b], errs[b] = solveReplicate(n, edges[v], c, opt, s)
-				}
-			}
-		}()
-	}
-	for b := range size {
-		jobs <- b
-	}
-	close(jobs)
-	wg.Wait()
-	for _, err := range errs {
-		if err != nil {
-			return nil, err
+	trees, binary, err := solveMembers(size, func(b int) (*solve.Tree, *solve.Tree, error) {
+		v := b % len(views)
+		s := replicateSeed(seed, b)
+		if b < len(views) {
+			return solveView(views[v], c, opt, s)
 		}
+		return solveReplicate(n, edges[v], c, opt, s)
+	})
+	if err != nil {
+		return nil, err
 	}
 	return newCommittee(n, trees, binary), nil
 }
