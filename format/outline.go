@@ -318,12 +318,13 @@ func FormatTree(root *Category) []byte {
 	return b.Bytes()
 }
 
-func writeTree(b *bytes.Buffer, root *Category) { writeNode(b, root, 0) }
+func writeTree(b *bytes.Buffer, root *Category) { writeNode(b, root, 0, nil) }
 
 // writeNode prints c's subcategories (each followed by its contents), then
-// c's items. Recursion depth is bounded by the tree depth, which parsing
-// limits to MaxDepth and solving to max_depth.
-func writeNode(b *bytes.Buffer, c *Category, depth int) {
+// c's items, each followed by its label as a comment when labels has one
+// (packets only). Recursion depth is bounded by the tree depth, which
+// parsing limits to MaxDepth and solving to max_depth.
+func writeNode(b *bytes.Buffer, c *Category, depth int, labels map[string]string) {
 	pad := strings.Repeat("  ", depth)
 	for _, ch := range c.Children {
 		b.WriteString(pad)
@@ -332,11 +333,17 @@ func writeNode(b *bytes.Buffer, c *Category, depth int) {
 		}
 		b.WriteString(ch.Name)
 		b.WriteString("/\n")
-		writeNode(b, ch, depth+1)
+		writeNode(b, ch, depth+1, labels)
 	}
 	for _, it := range c.Items {
 		b.WriteString(pad)
 		b.WriteString(it)
+		if labels != nil {
+			if label := PacketComment(labels[it]); label != "" {
+				b.WriteString("  # ")
+				b.WriteString(label)
+			}
+		}
 		b.WriteByte('\n')
 	}
 }

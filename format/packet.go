@@ -6,8 +6,23 @@ import (
 	"strings"
 )
 
-// PacketHeader is the first line of every review packet.
-const PacketHeader = "# ramify packet 1"
+// PacketHeader is the first line of every review packet: the number is
+// the version of the packet format.
+const PacketHeader = "# ramify packet format 1"
+
+// legacyPacketHeader is the first line packets had before it named the
+// format; such packets are read as format 1.
+const legacyPacketHeader = "# ramify packet 1"
+
+// packetVersionPrefix starts the first line of every packet format.
+const packetVersionPrefix = "# ramify packet format "
+
+// IsPacketText reports whether data starts like a review packet, of any
+// format version.
+func IsPacketText(data []byte) bool {
+	text := strings.TrimPrefix(string(data[:min(len(data), 64)]), "\ufeff")
+	return strings.HasPrefix(text, packetVersionPrefix) || strings.HasPrefix(text, legacyPacketHeader)
+}
 
 // Packet reasons and verdicts.
 const (
@@ -39,6 +54,11 @@ type Packet struct {
 	Reviewer string
 	Note     string
 	Tree     *Category // canonical order; lines are file lines
+	// Labels are the item labels shown beside item ids as trailing
+	// comments ("claw-hammer  # Claw hammer, 16 oz"), by id: only for the
+	// reviewer to read. A comment never changes an answer, so nothing
+	// but the packet printer uses them.
+	Labels map[string]string
 	// TreeLine is the file line where the tree begins.
 	TreeLine int
 }
@@ -60,12 +80,13 @@ func ParsePacket(file string, data []byte) (*Packet, error) {
 	if len(lines) > 1 && lines[len(lines)-1] == "" {
 		pp.lastLine-- // text after the final line break is no line
 	}
-	if len(lines) == 0 || strings.TrimRight(lines[0], " ") != PacketHeader {
-		first := ""
-		if len(lines) > 0 {
-			first = lines[0]
-		}
-		pp.ds.Add(Pos{file, 1, 1}, "not a ramify packet: the first line must be %q, not %q", PacketHeader, clip(first))
+	first := strings.TrimRight(lines[0], " ")
+	if v, ok := strings.CutPrefix(first, packetVersionPrefix); ok && v != "1" {
+		pp.ds.Add(Pos{file, 1, 1}, "unsupported packet format %q; this ramify reads format 1", clip(v))
+		return nil, pp.ds
+	}
+	if first != PacketHeader && first != legacyPacketHeader {
+		pp.ds.Add(Pos{file, 1, 1}, "not a ramify packet: the first line must be %q, not %q", PacketHeader, clip(lines[0]))
 		return nil, pp.ds
 	}
 	i := 1
@@ -93,7 +114,9 @@ func ParsePacket(file string, data []byte) (*Packet, error) {
 		}
 	}
 	p.TreeLine = i + 1
-	tree, _, tds := parseTree(file, []byte(strings.Join(lines[min(i, len(lines)):], "\n")), p.TreeLine, false)
+	treeLines := lines[min(i, len(lines)):]
+	p.Labels = cutItemComments(treeLines)
+	tree, _, tds := parseTree(file, []byte(strings.Join(treeLines, "\n")), p.TreeLine, false)
 	pp.ds = append(pp.ds, tds...)
 	pp.treeErrors = len(tds)
 	tree.Sort()

@@ -7,7 +7,9 @@ import (
 
 // FormatPacket prints p in canonical form. The instructions are fixed
 // text that names the item count; the tree is printed in canonical order
-// (p itself is not changed). ParsePacket reads the result back to p.
+// (p itself is not changed), each item with its label (p.Labels, through
+// PacketComment) as a trailing comment. ParsePacket reads the result back
+// to p.
 func FormatPacket(p *Packet) []byte {
 	var b bytes.Buffer
 	b.WriteString(PacketHeader + "\n")
@@ -23,12 +25,17 @@ func FormatPacket(p *Packet) []byte {
 	b.WriteString("# If the grouping is right, change \"pending\" below to \"ok\".\n")
 	b.WriteString("# If it is wrong, move lines until it is right, change \"pending\" to \"fixed\",\n")
 	b.WriteString("# and run `ramify absorb`. Put your name after \"reviewer:\".\n")
+	if hasLabels(p) {
+		b.WriteString("# The text after \"#\" on an item line is the item's label, to read only.\n")
+	}
 	writeField(&b, "verdict", p.Verdict)
 	writeField(&b, "reviewer", p.Reviewer)
 	writeField(&b, "note", p.Note)
 	b.WriteByte('\n')
 	if p.Tree != nil {
-		b.Write(FormatTree(p.Tree.Clone()))
+		tree := p.Tree.Clone()
+		tree.Sort()
+		writeNode(&b, tree, 0, p.Labels)
 	}
 	return b.Bytes()
 }
@@ -39,4 +46,17 @@ func writeField(b *bytes.Buffer, name, value string) {
 		b.WriteString(" " + value)
 	}
 	b.WriteByte('\n')
+}
+
+// hasLabels reports whether any item of p's tree is shown with a label.
+func hasLabels(p *Packet) bool {
+	if p.Tree == nil || len(p.Labels) == 0 {
+		return false
+	}
+	for _, id := range p.Tree.AllItems() {
+		if PacketComment(p.Labels[id]) != "" {
+			return true
+		}
+	}
+	return false
 }

@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"os"
 	"path/filepath"
+	"regexp"
 	"strings"
 	"testing"
 
@@ -55,7 +56,7 @@ func TestParsePacketFields(t *testing.T) {
 // A reviewer's hand edits: upper-case verdict, reordered lines, no blank
 // line before the tree, comments in the tree.
 func TestParsePacketHandEdits(t *testing.T) {
-	in := "# ramify packet 1\n# reason: audit\n# from: 0a1b2c3d4e5f\n# drawn: 2027-01-15\n# size: 3\n" +
+	in := "# ramify packet format 1\n# reason: audit\n# from: 0a1b2c3d4e5f\n# drawn: 2027-01-15\n# size: 3\n" +
 		"note:   moved the hammer  \nVerdict: FIXED\nreviewer: editor-b\n" +
 		"claw-hammer\n# measuring tools together\nMeasuring/\n  tape-measure-8m\n  laser-level\n"
 	p, err := ParsePacket("p.outline", []byte(in))
@@ -80,7 +81,7 @@ func mustRead(t *testing.T, f string) []byte {
 	return data
 }
 
-const packetHead = "# ramify packet 1\n# reason: audit\n# from: 6f1c09d2a4b3\n# drawn: 2026-12-02\n# size: 3\n"
+const packetHead = "# ramify packet format 1\n# reason: audit\n# from: 6f1c09d2a4b3\n# drawn: 2026-12-02\n# size: 3\n"
 
 func TestParsePacketErrors(t *testing.T) {
 	tests := []struct {
@@ -89,7 +90,13 @@ func TestParsePacketErrors(t *testing.T) {
 		want []string
 	}{
 		{"not a packet", "# ramify packet 2\n", []string{
-			`p.outline:1:1: not a ramify packet: the first line must be "# ramify packet 1", not "# ramify packet 2"`,
+			`p.outline:1:1: not a ramify packet: the first line must be "# ramify packet format 1", not "# ramify packet 2"`,
+		}},
+		{"a later format", "# ramify packet format 2\n# reason: audit\n", []string{
+			`p.outline:1:1: unsupported packet format "2"; this ramify reads format 1`,
+		}},
+		{"an outline is not a packet", "# ramify outline 1\nx\n", []string{
+			`p.outline:1:1: not a ramify packet: the first line must be "# ramify packet format 1", not "# ramify outline 1"`,
 		}},
 		{"malformed header and fields",
 			"# ramify packet 1\n# reason: uncertin\n# from: xyz\n# drawn: 2026-13-01\n# size: many\n# score: -1\n# sise: 3\n# reason: audit\n" +
@@ -126,7 +133,7 @@ func TestParsePacketErrors(t *testing.T) {
 			"p.outline:11:1: tab in the indentation; indent with two spaces per level",
 			`p.outline:12:1: category "B" is empty; a category needs at least one item or subcategory`,
 		}},
-		{"header only", "# ramify packet 1\n", []string{
+		{"header only", "# ramify packet format 1\n", []string{
 			`p.outline:1:1: the header has no "# reason: " line`,
 			`p.outline:1:1: the header has no "# from: " line`,
 			`p.outline:1:1: the header has no "# drawn: " line`,
@@ -176,7 +183,31 @@ func randomPacket(rng *rand.Rand) *Packet {
 	words := []string{"", "editor-a", "Zoë O'Brien", "a: b: c", "#hash", "verdict: ok", "漢字"}
 	p.Reviewer = words[rng.IntN(len(words))]
 	p.Note = words[rng.IntN(len(words))]
+	labels := []string{"", "Claw hammer, 16 oz", "  two\nlines\t ", "ends in a slash/", "# hash", "\u202eevil", "Zoë's 漢字 saw", strings.Repeat("long ", 40)}
+	for _, id := range tree.AllItems() {
+		if l := labels[rng.IntN(len(labels))]; l != "" && rng.IntN(3) > 0 {
+			if p.Labels == nil {
+				p.Labels = map[string]string{}
+			}
+			p.Labels[id] = l
+		}
+	}
 	return p
+}
+
+// shownLabels is what a packet's labels read back as: each through
+// PacketComment, those left empty dropped.
+func shownLabels(labels map[string]string) map[string]string {
+	var out map[string]string
+	for id, l := range labels {
+		if c := PacketComment(l); c != "" {
+			if out == nil {
+				out = map[string]string{}
+			}
+			out[id] = c
+		}
+	}
+	return out
 }
 
 // parse(print(p)) == p on random packets.
@@ -189,6 +220,7 @@ func TestPacketRandomRoundTrip(t *testing.T) {
 		if err != nil {
 			t.Fatalf("trial %d: %v\n%s", trial, err, text)
 		}
+		p.Labels = shownLabels(p.Labels)
 		if diff := cmp.Diff(p, got, cmpopts.IgnoreFields(Packet{}, "Tree", "TreeLine")); diff != "" {
 			t.Fatalf("trial %d (-want +got):\n%s\n%s", trial, diff, text)
 		}
@@ -202,5 +234,133 @@ func TestPacketRandomRoundTrip(t *testing.T) {
 		if !strings.Contains(string(text), fmt.Sprintf("# Check how these %d items are grouped.\n", p.Size)) {
 			t.Fatalf("trial %d: instructions do not name the item count", trial)
 		}
+	}
+}
+
+// A packet written before the first line named the format reads as
+// format 1, and prints with today's first line and nothing else changed.
+func TestParsePacketLegacyHeader(t *testing.T) {
+	old := mustRead(t, "testdata/packet-legacy/uncertain.outline")
+	if !bytes.HasPrefix(old, []byte("# ramify packet 1\n")) || !IsPacketText(old) {
+		t.Fatal("the legacy golden does not start with the old first line")
+	}
+	p, err := ParsePacket("old.outline", old)
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := mustRead(t, "testdata/packet/uncertain.outline")
+	if got := FormatPacket(p); !bytes.Equal(got, want) {
+		t.Errorf("(-want +got):\n%s", cmp.Diff(string(want), string(got)))
+	}
+}
+
+func TestIsPacketText(t *testing.T) {
+	for in, want := range map[string]bool{
+		"# ramify packet format 1\n":         true,
+		"\ufeff# ramify packet format 1\n":   true,
+		"# ramify packet 1\n":                true,
+		"# ramify packet format 7\n":         true, // read, then refused by version
+		"# ramify outline 1\n":               false,
+		"":                                   false,
+		"claw-hammer  # ramify packet 1\n":   false,
+		"# ramify packets are small files\n": false,
+	} {
+		if got := IsPacketText([]byte(in)); got != want {
+			t.Errorf("IsPacketText(%q) = %v, want %v", in, got, want)
+		}
+	}
+}
+
+func TestParsePacketLabels(t *testing.T) {
+	p, err := ParsePacket("l.outline", mustRead(t, "testdata/packet/labels.outline"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	want := map[string]string{
+		"claw-hammer":      "Claw hammer, 16 oz",
+		"mallet-rubber":    "Rubber mallet # 2",
+		"drill-driver-18v": "Drill driver, 18 V",
+		"laser-level":      "Laser level: cross-line / green",
+		"ball-peen-hammer": "Ball-peen hammer",
+	}
+	if diff := cmp.Diff(want, p.Labels); diff != "" {
+		t.Errorf("labels (-want +got):\n%s", diff)
+	}
+	// A category line that holds " # " is a category, not an item with a
+	// comment.
+	if got := p.Tree.Children[1].Name; got != "Measuring # marking" {
+		t.Errorf("second category is %q", got)
+	}
+	// The comments are no part of the tree: the same packet without them
+	// has the same tree, items and lines.
+	bare := regexpComment.ReplaceAllString(string(mustRead(t, "testdata/packet/labels.outline")), "$1")
+	q, err := ParsePacket("l.outline", []byte(bare))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if diff := treeDiff(q.Tree, p.Tree); diff != "" {
+		t.Errorf("comments change the tree (-bare +labelled):\n%s", diff)
+	}
+	if q.Labels != nil {
+		t.Errorf("labels without comments: %v", q.Labels)
+	}
+}
+
+// regexpComment matches an item line's trailing comment in the golden.
+var regexpComment = regexp.MustCompile(`(?m)(^ *[a-z0-9-]+)  # .*$`)
+
+func TestPacketComment(t *testing.T) {
+	tests := []struct{ in, want string }{
+		{"Claw hammer, 16 oz", "Claw hammer, 16 oz"},
+		{"", ""},
+		{"   ", ""},
+		{"two\nlines", "two lines"},
+		{"tab\there\r\n", "tab here"},
+		{"  spaced   out  ", "spaced out"},
+		{"bidi \u202eoverride\u202c end", "bidi override end"},
+		{"line\u2028separator", "line separator"},
+		{"zero\u200bwidth", "zero width"},
+		{"wood/metal/", "wood/metal"},
+		{"slash / ", "slash"},
+		{"# hash first", "# hash first"},
+		{"Zoë's 漢字", "Zoë's 漢字"},
+		{"\x00nul\x7fdel", "nul del"},
+		{strings.Repeat("a", 100), strings.Repeat("a", 100)},
+		{strings.Repeat("a", 101), strings.Repeat("a", 99) + "…"},
+		{strings.Repeat("ab ", 50), strings.TrimSpace(strings.Repeat("ab ", 33)) + "…"},
+	}
+	for _, tt := range tests {
+		got := PacketComment(tt.in)
+		if got != tt.want {
+			t.Errorf("PacketComment(%q) = %q, want %q", tt.in, got, tt.want)
+		}
+		if again := PacketComment(got); again != got {
+			t.Errorf("PacketComment is not idempotent on %q: %q then %q", tt.in, got, again)
+		}
+	}
+}
+
+// Labels that would break a line or pose as a category still print one
+// item line each, and read back as the same tree.
+func TestFormatPacketHostileLabels(t *testing.T) {
+	p := &Packet{Reason: ReasonAudit, From: "0a1b2c3d4e5f", Drawn: "2027-01-15", Size: 3, Verdict: VerdictPending,
+		Tree: &Category{Items: []string{"a", "b", "c"}, Children: nil},
+		Labels: map[string]string{
+			"a": "first\nFake/\n  b",
+			"b": "Looks like a category/",
+			"c": "verdict: ok",
+		}}
+	text := string(FormatPacket(p))
+	tree := text[strings.Index(text, "\n\n")+2:]
+	want := "a  # first Fake/ b\nb  # Looks like a category\nc  # verdict: ok\n"
+	if tree != want {
+		t.Errorf("tree lines:\n%s\nwant:\n%s", tree, want)
+	}
+	got, err := ParsePacket("p.outline", []byte(text))
+	if err != nil {
+		t.Fatal(err)
+	}
+	if diff := treeDiff(p.Tree, got.Tree); diff != "" || got.Verdict != VerdictPending {
+		t.Errorf("tree (-want +got):\n%s verdict %q", diff, got.Verdict)
 	}
 }

@@ -11,11 +11,24 @@ import (
 func drawnPacket(t *testing.T) (*Answer, *format.Category) {
 	t.Helper()
 	full := outline(t, fullOutline)
-	items := []string{"claw-hammer", "mallet-rubber", "driver-set", "tape-measure"}
+	items := []format.Item{
+		{ID: "claw-hammer", Label: "Claw hammer, 16 oz"},
+		{ID: "mallet-rubber", Label: "Rubber mallet\nfor tiles"},
+		{ID: "driver-set"},
+		{ID: "tape-measure", Label: "Tape measure"},
+	}
 	p, id := NewPacket(Draft{Reason: format.ReasonUncertain, Items: []int32{0, 1, 2, 3}, Score: 0.123456},
 		full, items, "0123456789ab", "2026-12-01")
 	if p.Score != 0.1235 {
 		t.Errorf("score %v, want 0.1235 (four decimals)", p.Score)
+	}
+	// Each item with its label, one line each; driver-set has none.
+	text := string(format.FormatPacket(p))
+	for _, line := range []string{"\n    claw-hammer  # Claw hammer, 16 oz\n", "\n    mallet-rubber  # Rubber mallet for tiles\n",
+		"\n  driver-set\n", "\ntape-measure  # Tape measure\n"} {
+		if !strings.Contains(text, line) {
+			t.Errorf("packet lacks %q:\n%s", line, text)
+		}
 	}
 	return &Answer{File: "reviews/open/" + id + ".outline", ID: id, Data: format.FormatPacket(p), Packet: p}, full
 }
@@ -51,9 +64,23 @@ func TestCheckAnswer(t *testing.T) {
 		}, ""},
 		{"ok but changed", func(s string) string {
 			return moveDriver(strings.Replace(s, "verdict: pending", "verdict: ok", 1))
-		}, ":12:1: the verdict is ok but the tree below was changed"},
+		}, ":13:1: the verdict is ok but the tree below was changed"},
 		{"fixed but unchanged", func(s string) string { return strings.Replace(s, "verdict: pending", "verdict: fixed", 1) },
-			":12:1: the verdict is fixed but the tree groups the items as drawn"},
+			":13:1: the verdict is fixed but the tree groups the items as drawn"},
+		{"fixed by moving a line with its label", func(s string) string {
+			s = strings.Replace(s, "verdict: pending", "verdict: fixed", 1)
+			s = strings.Replace(s, "    claw-hammer  # Claw hammer, 16 oz\n", "", 1)
+			return s + "claw-hammer  # Claw hammer, 16 oz\n"
+		}, ""},
+		{"ok with a label retyped and a comment added", func(s string) string {
+			s = strings.Replace(s, "verdict: pending", "verdict: ok", 1)
+			s = strings.Replace(s, "# Claw hammer, 16 oz", "# a hammer, not a mallet", 1)
+			return strings.Replace(s, "  driver-set\n", "  driver-set  # belongs here\n", 1)
+		}, ""},
+		{"fixed with only a label changed", func(s string) string {
+			s = strings.Replace(s, "verdict: pending", "verdict: fixed", 1)
+			return strings.Replace(s, "# Tape measure", "# Tape measure, 8 m", 1)
+		}, ":13:1: the verdict is fixed but the tree groups the items as drawn"},
 		{"an item retyped", func(s string) string {
 			return strings.Replace(strings.Replace(s, "verdict: pending", "verdict: fixed", 1), "tape-measure", "tape-measure-5m", 1)
 		}, ":5:1: the packet's items are not the 4 it was drawn with"},
@@ -107,6 +134,14 @@ func TestShapeFileAndDoneText(t *testing.T) {
 	}
 	if p.Reviewer != "Ana Lima" || p.Verdict != format.VerdictFixed || !strings.Contains(string(done), "# absorbed on 2026-12-03\n") {
 		t.Errorf("done packet:\n%s", done)
+	}
+	// The audit log keeps the labels the reviewer saw; the record does
+	// not: a label is no part of the answer.
+	if !strings.Contains(string(done), "    claw-hammer  # Claw hammer, 16 oz\n") {
+		t.Errorf("done packet lost the labels:\n%s", done)
+	}
+	if strings.Contains(string(text), "Claw hammer") {
+		t.Errorf("the shape record holds a label:\n%s", text)
 	}
 }
 

@@ -1,8 +1,10 @@
 package review
 
 import (
+	"maps"
 	"math/rand/v2"
 	"slices"
+	"strconv"
 	"strings"
 	"testing"
 
@@ -110,4 +112,94 @@ func TestRestrictKeepsTriplets(t *testing.T) {
 			t.Fatalf("trial %d: T|Q holds %d items, want %d", trial, n, k)
 		}
 	}
+}
+
+// TestRestrictKeepsSeparatingCategories checks T|Q against its definition
+// on random deep trees: its categories are exactly the distinct sets
+// C ∩ Q with 2 ≤ |C ∩ Q| < |Q| over the categories C of T (every category
+// that separates the packet's items, none that holds them all or a single
+// one), each under the name of the lowest category of T that cuts that set
+// (a chain of categories over the same items shows as its branching end).
+func TestRestrictKeepsSeparatingCategories(t *testing.T) {
+	r := rand.New(rand.NewPCG(13, 3))
+	for trial := range 300 {
+		full, all := randomDeepTree(r)
+		k := min(len(all), 3+r.IntN(8))
+		var q []string
+		keep := map[string]bool{}
+		for _, i := range UniformSubset(r, len(all), k) {
+			q = append(q, all[i])
+			keep[all[i]] = true
+		}
+		// want: cluster -> name of its lowest category in T. A walk visits
+		// parents before children, so the last write is the lowest.
+		want := map[string]string{}
+		full.Walk(func(c *format.Category, depth int) bool {
+			var in []string
+			for _, id := range c.AllItems() {
+				if keep[id] {
+					in = append(in, id)
+				}
+			}
+			if depth > 0 && len(in) >= 2 && len(in) < k {
+				slices.Sort(in)
+				want[strings.Join(in, " ")] = c.DisplayName()
+			}
+			return true
+		})
+		got := map[string]string{}
+		proj := Restrict(full, q)
+		proj.Walk(func(c *format.Category, depth int) bool {
+			if depth > 0 {
+				got[strings.Join(sortedItems(c), " ")] = c.DisplayName()
+			}
+			return true
+		})
+		if n := proj.CountCategories(); n != len(got) {
+			t.Fatalf("trial %d: T|Q has %d categories over %d sets of items (a chain was kept)", trial, n, len(got))
+		}
+		if !maps.Equal(got, want) {
+			t.Fatalf("trial %d, items %v:\nT|Q  %v\nwant %v\n%s", trial, q, got, want, format.FormatTree(full.Clone()))
+		}
+		if n := proj.Size(); n != k {
+			t.Fatalf("trial %d: T|Q holds %d items, want %d", trial, n, k)
+		}
+	}
+}
+
+// randomDeepTree is a tree of up to six levels whose categories have
+// distinct names (some provisional), over items named by number, and its
+// items sorted.
+func randomDeepTree(r *rand.Rand) (*format.Category, []string) {
+	items, cats := 0, 0
+	var grow func(depth int) *format.Category
+	grow = func(depth int) *format.Category {
+		c := &format.Category{}
+		if depth > 0 {
+			cats++
+			c.Name = "c" + strconv.Itoa(cats)
+			c.Provisional = r.IntN(4) == 0
+		}
+		for range r.IntN(3) {
+			items++
+			c.Items = append(c.Items, "i"+strconv.Itoa(items))
+		}
+		if depth < 6 {
+			for range r.IntN(4 - min(depth, 3)/2) {
+				c.Children = append(c.Children, grow(depth+1))
+			}
+		}
+		if len(c.Items) == 0 && len(c.Children) == 0 {
+			items++
+			c.Items = []string{"i" + strconv.Itoa(items)}
+		}
+		return c
+	}
+	root := grow(0)
+	for root.Size() < 3 {
+		root = grow(0)
+	}
+	all := root.AllItems()
+	slices.Sort(all)
+	return root, all
 }

@@ -37,7 +37,7 @@ func TestAbsorbRefusesAContradictingAnswer(t *testing.T) {
 	}
 	slices.Sort(idx)
 	structure := format.StructureHash(p.Outline.Root)
-	pk, id := review.NewPacket(review.Draft{Reason: format.ReasonUncertain, Items: idx, Score: 0.5}, p.Outline.Root, p.ItemIDs(), structure, "2026-12-02")
+	pk, id := review.NewPacket(review.Draft{Reason: format.ReasonUncertain, Items: idx, Score: 0.5}, p.Outline.Root, p.Items, structure, "2026-12-02")
 	// The answer: the cross-line laser goes with the hammer, apart from the
 	// spirit levels. The group says the levels form a category of their own.
 	pk.Tree = &format.Category{
@@ -59,7 +59,7 @@ func TestAbsorbRefusesAContradictingAnswer(t *testing.T) {
 		t.Fatalf("absorb exited %d, want %d\n%s%s", code, exitFailed, out.String(), errOut.String())
 	}
 	msg := errOut.String()
-	for _, want := range []string{"cannot all hold", "reviews/open/" + id + ".outline:16: shape by Ana", "group by Alba Ortiz"} {
+	for _, want := range []string{"cannot all hold", "reviews/open/" + id + ".outline:17: shape by Ana", "group by Alba Ortiz"} {
 		if !strings.Contains(msg, want) {
 			t.Errorf("the report does not say %q:\n%s", want, msg)
 		}

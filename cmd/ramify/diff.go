@@ -311,7 +311,7 @@ func currentOutline(dir string) (*diffSide, error) {
 // parseTreeText reads a tree from an outline or a review packet (the
 // packet's tree), telling them apart by the first line.
 func parseTreeText(name string, data []byte) (*format.Category, error) {
-	if isPacketText(data) {
+	if format.IsPacketText(data) {
 		p, err := format.ParsePacket(name, data)
 		if err != nil {
 			return nil, err
@@ -323,12 +323,6 @@ func parseTreeText(name string, data []byte) (*format.Category, error) {
 		return nil, err
 	}
 	return o.Root, nil
-}
-
-// isPacketText reports whether data starts like a review packet.
-func isPacketText(data []byte) bool {
-	text := strings.TrimPrefix(string(data[:min(len(data), 64)]), "\ufeff")
-	return strings.HasPrefix(text, format.PacketHeader)
 }
 
 // lineViewText is a file's text for the line view: with CRLF line endings

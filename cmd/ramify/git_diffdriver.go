@@ -114,7 +114,7 @@ func driverTree(s *diffSide) (*format.Category, error) {
 	if s.data == nil {
 		return &format.Category{}, nil
 	}
-	if isPacketText(s.data) {
+	if format.IsPacketText(s.data) {
 		return nil, errPacket
 	}
 	o, err := format.ParseOutline(s.name, s.data)

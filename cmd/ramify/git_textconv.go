@@ -43,7 +43,7 @@ func runGitTextconv(e *env, args []string) error {
 	w := bufio.NewWriter(e.stdout)
 	defer w.Flush()
 	o, err := format.ParseOutline(args[0], data)
-	if isPacketText(data) || err != nil {
+	if format.IsPacketText(data) || err != nil {
 		w.Write(data)
 		return nil
 	}

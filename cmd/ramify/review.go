@@ -24,8 +24,10 @@ func init() {
 		summary: "the review loop: draw packets, answer them, absorb, solve",
 		usage:   "draw|status",
 		help: `Reviewers' time is scarce, so ramify asks them about small packets: the
-taxonomy restricted to a few items, with the category names of the full
-tree. The loop:
+taxonomy restricted to a few items, keeping the categories of the full
+tree that separate them, under their names, each item shown with its
+label as a trailing comment ("claw-hammer  # Claw hammer, 16 oz"; the
+comment is only to read, it never changes an answer). The loop:
 
   1. ramify review draw     writes packets to reviews/open/
   2. edit each packet       set "verdict: ok" when the grouping shown is
@@ -223,7 +225,6 @@ type drawnJSON struct {
 }
 
 func writeDrafts(e *env, p *project.Project, committee *review.Committee, drafts []review.Draft, existing map[string]string, structure, date string, asked int) error {
-	ids := p.ItemIDs()
 	openDir, err := project.Resolve(p.Dir, review.OpenDir)
 	if err != nil {
 		return err
@@ -236,7 +237,7 @@ func writeDrafts(e *env, p *project.Project, committee *review.Committee, drafts
 	}
 	var plan []planned
 	for _, d := range drafts {
-		pk, id := review.NewPacket(d, p.Outline.Root, ids, structure, date)
+		pk, id := review.NewPacket(d, p.Outline.Root, p.Items, structure, date)
 		rel := review.OpenDir + "/" + id + ".outline"
 		info := drawnJSON{File: rel, Reason: pk.Reason, Score: pk.Score, Items: pk.Tree.AllItems(),
 			Entropy: roundSig(committee.Disagreement(d.Items), 4)}
