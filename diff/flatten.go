@@ -8,12 +8,10 @@ import (
 )
 
 // flatTree is a format tree laid out for comparison. Category 0 is the
-// root (the file itself); the others follow in walk order, so every
-// category's subtree is the id range [id, end[id]).
+// root (the file itself); the others follow in walk order.
 type flatTree struct {
 	cats    []*format.Category
 	parent  []int
-	end     []int
 	path    []Path       // display names from the top level down; root: empty
 	items   []placedItem // every item with its category, sorted by id
 	members [][]int32    // common items below each category, ascending
@@ -38,7 +36,6 @@ func flatten(root *format.Category) *flatTree {
 		id := len(t.cats)
 		t.cats = append(t.cats, f.c)
 		t.parent = append(t.parent, f.parent)
-		t.end = append(t.end, 0)
 		p := Path{}
 		if f.parent >= 0 {
 			p = append(slices.Clip(t.path[f.parent]), f.c.DisplayName())
@@ -52,21 +49,8 @@ func flatten(root *format.Category) *flatTree {
 		}
 	}
 	slices.SortFunc(t.items, func(a, b placedItem) int { return strings.Compare(a.id, b.id) })
-	// Subtree ends, children before parents: walk order puts every
-	// descendant after its category, so a reverse pass sees them first.
-	for id := len(t.cats) - 1; id >= 0; id-- {
-		if t.end[id] == 0 {
-			t.end[id] = id + 1
-		}
-		if p := t.parent[id]; p >= 0 && t.end[id] > t.end[p] {
-			t.end[p] = t.end[id]
-		}
-	}
 	return t
 }
-
-// within reports whether category d lies in the subtree of a (d = a too).
-func (t *flatTree) within(d, a int) bool { return a <= d && d < t.end[a] }
 
 // chain lists the categories from the top level down to c, root excluded.
 func (t *flatTree) chain(c int, buf []int) []int {

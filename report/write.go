@@ -226,7 +226,7 @@ func reviewJSON(r Review) any {
 		Passed    bool    `json:"gate_passed"`
 	}{Open: []open{}, MinAudits: r.Gate.MinAudits, MaxReject: r.Gate.MaxRejectRate, Passed: r.GatePassed}
 	for _, o := range r.Open {
-		out.Open = append(out.Open, open{o.File, o.Reason, o.Drawn, o.Verdict, o.Current, o.Items})
+		out.Open = append(out.Open, open(o))
 	}
 	if a := r.Audits; a != nil {
 		out.Audits = &audits{a.Audits, a.Rejected, round4(a.Rate), []float64{round4(a.Lo), round4(a.Hi)}, a.Older}

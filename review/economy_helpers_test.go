@@ -73,10 +73,6 @@ type testGraph struct {
 	g *graph.CSR
 }
 
-// plantedGraph is a small clearly structured instance: solve/planted with
-// 120 items, three top categories of three.
-func plantedGraph(t interface{ Helper() }) testGraph { return plantedGraphSeed(t, 5) }
-
 func plantedGraphSeed(t interface{ Helper() }, seed uint64) testGraph {
 	t.Helper()
 	in := planted.Generate(seed, 120, 3, 2)

@@ -458,8 +458,7 @@ func (f *folder) foldDeep() {
 	lay := newLayout(f.t)
 	depth := make([]int, f.t.N)
 	// Categories above each leaf in the current multiway tree.
-	var walk func()
-	walk = func() {
+	walk := func() {
 		type frame struct {
 			v int32
 			d int

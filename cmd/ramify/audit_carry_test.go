@@ -50,12 +50,10 @@ func TestAuditsSurviveLocalChange(t *testing.T) {
 	}
 	ramify(t, "solve", "--dir", dir)
 	p = loadProject(t, dir)
-	var done []*format.Packet
 	same, stale := 0, map[string]bool{}
 	doneFiles, _ := filepath.Glob(filepath.Join(dir, "reviews", "done", "*.outline"))
 	for _, f := range doneFiles {
 		pk := readPacketFile(t, f)
-		done = append(done, pk)
 		items := pk.Tree.AllItems()
 		slices.Sort(items)
 		if review.SameShape(review.Restrict(p.Outline.Root, items), pk.Tree) {

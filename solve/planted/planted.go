@@ -226,8 +226,7 @@ func (in *Instance) bridges(edges []graph.Edge, weight func(i, j int) float64) [
 	for i := range parent {
 		parent[i] = int32(i)
 	}
-	var find func(x int32) int32
-	find = func(x int32) int32 {
+	find := func(x int32) int32 {
 		for parent[x] != x {
 			parent[x] = parent[parent[x]]
 			x = parent[x]
