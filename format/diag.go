@@ -18,15 +18,18 @@ type Pos struct {
 	Col  int
 }
 
+// String is "file:line:col", or "file:line" when the column is not
+// known, or the file alone when the line is not known (a problem with the
+// whole file, such as its size): a made-up 1:1 would send the reader to a
+// line that is not at fault.
 func (p Pos) String() string {
-	line, col := p.Line, p.Col
-	if line < 1 {
-		line = 1
+	switch {
+	case p.Line < 1:
+		return p.File
+	case p.Col < 1:
+		return fmt.Sprintf("%s:%d", p.File, p.Line)
 	}
-	if col < 1 {
-		col = 1
-	}
-	return fmt.Sprintf("%s:%d:%d", p.File, line, col)
+	return fmt.Sprintf("%s:%d:%d", p.File, p.Line, p.Col)
 }
 
 // Problem reports are bounded, so that a hostile file of a million bad

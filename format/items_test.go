@@ -202,5 +202,5 @@ func TestParseItemsLimits(t *testing.T) {
 	checkErrors(t, err, []string{"i.tsv:2:3: item has 1001 tags; the limit is 1,000"})
 
 	_, err = ParseItems("items.json", []byte("{}"))
-	checkErrors(t, err, []string{"items.json:1:1: items files must end in .toml, .tsv or .csv"})
+	checkErrors(t, err, []string{"items.json: items files must end in .toml, .tsv or .csv"})
 }
