@@ -13,6 +13,7 @@ require (
 	github.com/sergi/go-diff v1.4.0
 	github.com/spf13/pflag v1.1.0
 	golang.org/x/term v0.48.0
+	golang.org/x/text v0.23.0
 	gonum.org/v1/gonum v0.17.0
 )
 

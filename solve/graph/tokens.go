@@ -3,6 +3,8 @@ package graph
 import (
 	"strings"
 	"unicode"
+
+	"golang.org/x/text/unicode/norm"
 )
 
 // Tokens splits text into lower-case words for TF-IDF and for naming
@@ -11,7 +13,13 @@ import (
 // split a word); everything else separates words. Words of one character
 // and the stopwords below are dropped. Plurals are kept as written; see
 // PluralStem.
+//
+// The text is put in Unicode Normalization Form C first (UAX #15), so
+// that one word typed with a precomposed letter ("café", U+00E9) and with
+// a letter and a combining mark ("cafe" + U+0301) is one term, not two.
+// Text already in NFC, nearly all text, passes through unchanged.
 func Tokens(text string) []string {
+	text = norm.NFC.String(text)
 	var out []string
 	var b strings.Builder
 	runes := 0
