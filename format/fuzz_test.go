@@ -211,14 +211,7 @@ func FuzzParseNPYVectors(f *testing.F) {
 			}
 			return
 		}
-		if len(v.Values) != len(v.IDs)*len(v.Features) || len(v.RowPos) != len(v.IDs) {
-			t.Fatalf("%d values for %d rows of %d features", len(v.Values), len(v.IDs), len(v.Features))
-		}
-		for _, x := range v.Values {
-			if math.IsNaN(x) || math.IsInf(x, 0) {
-				t.Fatalf("non-finite value %v accepted", x)
-			}
-		}
+		checkVectors(t, v)
 	})
 }
 
@@ -230,15 +223,23 @@ func FuzzParseVectors(f *testing.F) {
 		if err != nil {
 			return
 		}
-		if len(v.Values) != len(v.IDs)*len(v.Features) || len(v.RowPos) != len(v.IDs) {
-			t.Fatalf("%d values for %d rows of %d features", len(v.Values), len(v.IDs), len(v.Features))
-		}
-		for _, x := range v.Values {
-			if math.IsNaN(x) || math.IsInf(x, 0) {
-				t.Fatalf("non-finite value %v accepted", x)
-			}
-		}
+		checkVectors(t, v)
 	})
+}
+
+// checkVectors checks what every vectors reader promises: one value array
+// of rows × features finite values, a position per row.
+func checkVectors(t *testing.T, v *Vectors) {
+	t.Helper()
+	n := len(v.Values) + len(v.Values32)
+	if (v.Values == nil) == (v.Values32 == nil) || n != len(v.IDs)*len(v.Features) || len(v.RowPos) != len(v.IDs) {
+		t.Fatalf("%d float64 and %d float32 values for %d rows of %d features", len(v.Values), len(v.Values32), len(v.IDs), len(v.Features))
+	}
+	for p := range n {
+		if x := v.value(p); math.IsNaN(x) || math.IsInf(x, 0) {
+			t.Fatalf("non-finite value %v accepted", x)
+		}
+	}
 }
 
 func FuzzParseLinks(f *testing.F) {
@@ -281,5 +282,19 @@ func FuzzParseSettings(f *testing.F) {
 			!(s.Release.MaxRejectRate > 0 && s.Release.MaxRejectRate < 1) || len(s.Similarity.Sources) == 0 {
 			t.Fatalf("out-of-range settings accepted: %+v", s)
 		}
+	})
+}
+
+func FuzzParseParquetVectors(f *testing.F) {
+	f.Add(parquetBytes(f, []listRow32{{"a", []float32{1, 2}}, {"b", []float32{3, 4}}}), "")
+	f.Add(parquetBytes(f, []listRow64{{"a", []float64{1}}}), "embedding")
+	f.Add(parquetBytes(f, []repeatedRow32{{"a", []float32{1, 2}, "x"}}), "")
+	f.Fuzz(func(t *testing.T, data []byte, column string) {
+		v, err := ParseParquetVectors("e.parquet", data, column)
+		checkDiags(t, err, "e.parquet")
+		if err != nil {
+			return
+		}
+		checkVectors(t, v)
 	})
 }

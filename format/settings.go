@@ -27,9 +27,12 @@ type Settings struct {
 // ItemsSettings says where the items are.
 type ItemsSettings struct {
 	Files   []string // .toml, .tsv or .csv, relative to the repository
-	Vectors string   // optional vectors.tsv, or a .npy matrix
+	Vectors string   // optional vectors.tsv, a .npy matrix or a .parquet table
 	// VectorIDs names the rows of a .npy vectors file: one item id a line.
 	VectorIDs string
+	// VectorColumn names the list column of a .parquet vectors file; ""
+	// takes its only list of floats.
+	VectorColumn string
 }
 
 // SimilaritySettings says how the similarity graph is built.

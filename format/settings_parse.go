@@ -20,7 +20,7 @@ var settingsLimits = tomlLimits{
 var (
 	settingsSections = []string{"items", "similarity", "taxonomy", "review", "release"}
 	settingsKeys     = map[string][]string{
-		"items":      {"files", "vectors", "vector_ids"},
+		"items":      {"files", "vectors", "vector_ids", "vector_column"},
 		"similarity": {"neighbors", "source", "text"},
 		"taxonomy":   {"file", "min_size", "max_children", "max_depth", "stability"},
 		"review":     {"size", "audit_share", "committee"},
@@ -87,6 +87,7 @@ func (r *settingsReader) section(sec string, t map[string]any) {
 		}
 		r.str(t, "items.vectors", &s.Items.Vectors)
 		r.str(t, "items.vector_ids", &s.Items.VectorIDs)
+		r.str(t, "items.vector_column", &s.Items.VectorColumn)
 	case "similarity":
 		r.int(t, "similarity.neighbors", &s.Similarity.Neighbors, 0, 200)
 		if v, ok := t["source"]; ok {
@@ -259,9 +260,13 @@ func (r *settingsReader) crossChecks() {
 		seenFile[f] = true
 	}
 	if s.Items.Vectors != "" {
-		r.path("items.vectors", s.Items.Vectors, ".tsv", ".npy")
+		r.path("items.vectors", s.Items.Vectors, ".tsv", ".npy", ".parquet")
 	}
 	npy := strings.EqualFold(path.Ext(s.Items.Vectors), ".npy")
+	parquet := strings.EqualFold(path.Ext(s.Items.Vectors), ".parquet")
+	if s.Items.VectorColumn != "" && !parquet {
+		r.ds.Add(s.PosOf("items.vector_column"), "items.vector_column is only for a .parquet vectors file; it names the column that holds the vectors")
+	}
 	switch {
 	case npy && s.Items.VectorIDs == "":
 		r.ds.Add(s.PosOf("items.vectors"), "a .npy vectors file needs items.vector_ids, a text file with the id of each row, one a line")

@@ -22,6 +22,11 @@ files = ["items.toml"]
 # one id a line, in row order:
 # vectors = "embeddings.npy"
 # vector_ids = "embeddings-ids.txt"
+# Or a Parquet table with a string column "id" and a column holding each
+# item's vector as a list of floats (vector_column names it when the table
+# has more than one such column):
+# vectors = "embeddings.parquet"
+# vector_column = "embedding"
 
 [similarity]
 # How many nearest neighbours each item keeps in the similarity graph.

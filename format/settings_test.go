@@ -162,7 +162,7 @@ func TestParseSettingsErrors(t *testing.T) {
 				`ramify.toml:2:103: items.files: path ".git/x.toml" points into .git`,
 				`ramify.toml:2:118: items.files: path "c:/x.toml" looks like a drive letter; write it relative to the repository`,
 				`ramify.toml:2:131: items.files: path is empty`,
-				`ramify.toml:3:1: items.vectors: "v.csv" must end in .tsv or .npy`,
+				`ramify.toml:3:1: items.vectors: "v.csv" must end in .tsv, .npy or .parquet`,
 				`ramify.toml:5:1: taxonomy.file: path "sub/../../tax.outline" leaves the repository ("..")`,
 			}},
 		{"sources",

@@ -3,6 +3,7 @@ package format
 import (
 	"bytes"
 	"errors"
+	"fmt"
 	"math"
 	"strconv"
 	"strings"
@@ -16,16 +17,53 @@ type Vectors struct {
 	Features []string
 	IDs      []string
 	// Values is row-major: row i (item IDs[i]) is
-	// Values[i*len(Features) : (i+1)*len(Features)].
-	Values []float64
+	// Values[i*len(Features) : (i+1)*len(Features)]. It holds the rows of
+	// a vectors.tsv and of float64 matrices; float32 matrices (.npy or
+	// Parquet) are kept in Values32 instead, in the same layout, at half
+	// the memory. Exactly one of the two is set.
+	Values   []float64
+	Values32 []float32
 	// RowPos is where each row begins.
 	RowPos []Pos
 }
 
-// Row returns the features of the i-th item.
+// Row returns the features of the i-th item (a copy, in float64, when the
+// rows are float32).
 func (v *Vectors) Row(i int) []float64 {
 	n := len(v.Features)
+	if v.Values32 != nil {
+		out := make([]float64, n)
+		for j, x := range v.Values32[i*n : (i+1)*n] {
+			out[j] = float64(x)
+		}
+		return out
+	}
 	return v.Values[i*n : (i+1)*n]
+}
+
+// MaxVectorBytes bounds the memory of the values of one vectors file:
+// 4 GiB, a million 1024-dimensional float32 embeddings (or half as many
+// float64 ones). A file is checked against it before its values are read.
+const MaxVectorBytes = 4 << 30
+
+// MaxVectorFileBytes bounds the size of a binary vectors file (.npy or
+// Parquet), which is read as it is decoded rather than whole.
+const MaxVectorFileBytes = 8 << 30
+
+// checkVectorBudget says what is wrong when rows × cols values of size
+// bytes each would pass the limits, or "".
+func checkVectorBudget(rows, cols, size int64) string {
+	switch {
+	case rows < 1 || cols < 1:
+		return fmt.Sprintf("the matrix is %d by %d; it needs at least one row and one feature", rows, cols)
+	case cols > MaxFeatures:
+		return fmt.Sprintf("%d features; at most %d are allowed", cols, MaxFeatures)
+	case rows > MaxItems:
+		return fmt.Sprintf("%d rows; at most %s are allowed", rows, grouped(MaxItems))
+	case rows*cols*size > MaxVectorBytes:
+		return fmt.Sprintf("%d by %d values take %d bytes; the limit is %d", rows, cols, rows*cols*size, int64(MaxVectorBytes))
+	}
+	return ""
 }
 
 // ParseVectors reads a vectors.tsv: a header "id" followed by feature

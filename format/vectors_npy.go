@@ -1,7 +1,9 @@
 package format
 
 import (
+	"bufio"
 	"bytes"
+	"io"
 	"math"
 	"strconv"
 	"strings"
@@ -9,16 +11,28 @@ import (
 	"github.com/sbinet/npyio"
 )
 
-// ParseNPYVectors reads vectors from a NumPy .npy file (a two-dimensional
+// ParseNPYVectors reads vectors from a NumPy .npy file held in memory; see
+// ReadNPYVectors.
+func ParseNPYVectors(file string, data []byte, idsFile string, ids []byte) (*Vectors, error) {
+	return ReadNPYVectors(file, bytes.NewReader(data), int64(len(data)), idsFile, ids)
+}
+
+// ReadNPYVectors reads vectors from a NumPy .npy file (a two-dimensional
 // float32 or float64 matrix in C order, one row per item, as numpy.save
-// writes an embedding matrix) and the ids of its rows from a text file with
-// one item id per line, in row order. Features are named f1, f2, …. The
-// header's shape is checked against the data's length before anything is
-// allocated, so a file cannot ask for more memory than its own size.
-func ParseNPYVectors(file string, data []byte, idsFile string, ids []byte) (v *Vectors, err error) {
+// writes an embedding matrix) of size bytes, and the ids of its rows from
+// a text file with one item id per line, in row order. Features are named
+// f1, f2, …; float32 values stay float32 (Values32). The header's shape is
+// checked against the file's size and the budgets before anything is
+// allocated, so a file cannot ask for more memory than its own size, and
+// the matrix is decoded as it is read, never held twice.
+func ReadNPYVectors(file string, r io.ReaderAt, size int64, idsFile string, ids []byte) (v *Vectors, err error) {
 	var ds Diags
 	at := Pos{File: file, Line: 1, Col: 1}
-	if msg := checkNPYPrefix(data); msg != "" {
+	prefix := make([]byte, min(size, maxNPYHeader+12))
+	if _, err := r.ReadAt(prefix, 0); err != nil && err != io.EOF {
+		return nil, err
+	}
+	if msg := checkNPYPrefix(prefix); msg != "" {
 		ds.Add(at, "not a NumPy .npy file: %s", msg)
 		return nil, ds
 	}
@@ -31,63 +45,59 @@ func ParseNPYVectors(file string, data []byte, idsFile string, ids []byte) (v *V
 			v, err = nil, pds
 		}
 	}()
-	r, err := npyio.NewReader(bytes.NewReader(data))
+	nr, err := npyio.NewReader(bufio.NewReaderSize(io.NewSectionReader(r, 0, size), 1<<20))
 	if err != nil {
 		ds.Add(at, "not a NumPy .npy file: %s", clip(err.Error()))
 		return nil, ds
 	}
-	h := r.Header.Descr
+	h := nr.Header.Descr
 	if len(h.Shape) != 2 {
 		ds.Add(at, "the array has %d dimensions; vectors need a matrix of rows by features", len(h.Shape))
 		return nil, ds
 	}
 	rows, cols := h.Shape[0], h.Shape[1]
-	size := 0
+	width := 0
 	switch h.Type {
 	case "<f4", "|f4", ">f4":
-		size = 4
+		width = 4
 	case "<f8", "|f8", ">f8":
-		size = 8
+		width = 8
 	default:
 		ds.Add(at, "the array holds %q; vectors must be float32 or float64", clip(h.Type))
 		return nil, ds
 	}
+	if msg := checkVectorBudget(int64(rows), int64(cols), int64(width)); msg != "" {
+		ds.Add(at, "%s", msg)
+		return nil, ds
+	}
 	switch {
-	case rows < 1 || cols < 1:
-		ds.Add(at, "the matrix is %d by %d; it needs at least one row and one feature", rows, cols)
-	case cols > MaxFeatures:
-		ds.Add(at, "%d features; at most %d are allowed", cols, MaxFeatures)
-	case rows > MaxItems:
-		ds.Add(at, "%d rows; at most %s are allowed", rows, grouped(MaxItems))
-	case rows*cols*size > len(data):
-		ds.Add(at, "the header says %d by %d values but the file is only %d bytes long", rows, cols, len(data))
+	case int64(rows)*int64(cols)*int64(width) > size:
+		ds.Add(at, "the header says %d by %d values but the file is only %d bytes long", rows, cols, size)
 	case h.Fortran:
 		ds.Add(at, "the matrix is in column order (Fortran); save it in row order (numpy.ascontiguousarray)")
 	}
 	if len(ds) > 0 {
 		return nil, ds
 	}
-	values := make([]float64, rows*cols)
-	if size == 4 {
-		buf := make([]float32, 0, rows*cols)
-		err = r.Read(&buf)
-		for i, x := range buf {
-			values[i] = float64(x)
-		}
+	v = &Vectors{Features: make([]string, cols)}
+	bad := -1
+	if width == 4 {
+		v.Values32 = make([]float32, 0, rows*cols)
+		err = nr.Read(&v.Values32)
+		bad = firstNonFinite(v.Values32)
 	} else {
-		err = r.Read(&values)
+		v.Values = make([]float64, 0, rows*cols)
+		err = nr.Read(&v.Values)
+		bad = firstNonFinite(v.Values)
 	}
 	if err != nil {
 		ds.Add(at, "cannot read the matrix: %s", clip(err.Error()))
 		return nil, ds
 	}
-	for i, x := range values {
-		if math.IsNaN(x) || math.IsInf(x, 0) {
-			ds.Add(at, "row %d, feature %d is %v; every value must be a finite number", i/cols+1, i%cols+1, x)
-			return nil, ds
-		}
+	if bad >= 0 {
+		ds.Add(at, "row %d, feature %d is %v; every value must be a finite number", bad/cols+1, bad%cols+1, v.value(bad))
+		return nil, ds
 	}
-	v = &Vectors{Values: values, Features: make([]string, cols)}
 	for j := range cols {
 		v.Features[j] = "f" + strconv.Itoa(j+1)
 	}
@@ -96,6 +106,24 @@ func ParseNPYVectors(file string, data []byte, idsFile string, ids []byte) (v *V
 		return nil, ds
 	}
 	return v, nil
+}
+
+// firstNonFinite is the index of the first NaN or infinite value, or -1.
+func firstNonFinite[T float32 | float64](xs []T) int {
+	for i, x := range xs {
+		if f := float64(x); math.IsNaN(f) || math.IsInf(f, 0) {
+			return i
+		}
+	}
+	return -1
+}
+
+// value is the p-th stored value, whichever precision holds it.
+func (v *Vectors) value(p int) float64 {
+	if v.Values32 != nil {
+		return float64(v.Values32[p])
+	}
+	return v.Values[p]
 }
 
 // maxNPYHeader bounds the header of a .npy file; numpy writes a few

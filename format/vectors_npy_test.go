@@ -36,10 +36,16 @@ func TestParseNPYVectors(t *testing.T) {
 			t.Errorf("%s: ids %q features %q", c.name, v.IDs, v.Features)
 		}
 		want := []float64{1, 2.5, -3, 0, 4, 1e-3}
-		for i, x := range v.Values {
-			if d := x - want[i]; d > 1e-7 || d < -1e-7 {
-				t.Errorf("%s: value %d = %v, want %v", c.name, i, x, want[i])
+		for i := range 3 {
+			for j, x := range v.Row(i) {
+				if d := x - want[i*2+j]; d > 1e-7 || d < -1e-7 {
+					t.Errorf("%s: value %d,%d = %v, want %v", c.name, i, j, x, want[i*2+j])
+				}
 			}
+		}
+		// float32 matrices stay float32, at half the memory.
+		if (c.name == "float32") != (v.Values32 != nil) || (v.Values32 != nil) == (v.Values != nil) {
+			t.Errorf("%s: %d float64 and %d float32 values", c.name, len(v.Values), len(v.Values32))
 		}
 		if v.RowPos[2].Line != 5 {
 			t.Errorf("%s: row 3 is named on line %d, want 5", c.name, v.RowPos[2].Line)

@@ -51,21 +51,26 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 			return nil, fmt.Errorf("no vectors file is configured (items.vectors)")
 		}
 		dim := len(p.Vectors.Features)
-		values := make([]float64, n*dim)
-		row := make(map[string]int, len(p.Vectors.IDs))
+		row := make(map[string]int32, len(p.Vectors.IDs))
 		for i, id := range p.Vectors.IDs {
-			row[id] = i
+			row[id] = int32(i)
 		}
+		// The matrix stays in file order and precision; the builder reads
+		// item i from its row, so a million embeddings are never copied.
+		rows := make([]int32, n)
 		for i, it := range p.Items {
 			r, ok := row[it.ID]
 			if !ok {
 				return nil, fmt.Errorf("item %q has no vector", it.ID)
 			}
-			copy(values[i*dim:(i+1)*dim], p.Vectors.Values[r*dim:(r+1)*dim])
+			rows[i] = r
 		}
 		// Cosine on z-scored features is the documented vector similarity
 		// (METHODS 1.1); the Gaussian kernel stays available in solve/graph.
-		return b.Vectors(values, n, dim, graph.Cosine)
+		if p.Vectors.Values32 != nil {
+			return graph.VectorRows(b, p.Vectors.Values32, rows, n, dim, graph.Cosine)
+		}
+		return graph.VectorRows(b, p.Vectors.Values, rows, n, dim, graph.Cosine)
 	case format.SourceLinks:
 		t := p.Links[src.File]
 		if t == nil {

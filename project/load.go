@@ -2,8 +2,11 @@ package project
 
 import (
 	"errors"
+	"fmt"
+	"io"
 	"io/fs"
 	"os"
+	"path"
 	"path/filepath"
 	"sort"
 	"strconv"
@@ -117,6 +120,33 @@ func (p *Project) read(rel string, limit int64, keyPos format.Pos) ([]byte, form
 	return data, nil
 }
 
+// readBinary opens a repository file of at most limit bytes and hands it
+// to decode as a random-access reader, for formats read in place.
+func (p *Project) readBinary(rel string, limit int64, keyPos format.Pos, decode func(io.ReaderAt, int64) error) error {
+	full, err := Resolve(p.Dir, rel)
+	if err != nil {
+		return format.Diags{{Pos: keyPos, Msg: err.Error()}}
+	}
+	f, err := os.Open(full)
+	if errors.Is(err, fs.ErrNotExist) {
+		return format.Diags{{Pos: keyPos, Msg: "file " + rel + " does not exist"}}
+	}
+	if err != nil {
+		return err
+	}
+	defer f.Close()
+	info, err := f.Stat()
+	switch {
+	case err != nil:
+		return err
+	case !info.Mode().IsRegular():
+		return format.Diags{{Pos: format.Pos{File: rel}, Msg: "not a regular file"}}
+	case info.Size() > limit:
+		return format.Diags{{Pos: format.Pos{File: rel}, Msg: fmt.Sprintf("file is %d bytes; the limit for this kind of file is %d", info.Size(), limit)}}
+	}
+	return decode(f, info.Size())
+}
+
 func (p *Project) keyPos(key string) format.Pos {
 	if pos, ok := p.Settings.KeyPos[key]; ok {
 		return pos
@@ -172,24 +202,41 @@ func (p *Project) loadVectors() format.Diags {
 	if rel == "" {
 		return nil
 	}
-	data, ds := p.read(rel, format.MaxDataFileBytes, p.keyPos("items.vectors"))
-	if len(ds) > 0 {
-		return ds
-	}
 	var v *format.Vectors
 	var err error
-	if ids := p.Settings.Items.VectorIDs; ids != "" {
-		idData, ids2 := p.read(ids, format.MaxDataFileBytes, p.keyPos("items.vector_ids"))
-		if len(ids2) > 0 {
-			return ids2
+	switch ext := strings.ToLower(path.Ext(rel)); ext {
+	case ".npy", ".parquet":
+		ids := p.Settings.Items.VectorIDs
+		var idData []byte
+		if ext == ".npy" {
+			var ds format.Diags
+			if idData, ds = p.read(ids, format.MaxDataFileBytes, p.keyPos("items.vector_ids")); len(ds) > 0 {
+				return ds
+			}
 		}
-		v, err = format.ParseNPYVectors(rel, data, ids, idData)
-	} else {
+		// Binary matrices are decoded as they are read, never held whole
+		// besides their values: a million float32 embeddings of 384
+		// dimensions are 1.5 GB on disk and again in memory.
+		err = p.readBinary(rel, format.MaxVectorFileBytes, p.keyPos("items.vectors"), func(r io.ReaderAt, size int64) error {
+			var rerr error
+			if ext == ".npy" {
+				v, rerr = format.ReadNPYVectors(rel, r, size, ids, idData)
+			} else {
+				v, rerr = format.ReadParquetVectors(rel, r, size, p.Settings.Items.VectorColumn)
+			}
+			return rerr
+		})
+	default:
+		data, ds := p.read(rel, format.MaxDataFileBytes, p.keyPos("items.vectors"))
+		if len(ds) > 0 {
+			return ds
+		}
 		v, err = format.ParseVectors(rel, data)
 	}
 	if err != nil {
 		return format.AsDiags(err, rel)
 	}
+	var ds format.Diags
 	p.Vectors = v
 	seen := make(map[string]bool, len(v.IDs))
 	for i, id := range v.IDs {

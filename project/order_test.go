@@ -29,6 +29,13 @@ func solveItems(t *testing.T, files map[string]string) []byte {
 	if err := os.WriteFile(filepath.Join(dir, SettingsFile), []byte(settings), 0o644); err != nil {
 		t.Fatal(err)
 	}
+	return regenerateDir(t, dir)
+}
+
+// regenerateDir loads the repository in dir and returns the outline a
+// solve from scratch writes.
+func regenerateDir(t *testing.T, dir string) []byte {
+	t.Helper()
 	p, ds := Load(dir)
 	if len(ds) > 0 {
 		t.Fatal(ds)

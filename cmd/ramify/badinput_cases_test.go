@@ -1,10 +1,13 @@
 package main
 
 import (
+	"bytes"
 	"os"
 	"path/filepath"
 	"strings"
 	"testing"
+
+	"github.com/parquet-go/parquet-go"
 )
 
 const outlineHead = "# ramify outline 1\n"
@@ -21,6 +24,7 @@ func badInputCases(t *testing.T) []badInput {
 		deep.WriteString("c/\n")
 	}
 	withVectors := strings.Replace(settings, "[items]\nfiles = [\"items.toml\"]", "[items]\nfiles = [\"items.toml\"]\nvectors = \"vectors.tsv\"", 1)
+	withParquet := strings.Replace(settings, "[items]\nfiles = [\"items.toml\"]", "[items]\nfiles = [\"items.toml\"]\nvectors = \"vectors.parquet\"", 1)
 	withLinks := settings + "\n[[similarity.source]]\nkind = \"links\"\nfile = \"links.tsv\"\nweight = 0.5\n"
 	tsvSettings := strings.Replace(settings, `files = ["items.toml"]`, `files = ["items.tsv"]`, 1)
 	csvSettings := strings.Replace(settings, `files = ["items.toml"]`, `files = ["items.csv"]`, 1)
@@ -54,6 +58,8 @@ func badInputCases(t *testing.T) []badInput {
 		{"vectors Inf", map[string]string{"ramify.toml": withVectors, "vectors.tsv": "id\tx\nclaw-hammer-16oz\t+Inf\n"}, "vectors.tsv:2:18: \"+Inf\" is not a finite number (feature \"x\")"},
 		{"vectors ragged", map[string]string{"ramify.toml": withVectors, "vectors.tsv": "id\tx\ty\nclaw-hammer-16oz\t1\n"}, "vectors.tsv:2:1: row has 2 cells but the header has 3"},
 		{"vectors unknown id", map[string]string{"ramify.toml": withVectors, "vectors.tsv": "id\tx\nno-such-tool\t1\n"}, "vectors.tsv:2:1: vector row for unknown item \"no-such-tool\""},
+		{"parquet not parquet", map[string]string{"ramify.toml": withParquet, "vectors.parquet": "id\tx\nclaw-hammer-16oz\t1\n"}, "vectors.parquet:1:1: not a Parquet file: it does not start and end with the Parquet magic bytes"},
+		{"parquet ragged", map[string]string{"ramify.toml": withParquet, "vectors.parquet": raggedParquet(t)}, "vectors.parquet:1:1: row 2 (item \"drill-driver-18v\"): the vector has 1 values but the first row's has 2"},
 		// Links.
 		{"links negative weight", map[string]string{"ramify.toml": withLinks, "links.tsv": "a\tb\tweight\nclaw-hammer-16oz\tdrill-driver-18v\t-1\n"}, "links.tsv:2:35: weight \"-1\" must be greater than 0"},
 		{"links unknown item", map[string]string{"ramify.toml": withLinks, "links.tsv": "a\tb\tweight\nclaw-hammer-16oz\tno-such-tool\t1\n"}, "links.tsv:2:1: link names unknown item \"no-such-tool\""},
@@ -138,4 +144,18 @@ func clipText(s string) string {
 		return s[:600] + "..."
 	}
 	return s
+}
+
+// raggedParquet is a Parquet table (written with parquet-go v0.32.0,
+// parquet.Write) whose second vector is shorter than the first.
+func raggedParquet(t *testing.T) string {
+	type row struct {
+		ID        string    `parquet:"id"`
+		Embedding []float32 `parquet:"embedding,list"`
+	}
+	var b bytes.Buffer
+	if err := parquet.Write(&b, []row{{"claw-hammer-16oz", []float32{1, 2}}, {"drill-driver-18v", []float32{3}}}); err != nil {
+		t.Fatal(err)
+	}
+	return b.String()
 }

@@ -88,9 +88,9 @@ func BenchmarkNNDescentVectors(b *testing.B) {
 				g, _ = bd.Vectors(vals, n, 16, Cosine)
 			}
 			b.StopTimer()
-			x, d := standardize(vals, n, 16)
+			x, d := standardize(vals, nil, n, 16)
 			normalizeRows(x, n, d)
-			r := &denseRows{n: n, d: d, x: x}
+			r := &denseRows[float64]{n: n, d: d, x: x}
 			approx := approxDense(r, benchK, DefaultSeed)
 			sample := sampleItems(n, 500, 55)
 			exact := exactDense(r, benchK, sample)

@@ -48,7 +48,7 @@ func cosineWeight(_ int, _ int32, score float64) float64 {
 }
 
 // denseLists searches k neighbours per item, exactly or by NN-Descent.
-func (b Builder) denseLists(r *denseRows, k int) *neighborLists {
+func denseLists[T Float](b Builder, r *denseRows[T], k int) *neighborLists {
 	if b.approximate(r.n, k) {
 		return approxDense(r, k, b.Seed)
 	}
@@ -70,6 +70,6 @@ func approxSparse(rows *sparseRows, k int, seed uint64) *neighborLists {
 }
 
 // approxDense is NN-Descent on dense points from random first guesses.
-func approxDense(r *denseRows, k int, seed uint64) *neighborLists {
+func approxDense[T Float](r *denseRows[T], k int, seed uint64) *neighborLists {
 	return nnDescent(r, randomInit, nnDescentParams{k: k, seed: seed, positiveOnly: !r.gaussian})
 }

@@ -8,12 +8,12 @@ import (
 // Recall targets: Dong, Charikar & Li (WWW 2011, METHODS 1.3) report
 // typically above 90% recall; we require at least that on seeded data.
 
-func denseTestRows(n, dim int, gaussian bool, seed uint64) *denseRows {
-	x, d := standardize(clusteredVectors(n, dim, 20, seed), n, dim)
+func denseTestRows(n, dim int, gaussian bool, seed uint64) *denseRows[float64] {
+	x, d := standardize(clusteredVectors(n, dim, 20, seed), nil, n, dim)
 	if !gaussian {
 		normalizeRows(x, n, d)
 	}
-	return &denseRows{n: n, d: d, x: x, gaussian: gaussian}
+	return &denseRows[float64]{n: n, d: d, x: x, gaussian: gaussian}
 }
 
 func TestNNDescentRecallVectors(t *testing.T) {

@@ -36,12 +36,34 @@ func Vectors(values []float64, n, dim, k int, kind VectorKind) (*CSR, error) {
 
 // Vectors is the package function Vectors with b's settings.
 func (b Builder) Vectors(values []float64, n, dim int, kind VectorKind) (*CSR, error) {
-	if n < 0 || dim < 0 || len(values) != n*dim {
+	return VectorRows(b, values, nil, n, dim, kind)
+}
+
+// VectorRows is Builder.Vectors over a float32 or float64 matrix whose
+// item i is row rows[i] (rows nil: row i), so that a matrix stored in
+// another order, such as a file's, need not be copied into item order
+// first. A float32 matrix is standardised into float32 z-scores: half the
+// memory of float64, which is what lets a million embeddings of a few
+// hundred dimensions fit; its similarities are still summed in float64. A
+// float64 matrix gives exactly the graph it always did.
+func VectorRows[T Float](b Builder, values []T, rows []int32, n, dim int, kind VectorKind) (*CSR, error) {
+	if n < 0 || dim < 0 || rows == nil && len(values) != n*dim {
 		return nil, fmt.Errorf("vectors: %d values do not form %d rows of %d", len(values), n, dim)
 	}
+	if rows != nil {
+		stored := len(values) / max(dim, 1)
+		if len(rows) != n || stored*dim != len(values) {
+			return nil, fmt.Errorf("vectors: %d values and %d row numbers do not give %d items of %d features", len(values), len(rows), n, dim)
+		}
+		for _, r := range rows {
+			if r < 0 || int(r) >= stored {
+				return nil, fmt.Errorf("vectors: row %d is outside the %d rows of the matrix", r, stored)
+			}
+		}
+	}
 	for p, v := range values {
-		if math.IsNaN(v) || math.IsInf(v, 0) {
-			return nil, fmt.Errorf("vectors: item %d feature %d is %v", p/dim, p%dim, v)
+		if x := float64(v); math.IsNaN(x) || math.IsInf(x, 0) {
+			return nil, fmt.Errorf("vectors: row %d feature %d is %v", p/dim, p%dim, x)
 		}
 	}
 	if kind != Cosine && kind != Gaussian {
@@ -50,18 +72,18 @@ func (b Builder) Vectors(values []float64, n, dim int, kind VectorKind) (*CSR, e
 	if err := b.checkK(n); err != nil {
 		return nil, err
 	}
-	x, d := standardize(values, n, dim)
-	r := &denseRows{n: n, d: d, x: x, gaussian: kind == Gaussian}
+	x, d := standardize(values, rows, n, dim)
+	r := &denseRows[T]{n: n, d: d, x: x, gaussian: kind == Gaussian}
 	if kind == Cosine {
 		normalizeRows(x, n, d)
-		return symmetrize(b.denseLists(r, effectiveK(b.K, n)), cosineWeight), nil
+		return symmetrize(denseLists(b, r, effectiveK(b.K, n)), cosineWeight), nil
 	}
-	return b.gaussianGraph(r), nil
+	return gaussianGraph(b, r), nil
 }
 
 // gaussianGraph searches at least LocalScaleRank neighbours to read each
 // item's bandwidth, then weights the first K of them.
-func (b Builder) gaussianGraph(r *denseRows) *CSR {
+func gaussianGraph[T Float](b Builder, r *denseRows[T]) *CSR {
 	k := effectiveK(b.K, r.n)
 	rank := min(LocalScaleRank, r.n-1)
 	var scaleLists, edgeLists *neighborLists
@@ -69,7 +91,7 @@ func (b Builder) gaussianGraph(r *denseRows) *CSR {
 		scaleLists = exactDense(r, rank, nil)
 		edgeLists = exactDense(r, 0, nil)
 	} else {
-		scaleLists = b.denseLists(r, max(k, rank))
+		scaleLists = denseLists(b, r, max(k, rank))
 		edgeLists = truncateRows(scaleLists, k)
 	}
 	sigma := localScales(scaleLists, edgeLists, rank)
