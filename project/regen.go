@@ -3,7 +3,9 @@ package project
 import (
 	"errors"
 	"fmt"
+	"path"
 	"slices"
+	"strings"
 	"time"
 
 	"github.com/ramify-tax/ramify/concept"
@@ -11,6 +13,10 @@ import (
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
+
+// HandEditPrefix begins the name of every constraint file that absorb
+// writes for hand edits of the outline (constraints/edit-HASH.toml).
+const HandEditPrefix = "edit-"
 
 // Seed fixes every pseudo-random choice of a regeneration, so the same
 // inputs give the same outline on every machine.
@@ -134,7 +140,7 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	keys := p.RecordKeys()
 	sol := &Solution{Graph: g, Compiled: compiled}
 	var tree *solve.Tree
-	plan, reason := p.localPlan(ro, keys)
+	plan, reason := p.localPlan(ro, keys, compiled)
 	if plan != nil {
 		if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
 			return nil, p.conflict(compiled, recs)
@@ -218,7 +224,7 @@ type localPlan struct {
 
 // localPlan decides whether a local re-solve applies; when not, it says
 // why the tree is rebuilt.
-func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord) (*localPlan, string) {
+func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord, compiled *Compiled) (*localPlan, string) {
 	switch {
 	case ro.Method == MethodAverage:
 		return nil, "the average-linkage baseline is always built from scratch"
@@ -259,9 +265,16 @@ func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord) (*loca
 		}
 	}
 	slices.Sort(freed)
+	// Records of hand edits are mended by moving what the editor moved.
+	whole := map[int]bool{}
+	for i, r := range compiled.Records {
+		if strings.HasPrefix(path.Base(r.Pos.File), HandEditPrefix) {
+			whole[i] = true
+		}
+	}
 	return &localPlan{
 		prev:   CategoryTree(p.dissolveShrunk(p.Outline.Root), p.Index, len(p.Items)),
-		change: solve.Change{Freed: slices.Compact(freed)},
+		change: solve.Change{Freed: slices.Compact(freed), Whole: whole},
 	}, ""
 }
 

@@ -16,6 +16,10 @@ type Change struct {
 	// Freed lists items that a removed record used to hold in place: they
 	// are re-placed by similarity alone, with no pull toward where they are.
 	Freed []int32
+	// Whole lists records that a repair mends by taking out all of their
+	// items, not the fewest: a hand edit names the items the editor moved
+	// and their neighbours, and the moved ones are the ones to move.
+	Whole map[int]bool
 }
 
 // RepairReport says what Repair did.
@@ -78,13 +82,6 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 	for _, x := range ch.Freed {
 		out[x] = true
 	}
-	for _, t := range c.Triplets {
-		if bad[t.Record] {
-			for _, x := range [3]int32{t.A, t.B, t.C} {
-				out[x], stay[x] = true, true
-			}
-		}
-	}
 	var groups [][]int32 // violated clusters, each becomes one unit
 	for _, cl := range c.Clusters {
 		if bad[cl.Record] && len(cl.Leaves) > 1 {
@@ -97,13 +94,10 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 	for x := int32(0); x < int32(g.N); x++ {
 		if !r.t.placed(x) {
 			out[x] = true
-		} else if stay[x] && !out[x] {
-			// A record names x but prev satisfies it: x need not move.
-			delete(stay, x)
 		}
 	}
 	oldParent := make(map[int32]int32, len(out))
-	for x := range out {
+	takeOut := func(x int32) {
 		if r.t.placed(x) {
 			if stay[x] {
 				oldParent[x] = r.t.parent[x]
@@ -111,10 +105,64 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 			r.t.detach(x)
 		}
 	}
-	rep.Placed = len(out)
+	for x := range out {
+		takeOut(x)
+	}
+	units := r.units(groups, out)
+	var singles []unit
+	for _, u := range units {
+		if u.root >= 0 {
+			singles = append(singles, u)
+			continue
+		}
+		if err := r.place(u, oldParent, rep); err != nil {
+			return nil, nil, err
+		}
+	}
+	// Items a hand edit names stay where the editor put them while other
+	// records are mended around them.
+	r.pinned = map[int32]bool{}
+	for _, rec := range r.tripletRecords() {
+		if ch.Whole[rec] {
+			for _, k := range r.recordTriplets(rec) {
+				for _, x := range uniqueTriple(c.Triplets[k]) {
+					r.pinned[x] = true
+				}
+			}
+		}
+	}
+	// Broken triplets: move the fewest items that mend them; where that
+	// fails, take out every item they name and place them as before.
+	var late []int32
+	for _, s := range r.brokenRecords() {
+		if !slices.ContainsFunc(s.records, func(rs recordShape) bool { return ch.Whole[rs.record] }) {
+			if moved, ok := r.mend(s); ok {
+				rep.Placed += moved
+				continue
+			}
+			if wide, ok := r.widen(s); ok {
+				if moved, ok := r.mend(wide); ok {
+					rep.Placed += moved
+					continue
+				}
+			}
+		}
+		for _, x := range s.items {
+			stay[x], out[x] = true, true
+			takeOut(x)
+			late = append(late, x)
+		}
+	}
+	rep.Placed += len(out)
+	if len(late) > 0 {
+		singles = append(singles, r.singleUnits(late)...)
+		slices.SortStableFunc(singles, func(a, b unit) int {
+			return cmp.Or(cmp.Compare(len(r.touch[a.root]), len(r.touch[b.root])), cmp.Compare(a.root, b.root))
+		})
+	}
 	var free []int32
-	for _, u := range r.units(groups, out) {
-		if len(u.items) == 1 && len(r.touch[u.root]) == 0 {
+	for _, u := range singles {
+		if len(r.touch[u.root]) == 0 {
 			free = append(free, u.root)
 			continue
 		}
@@ -203,11 +251,19 @@ func (r *repairer) units(groups [][]int32, out map[int32]bool) []unit {
 			singles = append(singles, x)
 		}
 	}
-	slices.SortFunc(singles, func(a, b int32) int {
+	return append(us, r.singleUnits(singles)...)
+}
+
+// singleUnits makes each item a unit, those named by fewer constraints
+// first.
+func (r *repairer) singleUnits(items []int32) []unit {
+	items = slices.Clone(items)
+	slices.SortFunc(items, func(a, b int32) int {
 		return cmp.Or(cmp.Compare(len(r.touch[a]), len(r.touch[b])), cmp.Compare(a, b))
 	})
-	for _, x := range singles {
-		us = append(us, unit{items: []int32{x}, root: x})
+	us := make([]unit, len(items))
+	for i, x := range items {
+		us[i] = unit{items: []int32{x}, root: x}
 	}
 	return us
 }
@@ -223,6 +279,13 @@ type repairer struct {
 	// naming item x.
 	touch [][]int
 	keys  []uint64 // random key per item, for hashing leaf sets
+	// byRecord lists each record's triplets; recordOrder the records with
+	// triplets (see indexRecords).
+	byRecord    map[int][]int
+	recordOrder []int
+	// pinned marks the items of records that Change.Whole names: mend
+	// moves other items rather than these.
+	pinned map[int32]bool
 }
 
 func newRepairer(g *graph.CSR, c *Constraints, prev *Tree, opt Options) *repairer {
@@ -319,6 +382,12 @@ func (r *repairer) bestSpot(ix *treeIndex, u unit, cands []spot) (spot, float64)
 // cost), the nodes on those paths for a new joint category, the root, and
 // the old parents of the unit's items.
 func (r *repairer) candidates(ix *treeIndex, u unit) []spot {
+	return r.candidatesNear(ix, u, nil)
+}
+
+// candidatesNear is candidates with the root paths of the placed items
+// near added.
+func (r *repairer) candidatesNear(ix *treeIndex, u unit, near []int32) []spot {
 	seen := map[spot]bool{}
 	var out []spot
 	add := func(s spot) {
@@ -328,6 +397,21 @@ func (r *repairer) candidates(ix *treeIndex, u unit) []spot {
 		}
 	}
 	add(spot{r.t.root, false})
+	addPath := func(y int32) {
+		for v := y; v >= 0; v = r.t.parent[v] {
+			if !r.t.isLeaf(v) {
+				add(spot{v, false})
+			}
+			if v != r.t.root {
+				add(spot{v, true})
+			}
+		}
+	}
+	for _, y := range near {
+		if r.t.placed(y) && !ix.inUnit(u, y) {
+			addPath(y)
+		}
+	}
 	for _, x := range u.items {
 		targets, _ := r.g.Neighbors(int(x))
 		for _, y := range targets {
@@ -343,14 +427,20 @@ func (r *repairer) candidates(ix *treeIndex, u unit) []spot {
 				}
 			}
 		}
-		// Items a record ties to x are places too, even with no edge.
+		// The root paths of items a record ties to x are places too, even
+		// with no edge: a record may need x exactly where those items meet.
 		for _, k := range r.touch[x] {
 			for _, y := range r.constraintItems(k) {
-				if r.t.placed(y) && !ix.inUnit(u, y) {
-					if p := r.t.parent[y]; p >= 0 {
-						add(spot{p, false})
+				if !r.t.placed(y) || ix.inUnit(u, y) {
+					continue
+				}
+				for v := y; v >= 0; v = r.t.parent[v] {
+					if !r.t.isLeaf(v) {
+						add(spot{v, false})
 					}
-					add(spot{y, true})
+					if v != r.t.root {
+						add(spot{v, true})
+					}
 				}
 			}
 		}

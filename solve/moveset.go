@@ -1,0 +1,533 @@
+package solve
+
+import (
+	"cmp"
+	"fmt"
+	"maps"
+	"math"
+	"slices"
+)
+
+// Which items a broken record makes move.
+//
+// A record that the tree breaks is mended by moving some of the items it
+// names; moving all of them, as a naive repair does, throws away where
+// the others were and lets a greedy placement wander. Each triplet record
+// or shape means a small tree over its items (BUILD of its triplets gives
+// it back: Aho et al. 1981), and the current tree keeps the record among
+// the items it does not move exactly when, restricted to those items, it
+// holds every category of the record's tree as a category. So Repair
+// looks, for each set of broken records that share items, for the
+// smallest set of items whose removal leaves every one of them kept, and
+// puts those items back where every record holds. Such a place always
+// exists for one record (below the lowest category that holds the
+// record-category the item belongs to, or beside it when that category is
+// a single child); with several records it is tried. Among the sets of the
+// smallest size it keeps the one whose placement creates the fewest
+// categories, then raises Dasgupta's cost least: the item the
+// similarities least want where it is moves. Only when no set works are
+// all the items of the broken records taken out, as before.
+
+const (
+	// maxMoveItems bounds the items of one set of broken records for
+	// which moves are searched.
+	maxMoveItems = 40
+	// maxMoveChecks bounds the item sets whose removal is checked for one
+	// set of broken records.
+	maxMoveChecks = 20000
+	// maxMoveTrials bounds the item sets whose placement is tried for
+	// one set of broken records, so that a large tree stays fast.
+	maxMoveTrials = 24
+)
+
+// recordShape is what one triplet record or shape says: its items and
+// the categories of its tree (each as sorted items).
+type recordShape struct {
+	record   int
+	items    []int32 // sorted
+	clusters [][]int32
+}
+
+// brokenSet is a set of broken records that share placed items, and
+// those items, sorted.
+type brokenSet struct {
+	records []recordShape
+	items   []int32
+}
+
+// brokenRecords lists, grouped by shared items, the triplet records and
+// shapes that the current tree does not keep.
+func (r *repairer) brokenRecords() []brokenSet {
+	ix := r.t.index(r.g, r.keys, r.c)
+	gone := func(x int32) bool { return !ix.inMain(r.t, x) }
+	var broken []recordShape
+	for _, rec := range r.tripletRecords() {
+		rs, ok := r.recordShape(r.recordTriplets(rec))
+		if ok && !r.keeps(indexedTree{r.t, ix}, rs, gone) {
+			broken = append(broken, rs)
+		}
+	}
+	// Group records that share a placed item.
+	owner := map[int32]int{}
+	parent := make([]int, len(broken))
+	var find func(i int) int
+	find = func(i int) int {
+		for parent[i] != i {
+			parent[i] = parent[parent[i]]
+			i = parent[i]
+		}
+		return i
+	}
+	for i := range parent {
+		parent[i] = i
+	}
+	for i, rs := range broken {
+		for _, x := range rs.items {
+			if gone(x) {
+				continue
+			}
+			if j, ok := owner[x]; ok {
+				a, b := find(i), find(j)
+				parent[max(a, b)] = min(a, b)
+			} else {
+				owner[x] = i
+			}
+		}
+	}
+	var out []brokenSet
+	at := map[int]int{}
+	for i, rs := range broken {
+		root := find(i)
+		j, ok := at[root]
+		if !ok {
+			j = len(out)
+			at[root] = j
+			out = append(out, brokenSet{})
+		}
+		out[j].records = append(out[j].records, rs)
+		for _, x := range rs.items {
+			if !gone(x) && !slices.Contains(out[j].items, x) {
+				out[j].items = append(out[j].items, x)
+			}
+		}
+	}
+	for i := range out {
+		slices.Sort(out[i].items)
+	}
+	return out
+}
+
+// recordShape rebuilds the tree of one record from its triplets. It
+// reports false for a record whose triplets BUILD cannot join (never for
+// a consistent set).
+func (r *repairer) recordShape(triplets []int) (recordShape, bool) {
+	var all []int32
+	for _, k := range triplets {
+		all = append(all, uniqueTriple(r.c.Triplets[k])...)
+	}
+	slices.Sort(all)
+	all = slices.Compact(all)
+	local := make(map[int32]int32, len(all))
+	for i, x := range all {
+		local[x] = int32(i)
+	}
+	sub := &Constraints{}
+	for _, k := range triplets {
+		t := r.c.Triplets[k]
+		sub.Triplets = append(sub.Triplets, Triplet{A: local[t.A], B: local[t.B], C: local[t.C]})
+	}
+	tree, ok := Build(len(all), sub)
+	if !ok {
+		return recordShape{}, false
+	}
+	rs := recordShape{record: r.c.Triplets[triplets[0]].Record, items: all}
+	for _, v := range tree.PostOrder() {
+		if tree.IsLeaf(v) || v == tree.Root {
+			continue
+		}
+		var cl []int32
+		for _, l := range tree.Leaves(v) {
+			cl = append(cl, all[l])
+		}
+		slices.Sort(cl)
+		rs.clusters = append(rs.clusters, cl)
+	}
+	return rs, true
+}
+
+// treeView is what keeps asks of a tree: lowest common ancestors and
+// ancestry, from an index or by walking up.
+type treeView interface {
+	lca(a, b int32) int32
+	isAncestor(a, b int32) bool
+	root() int32
+}
+
+type indexedTree struct {
+	t  *mutableTree
+	ix *treeIndex
+}
+
+func (v indexedTree) lca(a, b int32) int32       { return v.t.lcaIdx(v.ix, a, b) }
+func (v indexedTree) isAncestor(a, b int32) bool { return v.ix.isAncestor(a, b) }
+func (v indexedTree) root() int32                { return v.t.root }
+
+// walkedTree answers from parent links alone, for a tree that changes
+// between questions (record items are few).
+type walkedTree struct{ t *mutableTree }
+
+func (v walkedTree) lca(a, b int32) int32 { return v.t.lca(a, b) }
+func (v walkedTree) isAncestor(a, b int32) bool {
+	for ; b >= 0; b = v.t.parent[b] {
+		if b == a {
+			return true
+		}
+	}
+	return false
+}
+func (v walkedTree) root() int32 { return v.t.root }
+
+// keeps reports whether the tree keeps the record among its items that
+// are not gone (taken out, or still to be placed); see breach.
+func (r *repairer) keeps(tv treeView, rs recordShape, gone func(int32) bool) bool {
+	_, broken := r.breach(tv, rs, gone)
+	return !broken
+}
+
+// breach finds a triplet of the record that the tree breaks among the
+// items not gone, or reports false when there is none. The tree keeps the
+// record when every category of the record's tree, over the items left,
+// is the set of those items below their lowest common category, and that
+// category is not the root while an item outside it is gone (it could not
+// be put back outside the root). The triplet returned is ab|y with a, b
+// inside such a category and meeting at its lowest common category, and y
+// an item outside it found below that category; or with y gone, when that
+// category is the root (then only a or b can move, so y is -1).
+func (r *repairer) breach(tv treeView, rs recordShape, gone func(int32) bool) ([3]int32, bool) {
+	for _, cl := range rs.clusters {
+		lca, first, last, inside := int32(-1), int32(-1), int32(-1), 0
+		for _, x := range cl {
+			if gone(x) {
+				continue
+			}
+			inside++
+			if lca < 0 {
+				lca, first = x, x
+				continue
+			}
+			if next := tv.lca(lca, x); next != lca {
+				lca, last = next, x
+			}
+		}
+		if inside < 2 {
+			continue
+		}
+		outsideGone := false
+		for _, y := range rs.items {
+			if _, in := slices.BinarySearch(cl, y); in {
+				continue
+			}
+			if gone(y) {
+				outsideGone = true
+				continue
+			}
+			if tv.isAncestor(lca, y) {
+				return [3]int32{first, last, y}, true
+			}
+		}
+		if lca == tv.root() && outsideGone {
+			return [3]int32{first, last, -1}, true
+		}
+	}
+	return [3]int32{}, false
+}
+
+// mend moves the fewest items that mend the broken set s and says how
+// many it moved, or reports false (leaving the tree as it was) when no
+// tried set of items can be placed back with every record holding.
+//
+// The sets are found as hitting sets are (a bounded search tree): a
+// triplet the tree breaks needs one of its items moved, so the search
+// branches on each of them, to the size being tried, and every leaf that
+// leaves no triplet broken is a candidate.
+func (r *repairer) mend(s brokenSet) (int, bool) {
+	if len(s.items) > maxMoveItems {
+		return 0, false
+	}
+	ix := r.t.index(r.g, r.keys, r.c)
+	tv := indexedTree{r.t, ix}
+	breachOf := func(moved []int32) ([3]int32, bool) {
+		gone := func(x int32) bool { return !ix.inMain(r.t, x) || slices.Contains(moved, x) }
+		for _, rs := range s.records {
+			if w, ok := r.breach(tv, rs, gone); ok {
+				return w, true
+			}
+		}
+		return [3]int32{}, false
+	}
+	checks, trials := 0, 0
+	for size := 1; size < len(s.items) && checks < maxMoveChecks && trials < maxMoveTrials; size++ {
+		var sets [][]int32
+		seen := map[string]bool{}
+		var search func(moved []int32)
+		search = func(moved []int32) {
+			if checks >= maxMoveChecks || len(sets) >= maxMoveTrials-trials {
+				return
+			}
+			checks++
+			w, broken := breachOf(moved)
+			if !broken {
+				key := slices.Sorted(slices.Values(moved))
+				if k := fmt.Sprint(key); !seen[k] {
+					seen[k] = true
+					sets = append(sets, key)
+				}
+				return
+			}
+			if len(moved) == size {
+				return
+			}
+			for _, x := range w {
+				if x >= 0 && !r.pinned[x] {
+					search(append(slices.Clip(moved), x))
+				}
+			}
+		}
+		search(nil)
+		var best *mutableTree
+		bestCost, bestNew := math.Inf(1), math.MaxInt
+		for _, h := range sets {
+			trials++
+			t, cost, created, ok := r.tryMove(h, s.records)
+			if ok && (created < bestNew || created == bestNew && cost < bestCost-1e-9) {
+				best, bestCost, bestNew = t, cost, created
+			}
+		}
+		if best != nil {
+			r.t = best
+			return size, true
+		}
+	}
+	return 0, false
+}
+
+// widen joins the broken set with the records that share items with it,
+// nearest first and as far as maxMoveItems allows, into one record: BUILD of all their
+// triplets. Moving items so that the tree keeps that joint tree is more
+// than the records need, but a place for each moved item then always
+// exists, where records taken one at a time can each want the item
+// somewhere the others forbid.
+func (r *repairer) widen(s brokenSet) (brokenSet, bool) {
+	records := map[int]bool{}
+	for _, rs := range s.records {
+		records[rs.record] = true
+	}
+	items := slices.Clone(s.items)
+	for i := 0; i < len(items); i++ {
+		for _, k := range r.touch[items[i]] {
+			if k < 0 || records[r.c.Triplets[k].Record] {
+				continue
+			}
+			rec := r.c.Triplets[k].Record
+			var more []int32
+			for _, t := range r.recordTriplets(rec) {
+				for _, y := range uniqueTriple(r.c.Triplets[t]) {
+					if r.t.placed(y) && !slices.Contains(items, y) && !slices.Contains(more, y) {
+						more = append(more, y)
+					}
+				}
+			}
+			if len(items)+len(more) > maxMoveItems {
+				continue // records nearer the broken ones come first
+			}
+			records[rec] = true
+			items = append(items, more...)
+		}
+	}
+	var triplets []int
+	for _, rec := range slices.Sorted(maps.Keys(records)) {
+		triplets = append(triplets, r.recordTriplets(rec)...)
+	}
+	rs, ok := r.recordShape(triplets)
+	if !ok {
+		return brokenSet{}, false
+	}
+	rs.record = -1
+	slices.Sort(items)
+	return brokenSet{records: []recordShape{rs}, items: items}, true
+}
+
+// tryMove takes the items h out of a copy of the tree and puts them back,
+// one at a time, at their allowed places of least cost. It returns the
+// copy, the rise of Dasgupta's cost the move makes (the cost at the new
+// places less that at the old ones, both against the tree without h) and
+// the categories it had to create, or false when an item finds no
+// allowed place. A move that creates a category also moves what it wraps,
+// so mend prefers moves that create none.
+func (r *repairer) tryMove(h []int32, records []recordShape) (*mutableTree, float64, int, bool) {
+	saved := r.t
+	defer func() { r.t = saved }()
+	r.t = saved.clone()
+	old := make([]int32, len(h))
+	for i, x := range h {
+		old[i] = r.t.parent[x]
+	}
+	for _, x := range h {
+		r.t.detach(x)
+	}
+	ix := r.t.index(r.g, r.keys, r.c)
+	rise, created := 0.0, 0
+	for i, x := range h {
+		if p := old[i]; r.t.alive(p) {
+			rise -= r.cost(ix, unit{items: []int32{x}, root: x}, spot{p, false})
+		}
+	}
+	order := slices.Clone(h)
+	slices.SortFunc(order, func(a, b int32) int {
+		return cmp.Or(cmp.Compare(len(r.touch[a]), len(r.touch[b])), cmp.Compare(a, b))
+	})
+	// Records are checked whole at each step, not only through their
+	// triplets: a shape's triplets say everything only once all its items
+	// are placed, and a step that keeps them but not the shape would leave
+	// a later item of the shape with no place.
+	shapes := slices.Clone(records)
+	for _, x := range h {
+		for _, k := range r.touch[x] {
+			if k < 0 {
+				continue
+			}
+			rec := r.c.Triplets[k].Record
+			if !slices.ContainsFunc(shapes, func(rs recordShape) bool { return rs.record == rec }) {
+				if rs, ok := r.recordShape(r.recordTriplets(rec)); ok {
+					shapes = append(shapes, rs)
+				}
+			}
+		}
+	}
+	gone := func(x int32) bool { return !r.t.placed(x) }
+	for _, x := range order {
+		u := unit{items: []int32{x}, root: x}
+		ix := r.t.index(r.g, r.keys, r.c)
+		type scored struct {
+			s    spot
+			cost float64
+		}
+		var ok []scored
+		var near []int32
+		for _, rs := range shapes {
+			if _, in := slices.BinarySearch(rs.items, x); in {
+				near = append(near, rs.items...)
+			}
+		}
+		for _, sp := range r.candidatesNear(ix, u, near) {
+			if r.allowed(ix, u, sp) {
+				ok = append(ok, scored{sp, r.cost(ix, u, sp)})
+			}
+		}
+		slices.SortStableFunc(ok, func(a, b scored) int {
+			if a.s.beside != b.s.beside {
+				if a.s.beside {
+					return 1
+				}
+				return -1
+			}
+			return cmp.Compare(a.cost, b.cost)
+		})
+		placed := false
+		for _, c := range ok {
+			r.t.attach(x, c.s)
+			if r.keepsAll(shapes, gone) {
+				if c.s.beside {
+					created++
+				}
+				rise += c.cost
+				placed = true
+				break
+			}
+			r.t.unattach(x, c.s)
+		}
+		if !placed {
+			return nil, 0, 0, false
+		}
+	}
+	return r.t, rise, created, true
+}
+
+func (r *repairer) keepsAll(shapes []recordShape, gone func(int32) bool) bool {
+	for _, rs := range shapes {
+		if !r.keeps(walkedTree{r.t}, rs, gone) {
+			return false
+		}
+	}
+	return true
+}
+
+// forCombinations calls f with each subset of xs of the given size, in
+// lexicographic order of positions, until f returns false.
+func forCombinations(xs []int32, size int, f func([]int32) bool) {
+	pick := make([]int32, 0, size)
+	var rec func(from int) bool
+	rec = func(from int) bool {
+		if len(pick) == size {
+			return f(pick)
+		}
+		for i := from; i <= len(xs)-(size-len(pick)); i++ {
+			pick = append(pick, xs[i])
+			if !rec(i + 1) {
+				return false
+			}
+			pick = pick[:len(pick)-1]
+		}
+		return true
+	}
+	rec(0)
+}
+
+// clone copies the tree, so that a trial placement can be thrown away.
+func (t *mutableTree) clone() *mutableTree {
+	c := &mutableTree{n: t.n, kids: make([][]int32, len(t.kids)), parent: slices.Clone(t.parent), root: t.root}
+	for v, ks := range t.kids {
+		c.kids[v] = slices.Clone(ks)
+	}
+	return c
+}
+
+// tripletRecords lists the records that have triplets, in order of their
+// first triplet; recordTriplets lists a record's triplets.
+func (r *repairer) tripletRecords() []int {
+	r.indexRecords()
+	return r.recordOrder
+}
+
+func (r *repairer) recordTriplets(rec int) []int {
+	r.indexRecords()
+	return r.byRecord[rec]
+}
+
+func (r *repairer) indexRecords() {
+	if r.byRecord != nil {
+		return
+	}
+	r.byRecord = map[int][]int{}
+	for k, t := range r.c.Triplets {
+		if _, ok := r.byRecord[t.Record]; !ok {
+			r.recordOrder = append(r.recordOrder, t.Record)
+		}
+		r.byRecord[t.Record] = append(r.byRecord[t.Record], k)
+	}
+}
+
+// unattach undoes attach(u, s) while nothing else changed.
+func (t *mutableTree) unattach(u int32, s spot) {
+	if !s.beside {
+		t.detach(u)
+		return
+	}
+	w := t.parent[u]
+	p := t.parent[w]
+	i := slices.Index(t.kids[p], w)
+	t.kids[p][i] = s.v
+	t.parent[s.v] = p
+	t.parent[u], t.parent[w] = -1, -1
+	t.kids[w] = nil
+}
