@@ -334,7 +334,9 @@ func (b *builder) process(w *constructWorker, tk ctask) ([]ctask, int, error) {
 	case k <= b.params.superDP:
 		w.splitBySuperDP(h)
 	default:
-		w.splitSpectral(h, b.params.seed)
+		if err := w.splitSpectral(h, b.params.seed); err != nil {
+			return nil, 0, err
+		}
 		b.tryGuide(w, h)
 	}
 	if w.sideU[0] != 0 {
@@ -594,7 +596,7 @@ func (w *constructWorker) splitComponents(nc int) {
 // without contraction this is the normalised Laplacian and a contracted
 // super-node keeps the weight of the edges inside it; the sweep scores
 // uniform sparsity with masses.
-func (w *constructWorker) splitSpectral(h *graph.CSR, seed uint64) {
+func (w *constructWorker) splitSpectral(h *graph.CSR, seed uint64) error {
 	k := h.N
 	w.deg = grow(w.deg, k)
 	for u := 0; u < k; u++ {
@@ -604,8 +606,11 @@ func (w *constructWorker) splitSpectral(h *graph.CSR, seed uint64) {
 		}
 		w.deg[u] = d
 	}
-	w.sp.sparsestCut(h, w.deg, w.vol, w.mass, w.first, seed, &w.sw, w.sideU)
+	if err := w.sp.sparsestCut(h, w.deg, w.vol, w.mass, w.first, seed, &w.sw, w.sideU); err != nil {
+		return err
+	}
 	w.refineCut(h)
+	return nil
 }
 
 // refinePasses bounds the local refinement of a sweep cut.

@@ -3,6 +3,7 @@ package solve
 import (
 	"encoding/csv"
 	"encoding/json"
+	"errors"
 	"math"
 	"math/rand/v2"
 	"os"
@@ -480,4 +481,30 @@ func tridiag(a, e []float64) *mat.SymDense {
 		}
 	}
 	return m
+}
+
+// A dense eigensolve that does not converge is an error from Solve, not a
+// panic: the construction stops and says what failed. Real inputs do not
+// reach it, so the test makes the factorisation fail.
+func TestDenseEigenFailureIsAnError(t *testing.T) {
+	saved := factorizeSym
+	t.Cleanup(func() { factorizeSym = saved })
+	calls := 0
+	factorizeSym = func(*mat.EigenSym, mat.Symmetric, bool) bool { calls++; return false }
+	// 15 items: more than the exact DP takes, few enough for the dense
+	// eigensolver.
+	res, err := Solve(pathGraph(t, 15), nil, Options{})
+	if !errors.Is(err, errNoConvergence) || res != nil {
+		t.Fatalf("Solve = %v, %v; want errNoConvergence", res, err)
+	}
+	if calls == 0 {
+		t.Fatal("the dense eigensolver was not used")
+	}
+	if want := "solve: splitting a set of 15 super-nodes: the dense eigensolver did not converge"; err.Error() != want {
+		t.Errorf("error %q, want %q", err, want)
+	}
+	factorizeSym = saved
+	if _, err := Solve(pathGraph(t, 15), nil, Options{}); err != nil {
+		t.Fatalf("with the real eigensolver: %v", err)
+	}
 }
