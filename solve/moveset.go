@@ -70,8 +70,7 @@ func (r *repairer) brokenRecords() []brokenSet {
 	// Group records that share a placed item.
 	owner := map[int32]int{}
 	parent := make([]int, len(broken))
-	var find func(i int) int
-	find = func(i int) int {
+	find := func(i int) int {
 		for parent[i] != i {
 			parent[i] = parent[parent[i]]
 			i = parent[i]
@@ -460,27 +459,6 @@ func (r *repairer) keepsAll(shapes []recordShape, gone func(int32) bool) bool {
 		}
 	}
 	return true
-}
-
-// forCombinations calls f with each subset of xs of the given size, in
-// lexicographic order of positions, until f returns false.
-func forCombinations(xs []int32, size int, f func([]int32) bool) {
-	pick := make([]int32, 0, size)
-	var rec func(from int) bool
-	rec = func(from int) bool {
-		if len(pick) == size {
-			return f(pick)
-		}
-		for i := from; i <= len(xs)-(size-len(pick)); i++ {
-			pick = append(pick, xs[i])
-			if !rec(i + 1) {
-				return false
-			}
-			pick = pick[:len(pick)-1]
-		}
-		return true
-	}
-	rec(0)
 }
 
 // clone copies the tree, so that a trial placement can be thrown away.
