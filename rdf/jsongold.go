@@ -85,6 +85,18 @@ func gold(err error) string {
 // handed to json-gold, whose expansion recurses once per level.
 const MaxJSONLDDepth = 64
 
+// toRDF runs the processor, turning a panic inside it (it asserts value
+// types some documents do not have, e.g. {"": 0}) into an error about the
+// document, since the input is what makes it fail.
+func toRDF(proc *ld.JsonLdProcessor, doc any, opts *ld.JsonLdOptions) (res any, err error) {
+	defer func() {
+		if p := recover(); p != nil {
+			res, err = nil, fmt.Errorf("the document is not JSON-LD the processor can expand (%v)", p)
+		}
+	}()
+	return proc.ToRDF(doc, opts)
+}
+
 // ParseJSONLD reads a JSON-LD 1.1 document with json-gold's toRdf
 // algorithm. Remote contexts are never fetched: a document that names
 // one by URL is refused with a message saying to inline the context, as
@@ -112,7 +124,7 @@ func ParseJSONLD(file string, src []byte) ([]Triple, error) {
 	proc := ld.NewJsonLdProcessor()
 	opts := ld.NewJsonLdOptions("")
 	opts.DocumentLoader = refuseLoader{}
-	res, err := proc.ToRDF(doc, opts)
+	res, err := toRDF(proc, doc, opts)
 	if err != nil {
 		return nil, format.Diags{{Pos: format.Pos{File: file, Line: 1, Col: 1}, Msg: "JSON-LD: " + gold(err)}}
 	}
