@@ -26,7 +26,10 @@ var CSVColumns = []string{"id", "label", "tags", "text", "path", "concepts"}
 // top level has an empty path. So `ramify init --from` reads back the
 // same tree, names, identifiers and items: the export loses nothing.
 // Rows follow the outline's order; quoting is RFC 4180's (encoding/csv),
-// lines end in a line feed.
+// lines end in a line feed. A cell that a spreadsheet would run as a
+// formula (it begins with "=", "+", "-", "@", a tab or a carriage return)
+// is written with a single quote before it (GuardCell); the import takes
+// it away again.
 //
 // A category name that holds PathSeparator cannot be told apart from two
 // levels, so it is refused rather than written ambiguously.
@@ -52,7 +55,11 @@ func CSV(w io.Writer, root *format.Category, items []format.Item) error {
 			if strings.Trim(concepts, " >") == "" {
 				concepts = ""
 			}
-			rows = append(rows, []string{id, label, tags, text, strings.Join(path, PathSeparator), concepts})
+			row := []string{id, label, tags, text, strings.Join(path, PathSeparator), concepts}
+			for k := range row {
+				row[k] = GuardCell(row[k])
+			}
+			rows = append(rows, row)
 		}
 	}
 	rec(tree, nil, nil)

@@ -35,10 +35,13 @@ type importText struct {
 	file  string
 	text  []byte
 	lines []int // byte offset where each line starts
+	// guarded holds the cells (by the offset of their first byte) whose
+	// guard quote was taken away: content byte k lies one further on.
+	guarded map[int]bool
 }
 
 func newImportText(file string, text []byte) *importText {
-	s := &importText{file: file, text: text, lines: []int{0}}
+	s := &importText{file: file, text: text, lines: []int{0}, guarded: map[int]bool{}}
 	for i, c := range text {
 		if c == '\n' && i+1 < len(text) {
 			s.lines = append(s.lines, i+1)
@@ -62,6 +65,9 @@ func (s *importText) posAt(off int) format.Pos {
 // first byte (its opening quote, if quoted) being at off. Inside quotes a
 // doubled quote stands for one.
 func (s *importText) contentPos(off, k int) format.Pos {
+	if s.guarded[off] {
+		k++
+	}
 	if off < len(s.text) && s.text[off] == '"' {
 		off++
 		for ; k > 0 && off < len(s.text); k-- {
@@ -113,6 +119,10 @@ func readImportRows(s *importText, ds *format.Diags) []importRow {
 		for i := range rec {
 			line, col := r.FieldPos(i)
 			row.offs[i] = s.lines[line-1] + col - 1
+			var cut int
+			if row.cells[i], cut = export.UnguardCell(rec[i]); cut > 0 {
+				s.guarded[row.offs[i]] = true
+			}
 			if i == 0 {
 				row.line = line
 			}

@@ -7,6 +7,7 @@ import (
 	"testing"
 
 	"github.com/google/go-cmp/cmp"
+	"github.com/google/go-cmp/cmp/cmpopts"
 	"github.com/ramify-tax/ramify/concept"
 	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
@@ -63,5 +64,48 @@ func TestCSVRoundTripLossless(t *testing.T) {
 	}
 	if d := cmp.Diff(strip(items), strip(back)); d != "" {
 		t.Errorf("items read back (-want +got):\n%s", d)
+	}
+}
+
+// TestCSVRoundTripFormulaCells: cells the export guards against formula
+// injection (a quote before "=", "+", "-", "@", a tab or a carriage
+// return) read back as they were, including values that already begin
+// with quotes; a problem in a guarded cell is reported at its place in
+// the file.
+func TestCSVRoundTripFormulaCells(t *testing.T) {
+	o, err := format.ParseOutline("t.outline", []byte("# ramify outline 1\n-Sale/\n  =Blades/\n    saw-1\n  saw-2\n@Home/\n  saw-3\n  saw-4\n"))
+	if err != nil {
+		t.Fatal(err)
+	}
+	items := []format.Item{
+		{ID: "saw-1", Label: "=1+1", Text: "'=already quoted", Tags: []string{"-x", "y"}},
+		{ID: "saw-2", Label: "'plain quote", Text: "\tindented"},
+		{ID: "saw-3", Label: "''@two quotes", Text: "-"},
+		{ID: "saw-4", Label: "+", Text: "ordinary"},
+	}
+	var b bytes.Buffer
+	if err := export.CSV(&b, o.Root, items); err != nil {
+		t.Fatal(err)
+	}
+	root, back, ds := parseImportCSV("export.csv", b.Bytes())
+	if len(ds) > 0 {
+		t.Fatalf("reading the export back: %v\n%s", ds, b.String())
+	}
+	root.Sort()
+	if got, want := string(format.FormatOutline(root)), string(format.FormatOutline(o.Root.Clone())); got != want {
+		t.Errorf("tree read back (-want +got):\n%s", cmp.Diff(want, got))
+	}
+	for i, it := range back {
+		w := items[i]
+		if it.ID != w.ID || it.Label != w.Label || it.Text != w.Text || !cmp.Equal(it.Tags, w.Tags, cmpopts.EquateEmpty()) {
+			t.Errorf("item read back %+v, want %+v", it, w)
+		}
+	}
+
+	// A bad category name behind a guard quote: the column is that of
+	// the name in the file, counting the quote.
+	_, _, ds = parseImportCSV("bad.csv", []byte("id,path\nsaw-1,'-Sale > ~\n"))
+	if len(ds) != 1 || ds[0].Pos.Line != 2 || ds[0].Pos.Col != 16 {
+		t.Errorf("problems %v; want one at bad.csv:2:16, the \"~\"", ds)
 	}
 }
