@@ -124,7 +124,7 @@ func runDiff(e *env, args []string) error {
 			writeMarkdownLines(w, lines)
 		}
 	default:
-		w.WriteString(diffPaint(e.color, diffDim, old.name+" -> "+new.name) + "\n")
+		w.WriteString(diffPaint(e.color, diffDim, format.Printable(old.name+" -> "+new.name)) + "\n")
 		rep.Text(w, e.color)
 		if withLines {
 			writeTextLines(w, lines, e.color)
@@ -371,7 +371,7 @@ func writeLineView(w *bufio.Writer, lines string, color bool) {
 		return
 	}
 	for _, l := range strings.SplitAfter(strings.TrimSuffix(lines, "\n"), "\n") {
-		l = strings.TrimSuffix(l, "\n")
+		l = format.Printable(strings.TrimSuffix(l, "\n"))
 		switch {
 		case strings.HasPrefix(l, "@@"):
 			l = diffPaint(color, diffDim, l)
@@ -394,7 +394,7 @@ func writeMarkdownLines(w *bufio.Writer, lines string) {
 	}
 	fence := codeFence(lines)
 	w.WriteString("<details><summary>line-level view of the outline files</summary>\n\n")
-	w.WriteString(fence + "diff\n" + lines + fence + "\n\n</details>\n")
+	w.WriteString(fence + "diff\n" + format.PrintableLines(lines) + fence + "\n\n</details>\n")
 }
 
 // codeFence is a run of backticks longer than any in text (at least

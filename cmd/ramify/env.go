@@ -63,7 +63,7 @@ func (e *env) say(format string, args ...any) {
 	if e.opt.json || e.opt.quiet {
 		return
 	}
-	fmt.Fprintf(e.stdout, format+"\n", args...)
+	printLine(e.stdout, fmt.Sprintf(format, args...))
 }
 
 // notice prints a line to stderr unless --quiet.
@@ -71,7 +71,14 @@ func (e *env) notice(format string, args ...any) {
 	if e.opt.quiet {
 		return
 	}
-	fmt.Fprintf(e.stderr, format+"\n", args...)
+	printLine(e.stderr, fmt.Sprintf(format, args...))
+}
+
+// printLine prints text and a line break, with what a file or a pull
+// request put in it escaped (format.Printable on each line): every line
+// of human text ramify prints goes through here.
+func printLine(w io.Writer, text string) {
+	io.WriteString(w, format.PrintableLines(text)+"\n")
 }
 
 // failure is an error that means "a check failed" (exit 1) rather than
@@ -157,10 +164,10 @@ func (e *env) finish(c *command, err error) int {
 		code = exitUsage
 		e.report["problems"] = problemsJSON(ad.ds)
 		for _, d := range ad.ds {
-			fmt.Fprintln(e.stderr, d.String())
+			printLine(e.stderr, d.String())
 		}
 		for _, l := range ad.advice {
-			fmt.Fprintln(e.stderr, l)
+			printLine(e.stderr, l)
 		}
 		e.report["advice"] = ad.advice
 	case errors.As(err, &ds):
@@ -168,7 +175,7 @@ func (e *env) finish(c *command, err error) int {
 		shown := ds.Capped()
 		e.report["problems"] = problemsJSON(shown)
 		for _, d := range shown {
-			fmt.Fprintln(e.stderr, d.String())
+			printLine(e.stderr, d.String())
 		}
 		if n := ds.Count(); ds.Stopped() {
 			fmt.Fprintf(e.stderr, "at least %d problems; nothing was written\n", n)
@@ -180,17 +187,17 @@ func (e *env) finish(c *command, err error) int {
 	case errors.As(err, &fl):
 		code = exitFailed
 		for _, l := range fl.lines {
-			fmt.Fprintln(e.stderr, l)
+			printLine(e.stderr, l)
 		}
 		e.report["failure"] = fl.lines
 	case errors.As(err, &ue):
 		code = exitUsage
-		fmt.Fprintf(e.stderr, "ramify %s: %s\n", c.name, ue.msg)
+		printLine(e.stderr, "ramify "+c.name+": "+ue.msg)
 		fmt.Fprintf(e.stderr, "run `ramify %s --help` for its options\n", c.name)
 		e.report["error"] = ue.msg
 	default:
 		code = exitInternal
-		fmt.Fprintf(e.stderr, "ramify %s: %s\n", c.name, firstLineOf(err.Error()))
+		printLine(e.stderr, "ramify "+c.name+": "+firstLineOf(err.Error()))
 		e.report["error"] = err.Error()
 	}
 	if e.opt.json {

@@ -63,7 +63,7 @@ func runGitDiffDriver(e *env, args []string) error {
 	case new.data == nil:
 		title += " (deleted)"
 	}
-	w.WriteString(diffPaint(e.color, diffBold, title) + "\n")
+	w.WriteString(diffPaint(e.color, diffBold, format.Printable(title)) + "\n")
 	oldTree, oldErr := driverTree(old)
 	newTree, newErr := driverTree(new)
 	if oldErr != nil || newErr != nil {
@@ -74,7 +74,7 @@ func runGitDiffDriver(e *env, args []string) error {
 				continue
 			}
 			if ds := format.AsDiags(err, ""); len(ds) > 0 {
-				w.WriteString("not an outline ramify can read (" + ds[0].String() + "); showing lines\n")
+				w.WriteString("not an outline ramify can read (" + format.Printable(ds[0].String()) + "); showing lines\n")
 				break
 			}
 		}

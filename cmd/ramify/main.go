@@ -67,7 +67,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 		if s := suggestCommand(args[1]); s != "" && s != args[1] {
 			msg += fmt.Sprintf("; did you mean %q?", s)
 		}
-		fmt.Fprintln(stderr, msg)
+		printLine(stderr, msg)
 		fmt.Fprintln(stderr, "run `ramify help` for the list of commands")
 		return exitUsage
 	case "version", "--version":
@@ -86,7 +86,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 		if s := suggestCommand(name); s != "" {
 			msg += fmt.Sprintf("; did you mean %q?", s)
 		}
-		fmt.Fprintln(stderr, msg)
+		printLine(stderr, msg)
 		fmt.Fprintln(stderr, "run `ramify help` for the list of commands")
 		return exitUsage
 	}
@@ -96,7 +96,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
 	fs, o := commandFlags(c)
 	if err := fs.Parse(args); err != nil {
-		fmt.Fprintf(stderr, "ramify %s: %v\n", c.name, err)
+		printLine(stderr, fmt.Sprintf("ramify %s: %v", c.name, err))
 		fmt.Fprintf(stderr, "run `ramify %s --help` for its options\n", c.name)
 		return exitUsage
 	}
