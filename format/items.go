@@ -74,6 +74,10 @@ func (s *itemSet) add(it Item, at itemPlaces) bool {
 	case len(it.ID) > MaxIDLen:
 		s.ds.Add(at.id, "item id is %d bytes long; the limit is %d", len(it.ID), MaxIDLen)
 		ok = false
+	case invisibleIn(it.ID):
+		_, r := FirstInvisible(it.ID)
+		s.ds.Add(at.id, "%s", InvisibleMessage("item id", r))
+		ok = false
 	case !ValidItemID(it.ID):
 		s.ds.Add(at.id, "%q is not a valid item id: %s", clip(it.ID), ItemIDRule)
 		ok = false
@@ -131,3 +135,5 @@ func (s *itemSet) result() ([]Item, error) {
 	}
 	return s.items, nil
 }
+
+func invisibleIn(s string) bool { _, r := FirstInvisible(s); return r >= 0 }

@@ -210,7 +210,11 @@ func parseTreeLines(file string, lines []string, start func(i int) lineCol, head
 			}
 			cat.Name = name
 			if msg := CheckCategoryName(name); msg != "" {
-				ds.Add(at(indent), "%s", msg)
+				where := indent
+				if k, _ := FirstInvisible(body); k >= 0 && strings.Contains(msg, "invisible") {
+					where += k
+				}
+				ds.Add(at(where), "%s", msg)
 			}
 			names := siblingNames[parent]
 			if names == nil {

@@ -3,6 +3,7 @@ package format
 import (
 	"crypto/sha256"
 	"encoding/hex"
+	"fmt"
 	"sort"
 	"strings"
 	"unicode"
@@ -78,7 +79,28 @@ func CheckCategoryName(name string) string {
 			return "category name contains a control character"
 		}
 	}
+	if _, r := FirstInvisible(name); r >= 0 {
+		return InvisibleMessage("category name", r)
+	}
 	return ""
+}
+
+// FirstInvisible is the byte offset and the character of the first
+// invisible or bidirectional formatting character of s (IsInvisible), or
+// -1, -1.
+func FirstInvisible(s string) (int, rune) {
+	for i, r := range s {
+		if IsInvisible(r) {
+			return i, r
+		}
+	}
+	return -1, -1
+}
+
+// InvisibleMessage says that what (an item id, a category name) holds the
+// invisible character r: two names that look the same would differ in it.
+func InvisibleMessage(what string, r rune) string {
+	return fmt.Sprintf("%s contains U+%04X, an invisible or bidirectional formatting character; names that look the same would differ in it, so it is not allowed", what, r)
 }
 
 // Sort puts the tree in canonical order, recursively: subcategories by name

@@ -453,6 +453,10 @@ func (p *Project) loadOutline() format.Diags {
 		return format.AsDiags(err, rel)
 	}
 	p.Outline, p.OutlineText = o, data
+	// Look-alike sibling names are no error (a name may mean to be what
+	// it looks like), but no reader can tell them apart: check warns,
+	// and fails under --strict.
+	p.Warnings = append(p.Warnings, format.ConfusableSiblings(rel, o.Root)...)
 	return nil
 }
 
