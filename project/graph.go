@@ -11,20 +11,36 @@ import (
 // configured source, each normalised and summed with its weight
 // (graph.Combine). Item i of the graph is p.Items[i].
 func (p *Project) Graph(seed uint64) (*graph.CSR, error) {
-	n := len(p.Items)
+	parts, err := p.sourceGraphs(seed)
+	if err != nil {
+		return nil, err
+	}
+	return p.combine(parts)
+}
+
+// sourceGraphs builds the kNN graph of each configured source, in the
+// order of the settings.
+func (p *Project) sourceGraphs(seed uint64) ([]*graph.CSR, error) {
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	var parts []*graph.CSR
-	var weights []float64
 	for _, src := range p.Settings.Similarity.Sources {
 		g, err := p.sourceGraph(b, src)
 		if err != nil {
 			return nil, fmt.Errorf("similarity source %q: %w", src.Kind, err)
 		}
 		parts = append(parts, g)
-		weights = append(weights, src.Weight)
 	}
+	return parts, nil
+}
+
+// combine sums the source graphs with the weights of the settings.
+func (p *Project) combine(parts []*graph.CSR) (*graph.CSR, error) {
 	if len(parts) == 0 {
-		return graph.FromEdges(n, nil)
+		return graph.FromEdges(len(p.Items), nil)
+	}
+	weights := make([]float64, len(parts))
+	for i, src := range p.Settings.Similarity.Sources {
+		weights[i] = src.Weight
 	}
 	return graph.Combine(parts, weights)
 }

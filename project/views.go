@@ -24,8 +24,29 @@ type View struct {
 // (head words and character grams), the head words alone and the
 // description apart, when items have both labels and descriptions. A view with no edges at all is
 // left out. all is the graph Graph(seed) returns, passed in so it is built
-// once.
+// once; GraphViews builds both and each source's graph only once.
 func (p *Project) Views(seed uint64, all *graph.CSR) ([]View, error) {
+	return p.views(seed, all, nil)
+}
+
+// GraphViews returns the views with the graph solve uses first, as Views
+// does, building each source's graph once for both the combined graph and
+// the source's own view.
+func (p *Project) GraphViews(seed uint64) ([]View, error) {
+	parts, err := p.sourceGraphs(seed)
+	if err != nil {
+		return nil, err
+	}
+	all, err := p.combine(parts)
+	if err != nil {
+		return nil, err
+	}
+	return p.views(seed, all, parts)
+}
+
+// views lists the views; parts, when not nil, are the sources' graphs
+// already built (sourceGraphs).
+func (p *Project) views(seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View, error) {
 	views := []View{{Name: "all", Graph: all}}
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	add := func(name string, g *graph.CSR, err error) error {
@@ -38,9 +59,15 @@ func (p *Project) Views(seed uint64, all *graph.CSR) ([]View, error) {
 		return nil
 	}
 	sources := p.Settings.Similarity.Sources
-	for _, src := range sources {
+	for i, src := range sources {
 		if len(sources) > 1 {
-			g, err := p.sourceGraph(b, src)
+			var g *graph.CSR
+			var err error
+			if parts != nil {
+				g = parts[i]
+			} else {
+				g, err = p.sourceGraph(b, src)
+			}
 			if err := add(src.Kind, g, err); err != nil {
 				return nil, err
 			}

@@ -40,7 +40,8 @@ type Committee struct {
 // Every tree honours c, with the limits of opt; opt.Prior and
 // opt.Stability are ignored, so that support measures the data and the
 // decisions, not the pull of the previous version. Tree b draws its
-// weights, and seeds its solve, from seed and b alone.
+// weights, and seeds its solve, from seed and b alone. opt.Progress, if
+// set, is told how many trees are done (see solveMembers).
 func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size int, seed uint64) (*Committee, error) {
 	if g == nil || g.N == 0 {
 		return nil, errors.New("review: the committee needs a non-empty graph")
@@ -48,9 +49,10 @@ func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size 
 	if size < 2 {
 		return nil, fmt.Errorf("review: a committee needs at least 2 trees, not %d", size)
 	}
+	progress := opt.Progress
 	opt.Prior, opt.Stability, opt.Progress = nil, 0, nil
 	edges := g.Edges()
-	trees, binary, err := solveMembers(size, func(b int) (*solve.Tree, *solve.Tree, error) {
+	trees, binary, err := solveMembers(size, progress, func(b int) (*solve.Tree, *solve.Tree, error) {
 		return solveReplicate(g.N, edges, c, opt, replicateSeed(seed, b))
 	})
 	if err != nil {
@@ -61,19 +63,29 @@ func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size 
 
 // solveMembers solves the committee's size members on committeeWorkers
 // goroutines, member b by solveOne(b), and returns their taxonomies and
-// binary trees in member order, or the first error.
-func solveMembers(size int, solveOne func(b int) (taxonomy, binary *solve.Tree, err error)) ([]*solve.Tree, []*solve.Tree, error) {
+// binary trees in member order, or the first error. progress, if not nil,
+// is told ("committee of trees", members done, size) after each member,
+// from one goroutine at a time.
+func solveMembers(size int, progress func(stage string, done, total int), solveOne func(b int) (taxonomy, binary *solve.Tree, err error)) ([]*solve.Tree, []*solve.Tree, error) {
 	trees := make([]*solve.Tree, size)
 	binary := make([]*solve.Tree, size)
 	errs := make([]error, size)
 	jobs := make(chan int)
 	var wg sync.WaitGroup
+	var mu sync.Mutex
+	done := 0
 	for range min(committeeWorkers, size) {
 		wg.Add(1)
 		go func() {
 			defer wg.Done()
 			for b := range jobs {
 				trees[b], binary[b], errs[b] = solveOne(b)
+				if progress != nil {
+					mu.Lock()
+					done++
+					progress("committee of trees", done, size)
+					mu.Unlock()
+				}
 			}
 		}()
 	}

@@ -6,6 +6,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/planted"
 )
 
@@ -140,6 +141,39 @@ func TestDrawOnPlantedIsDeterministicAndSpread(t *testing.T) {
 	for i := 1; i < 6; i++ {
 		if first[i].Score <= 0 {
 			t.Errorf("uncertain packet %d has score %v", i, first[i].Score)
+		}
+	}
+}
+
+// TestCommitteeTellsProgress: with opt.Progress set the committee reports
+// each finished member once, counting up to its size, and the trees are
+// those of a committee built without it.
+func TestCommitteeTellsProgress(t *testing.T) {
+	in := planted.Generate(4, 200, 3, 3)
+	g := fuzzyGraph(in, 6, 1.3, 0.8, 1)
+	var seen []int
+	opt := testOptions
+	opt.Progress = func(stage string, done, total int) {
+		if stage != "committee of trees" || total != 5 {
+			t.Errorf("progress %q %d/%d", stage, done, total)
+		}
+		seen = append(seen, done)
+	}
+	c, err := BuildViewCommittee([]*graph.CSR{g, g}, nil, opt, 5, 9)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !slices.Equal(seen, []int{1, 2, 3, 4, 5}) {
+		t.Errorf("progress counted %v, want 1 to 5", seen)
+	}
+	quiet, err := BuildViewCommittee([]*graph.CSR{g, g}, nil, testOptions, 5, 9)
+	if err != nil {
+		t.Fatal(err)
+	}
+	for i := range c.Trees {
+		a, b := c.Trees[i], quiet.Trees[i]
+		if a.Root != b.Root || !slices.EqualFunc(a.Kids, b.Kids, slices.Equal[[]int32]) {
+			t.Errorf("member %d differs with progress on", i)
 		}
 	}
 }

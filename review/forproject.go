@@ -17,23 +17,19 @@ func ProjectCommittee(p *project.Project, structure string, progress func(stage 
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	g, err := p.Graph(project.Seed)
+	views, err := p.GraphViews(project.Seed)
 	if err != nil {
 		return nil, nil, err
 	}
 	compiled := p.Compile()
 	opt := p.CommitteeOptions()
-	opt.Progress = nil
+	opt.Progress = progress
 	if progress != nil {
 		progress("committee of trees", 0, 1)
 	}
 	size := p.Settings.Review.Committee
 	if size < 2 {
 		size = DefaultCommitteeSize
-	}
-	views, err := p.Views(project.Seed, g)
-	if err != nil {
-		return nil, nil, err
 	}
 	graphs := make([]*graph.CSR, len(views))
 	for i, v := range views {

@@ -17,7 +17,8 @@ import (
 // graph reveals (co-testing: Muslea, Minton & Knoblock, JAIR 2006); the
 // bootstrap rounds add the noise of each view. Every member depends only
 // on its view, seed and number, so the committee is the same for any
-// GOMAXPROCS.
+// GOMAXPROCS. opt.Progress, if set, is told how many members are done
+// (see solveMembers); the members' own solves report nothing.
 func BuildViewCommittee(views []*graph.CSR, c *solve.Constraints, opt solve.Options, size int, seed uint64) (*Committee, error) {
 	if len(views) == 0 || views[0] == nil || views[0].N == 0 {
 		return nil, errors.New("review: the committee needs a non-empty graph")
@@ -31,12 +32,13 @@ func BuildViewCommittee(views []*graph.CSR, c *solve.Constraints, opt solve.Opti
 			return nil, fmt.Errorf("review: view %d has %d items, not %d", i, v.N, n)
 		}
 	}
+	progress := opt.Progress
 	opt.Prior, opt.Stability, opt.Progress = nil, 0, nil
 	edges := make([][]graph.Edge, len(views))
 	for i, v := range views {
 		edges[i] = v.Edges()
 	}
-	trees, binary, err := solveMembers(size, func(b int) (*solve.Tree, *solve.Tree, error) {
+	trees, binary, err := solveMembers(size, progress, func(b int) (*solve.Tree, *solve.Tree, error) {
 		v := b % len(views)
 		s := replicateSeed(seed, b)
 		if b < len(views) {
