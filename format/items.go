@@ -24,30 +24,47 @@ const (
 	TagSeparator = ";"
 )
 
+// Budget bounds how many things (items, links) a parser keeps: Left
+// more may be read; the next one is reported, with the message Over, and
+// reading stops there, before anything more is allocated.
+type Budget struct {
+	Left int
+	Over string
+}
+
+// fileItems is the budget of one items file read on its own.
+var fileItems = Budget{Left: MaxItems, Over: "more than " + grouped(MaxItems) + " items in one file"}
+
 // ParseItems reads an items file, choosing the format by its extension:
 // .toml, .tsv or .csv.
 func ParseItems(file string, data []byte) ([]Item, error) {
+	return ParseItemsWithin(file, data, fileItems)
+}
+
+// ParseItemsWithin is ParseItems keeping at most b.Left items.
+func ParseItemsWithin(file string, data []byte, b Budget) ([]Item, error) {
 	switch strings.ToLower(path.Ext(file)) {
 	case ".toml":
-		return ParseItemsTOML(file, data)
+		return parseItemsTOML(file, data, b)
 	case ".tsv":
-		return ParseItemsTable(file, data, '\t')
+		return parseItemsTable(file, data, '\t', b)
 	case ".csv":
-		return ParseItemsTable(file, data, ',')
+		return parseItemsTable(file, data, ',', b)
 	}
 	return nil, Diags{{Pos: Pos{File: file}, Msg: "items files must end in .toml, .tsv or .csv"}}
 }
 
 // itemSet collects items, checking each as it arrives.
 type itemSet struct {
-	file  string
-	items []Item
-	first map[string]int // id -> line of its first appearance
-	ds    Diags
+	file   string
+	budget Budget
+	items  []Item
+	first  map[string]int // id -> line of its first appearance
+	ds     Diags
 }
 
-func newItemSet(file string) *itemSet {
-	return &itemSet{file: file, first: map[string]int{}}
+func newItemSet(file string, b Budget) *itemSet {
+	return &itemSet{file: file, budget: b, first: map[string]int{}}
 }
 
 // itemPlaces says where each part of an item is written, for messages.
@@ -57,10 +74,10 @@ type itemPlaces struct {
 }
 
 // add checks it and keeps it if its id is usable. It reports false once
-// the file holds more items than MaxItems; the caller stops reading.
+// the file holds more items than its budget; the caller stops reading.
 func (s *itemSet) add(it Item, at itemPlaces) bool {
-	if len(s.items) >= MaxItems {
-		s.ds.Add(it.Pos, "more than %s items in one file", grouped(MaxItems))
+	if len(s.items) >= s.budget.Left {
+		s.ds.Add(it.Pos, "%s", s.budget.Over)
 		return false
 	}
 	if len(it.Tags) == 0 {

@@ -14,11 +14,15 @@ import (
 // .csv (RFC 4180 quoting). The header names the columns: id (required)
 // and any of label, tags (separated by ";") and text, in any order.
 func ParseItemsTable(file string, data []byte, sep byte) ([]Item, error) {
+	return parseItemsTable(file, data, sep, fileItems)
+}
+
+func parseItemsTable(file string, data []byte, sep byte, b Budget) ([]Item, error) {
 	text, ds := CleanText(file, data)
 	if len(ds) > 0 {
 		return nil, ds
 	}
-	t := &itemTable{set: newItemSet(file)}
+	t := &itemTable{set: newItemSet(file, b)}
 	if sep == '\t' {
 		readTSV(file, string(text), &t.set.ds, func(row *tsvRow) bool {
 			return t.row(row.Cells, func(i int) Pos { return row.pos(file, i) })

@@ -204,3 +204,24 @@ func TestParseItemsLimits(t *testing.T) {
 	_, err = ParseItems("items.json", []byte("{}"))
 	checkErrors(t, err, []string{"items.json: items files must end in .toml, .tsv or .csv"})
 }
+
+// A budget stops an items file at the first item past it, in every
+// format, with the budget's message at that item.
+func TestParseItemsWithinBudget(t *testing.T) {
+	b := Budget{Left: 2, Over: "over the budget"}
+	for file, data := range map[string]string{
+		"i.toml": "[[item]]\nid = \"a\"\n[[item]]\nid = \"b\"\n[[item]]\nid = \"c\"\n[[item]]\nid = \"d\"\n",
+		"i.tsv":  "id\na\nb\nc\nd\n",
+		"i.csv":  "id\na\nb\nc\nd\n",
+	} {
+		_, err := ParseItemsWithin(file, []byte(data), b)
+		ds, _ := err.(Diags)
+		want := map[string]int{"i.toml": 5, "i.tsv": 4, "i.csv": 4}[file]
+		if len(ds) != 1 || ds[0].Msg != "over the budget" || ds[0].Line != want {
+			t.Errorf("%s: %v; want one problem at line %d", file, err, want)
+		}
+		if items, err := ParseItemsWithin(file, []byte(data), Budget{Left: 4, Over: "x"}); err != nil || len(items) != 4 {
+			t.Errorf("%s within its budget: %d items, %v", file, len(items), err)
+		}
+	}
+}

@@ -22,11 +22,19 @@ var itemsLimits = tomlLimits{
 //	tags = ["hand", "wood"]
 //	text = "A 16 oz hammer with a curved claw for pulling nails."
 func ParseItemsTOML(file string, data []byte) ([]Item, error) {
-	doc, ds := decodeTOML(file, data, itemsLimits)
+	return parseItemsTOML(file, data, fileItems)
+}
+
+func parseItemsTOML(file string, data []byte, b Budget) ([]Item, error) {
+	// One header per item: the scan stops at the first item past the
+	// budget, before its tables are built.
+	lim := itemsLimits
+	lim.MaxHeaders, lim.TooManyHeaders, lim.MaxKeys = max(b.Left, 0), b.Over, 8*max(b.Left, 1)
+	doc, ds := decodeTOML(file, data, lim)
 	if len(ds) > 0 {
 		return nil, ds
 	}
-	set := newItemSet(file)
+	set := newItemSet(file, b)
 	set.ds = append(set.ds, unknownKeys(doc.root, []string{"item"}, "an items file", doc.rootKeyPos)...)
 	records, rds := doc.records("item")
 	set.ds = append(set.ds, rds...)

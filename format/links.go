@@ -2,6 +2,7 @@ package format
 
 import (
 	"bytes"
+	"math"
 	"strings"
 )
 
@@ -15,13 +16,15 @@ type Link struct {
 // LinkTable is a links file in columns: each distinct item id is kept once
 // in IDs, and link k joins IDs[A[k]] and IDs[B[k]] with weight Weight[k],
 // written on line Line[k] of File. A million-item file has millions of
-// rows; columns of numbers cost a quarter of the memory of one Link per row
-// and let a caller resolve each distinct id once instead of once per row.
+// rows; columns of numbers (16 bytes a link: two int32 indices, a float32
+// weight, an int32 line) cost a fraction of the memory of one Link per
+// row, let a caller resolve each distinct id once instead of once per row,
+// and go to the graph builder as they are (graph.LinkColumns).
 type LinkTable struct {
 	File   string
 	IDs    []string // in order of first appearance
 	A, B   []int32
-	Weight []float64
+	Weight []float32
 	Line   []int32
 }
 
@@ -35,13 +38,15 @@ func (t *LinkTable) Pos(k int) Pos { return Pos{t.File, int(t.Line[k]), 1} }
 func (t *LinkTable) Links() []Link {
 	out := make([]Link, t.Len())
 	for k := range out {
-		out[k] = Link{A: t.IDs[t.A[k]], B: t.IDs[t.B[k]], Weight: t.Weight[k], Pos: t.Pos(k)}
+		out[k] = Link{A: t.IDs[t.A[k]], B: t.IDs[t.B[k]], Weight: float64(t.Weight[k]), Pos: t.Pos(k)}
 	}
 	return out
 }
 
-// MaxLinks bounds the rows of a links file.
+// MaxLinks bounds the rows of a links file read on its own.
 const MaxLinks = 100_000_000
+
+var fileLinks = Budget{Left: MaxLinks, Over: "more than " + grouped(MaxLinks) + " links in one file"}
 
 // LinksHeader is the header row every links file starts with.
 const LinksHeader = "a\tb\tweight"
@@ -57,20 +62,27 @@ func ParseLinks(file string, data []byte) ([]Link, error) {
 
 // ParseLinkTable reads a links.tsv: the header "a<TAB>b<TAB>weight", then
 // one row per link with two different item ids and a finite weight above
-// 0. A pair may appear in both directions; the graph builder combines them.
+// 0, kept in single precision (so between 1.4e-45 and 3.4e38). A pair may
+// appear in both directions; the graph builder combines them.
 func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
+	return ParseLinkTableWithin(file, data, fileLinks)
+}
+
+// ParseLinkTableWithin is ParseLinkTable keeping at most b.Left links: the
+// row past them is reported and reading stops there.
+func ParseLinkTableWithin(file string, data []byte, b Budget) (*LinkTable, error) {
 	text, ds := CleanText(file, data)
 	if len(ds) > 0 {
 		return nil, ds
 	}
 	// Room for one link per line, up to a bound: a hostile file of empty
 	// rows must not make ramify reserve gigabytes up front.
-	room := min(bytes.Count(text, []byte{'\n'}), 1<<24)
+	room := min(bytes.Count(text, []byte{'\n'}), 1<<24, max(b.Left, 0))
 	t := &LinkTable{
 		File:   file,
 		A:      make([]int32, 0, room),
 		B:      make([]int32, 0, room),
-		Weight: make([]float64, 0, room),
+		Weight: make([]float32, 0, room),
 		Line:   make([]int32, 0, room),
 	}
 	ids := idTable{index: map[string]int32{}, last: [2]int32{-1, -1}}
@@ -84,8 +96,8 @@ func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
 			}
 			return true
 		}
-		if t.Len() >= MaxLinks {
-			ds.Add(row.pos(file, 0), "more than %s links in one file", grouped(MaxLinks))
+		if t.Len() >= b.Left {
+			ds.Add(row.pos(file, 0), "%s", b.Over)
 			return false
 		}
 		if len(row.Cells) != 3 {
@@ -118,6 +130,9 @@ func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
 		case w <= 0:
 			ds.Add(row.pos(file, 2), "weight %s must be greater than 0", quoteClip(strings.TrimSpace(row.Cells[2])))
 			bad = true
+		case w > math.MaxFloat32 || float32(w) == 0:
+			ds.Add(row.pos(file, 2), "weight %s is out of range: a weight is kept in single precision, between 1.4e-45 and 3.4e38", quoteClip(strings.TrimSpace(row.Cells[2])))
+			bad = true
 		}
 		if !bad && len(ds) == 0 {
 			for i, id := range [2]string{a, b} {
@@ -127,7 +142,7 @@ func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
 			}
 			t.A = append(t.A, num[0])
 			t.B = append(t.B, num[1])
-			t.Weight = append(t.Weight, w)
+			t.Weight = append(t.Weight, float32(w))
 			t.Line = append(t.Line, int32(row.Line))
 		}
 		return true

@@ -14,7 +14,7 @@ func TestParseLinks(t *testing.T) {
 	want := []Link{
 		{A: "x", B: "y", Weight: 0.5, Pos: Pos{"l.tsv", 2, 1}},
 		{A: "y", B: "x", Weight: 2, Pos: Pos{"l.tsv", 4, 1}},
-		{A: "x", B: "z", Weight: 0.001, Pos: Pos{"l.tsv", 5, 1}},
+		{A: "x", B: "z", Weight: float64(float32(0.001)), Pos: Pos{"l.tsv", 5, 1}}, // weights are kept in single precision
 	}
 	if diff := cmp.Diff(want, got); diff != "" {
 		t.Errorf("(-want +got):\n%s", diff)
@@ -57,5 +57,21 @@ func TestParseLinksErrors(t *testing.T) {
 			_, err := ParseLinks("l.tsv", []byte(tt.in))
 			checkErrors(t, err, tt.want)
 		})
+	}
+}
+
+// Weights are kept in single precision: one past its range is refused
+// at its cell rather than turned into infinity or 0.
+func TestParseLinksSinglePrecision(t *testing.T) {
+	for _, w := range []string{"1e39", "1e-46"} {
+		_, err := ParseLinks("l.tsv", []byte("a\tb\tweight\nx\ty\t"+w+"\n"))
+		ds, _ := err.(Diags)
+		if len(ds) != 1 || ds[0].Line != 2 || ds[0].Col != 5 {
+			t.Errorf("weight %s: %v; want one problem at l.tsv:2:5", w, err)
+		}
+	}
+	got, err := ParseLinks("l.tsv", []byte("a\tb\tweight\nx\ty\t3e38\n"))
+	if err != nil || got[0].Weight != float64(float32(3e38)) {
+		t.Errorf("weight 3e38: %v, %v", got, err)
 	}
 }

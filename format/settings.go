@@ -1,6 +1,7 @@
 package format
 
 import (
+	"fmt"
 	"strconv"
 	"strings"
 )
@@ -13,6 +14,7 @@ type Settings struct {
 	Taxonomy   TaxonomySettings
 	Review     ReviewSettings
 	Release    ReleaseSettings
+	Limits     LimitsSettings
 	// File is the name the settings were parsed under ("" for defaults).
 	File string
 	// KeyPos holds where each key present in the file is written, by its
@@ -95,6 +97,38 @@ type ReleaseSettings struct {
 	BaseIRI       string  // prefix of concept IRIs in the SKOS export
 }
 
+// LimitsSettings are the repository's budgets: how much a load may read
+// and keep in all, checked while reading (from file sizes before a file
+// is read, and from counts as rows and records arrive), so a pull request
+// that adds too much gets a file:line:col problem naming the setting, not
+// an out-of-memory crash.
+type LimitsSettings struct {
+	Items   int // items, over every items file
+	Links   int // rows, over every links file
+	Records int // constraint records ([[triplet]], [[group]], [[shape]]) over every constraint file
+	Bytes   int // bytes of every input file: items, vectors, links, constraints, outline
+}
+
+// The default budgets are the documented capacity, which loads and solves
+// inside the 8 GB memory target: a million items with tags and text and
+// ten million links peak at 6.5 GB resident (bench/genrepo -n 1000000
+// -text; README, "Capacity"). Records and bytes take what is left: a
+// triplet record costs about 0.5 KB from its text to the solver, and the
+// capacity's files are 0.4 GB, so a million records and 1 GiB of input
+// stay inside the target too.
+const (
+	DefaultLimitItems   = 1_000_000
+	DefaultLimitLinks   = 10_000_000
+	DefaultLimitRecords = 1_000_000
+	DefaultLimitBytes   = 1 << 30
+)
+
+// OverLimit is the problem reported where a budget is passed: what
+// passed it, the limit, and the ramify.toml setting that raises it.
+func OverLimit(what string, limit int, key string) string {
+	return fmt.Sprintf("more than %s %s in this repository; %s in %s raises the limit (its default keeps a solve inside 8 GB of memory)", grouped(limit), what, key, "ramify.toml")
+}
+
 // DefaultSettings returns the settings a repository has when ramify.toml
 // says nothing.
 func DefaultSettings() *Settings {
@@ -120,6 +154,7 @@ func DefaultSettings() *Settings {
 		// 0.10: 1 − 0.025^(1/36) = 0.0974, while 35 give 0.10003 (the
 		// review package's tests derive it with bounds.MinCleanAudits).
 		Release: ReleaseSettings{MinAudits: 36, MaxRejectRate: 0.10, BaseIRI: "https://example.org/taxonomy/"},
+		Limits:  LimitsSettings{Items: DefaultLimitItems, Links: DefaultLimitLinks, Records: DefaultLimitRecords, Bytes: DefaultLimitBytes},
 		KeyPos:  map[string]Pos{},
 	}
 }

@@ -18,13 +18,14 @@ var settingsLimits = tomlLimits{
 }
 
 var (
-	settingsSections = []string{"items", "similarity", "taxonomy", "review", "release"}
+	settingsSections = []string{"items", "similarity", "taxonomy", "review", "release", "limits"}
 	settingsKeys     = map[string][]string{
 		"items":      {"files", "vectors", "vector_ids", "vector_column"},
 		"similarity": {"neighbors", "source", "text"},
 		"taxonomy":   {"file", "min_size", "max_children", "max_depth", "stability"},
 		"review":     {"size", "audit_share", "committee"},
 		"release":    {"min_audits", "max_reject_rate", "base_iri"},
+		"limits":     {"items", "links", "records", "bytes"},
 	}
 	sourceKeys = []string{"kind", "weight", "file"}
 	textKeys   = []string{"label_heads", "label_grams", "description"}
@@ -110,6 +111,11 @@ func (r *settingsReader) section(sec string, t map[string]any) {
 		r.int(t, "release.min_audits", &s.Release.MinAudits, 1, 100_000)
 		r.float(t, "release.max_reject_rate", &s.Release.MaxRejectRate, 0, 1, true)
 		r.str(t, "release.base_iri", &s.Release.BaseIRI)
+	case "limits":
+		r.int(t, "limits.items", &s.Limits.Items, 1, 100_000_000)
+		r.int(t, "limits.links", &s.Limits.Links, 0, 1_000_000_000)
+		r.int(t, "limits.records", &s.Limits.Records, 0, 1_000_000_000)
+		r.int(t, "limits.bytes", &s.Limits.Bytes, 1, 1<<40)
 	}
 }
 

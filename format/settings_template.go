@@ -100,4 +100,20 @@ min_audits = 36
 max_reject_rate = 0.10
 # The prefix of every concept address in the SKOS export.
 base_iri = "https://example.org/taxonomy/"
+
+[limits]
+# What one repository may hold in all. A pull request that goes past one
+# gets a problem naming it, before ramify reads on; the defaults keep a
+# solve inside 8 GB of memory. Raise them for a larger taxonomy on a
+# larger machine.
+# Items over every items file.
+items = 1000000
+# Rows over every links file.
+links = 10000000
+# Constraint records over every constraint file (a shape counts as the
+# triplets it stands for).
+records = 1000000
+# Bytes of every input file ramify reads whole (items, links, vectors as
+# text, constraints, the outline).
+bytes = 1073741824
 `

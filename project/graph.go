@@ -99,14 +99,7 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 				item[k] = int32(i)
 			}
 		}
-		edges := make([]graph.Edge, 0, t.Len())
-		for k := range t.Len() {
-			a, c := item[t.A[k]], item[t.B[k]]
-			if a >= 0 && c >= 0 {
-				edges = append(edges, graph.Edge{A: a, B: c, W: t.Weight[k]})
-			}
-		}
-		return graph.Links(n, edges)
+		return graph.LinkColumns(n, item, t.A, t.B, t.Weight)
 	}
 	return nil, fmt.Errorf("unknown kind")
 }

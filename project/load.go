@@ -56,6 +56,9 @@ type Project struct {
 	// itemsBroken is set when an items file failed to parse; references
 	// to items are then not checked.
 	itemsBroken bool
+	// bytesRead counts the bytes of the text inputs read so far, against
+	// limits.bytes.
+	bytesRead int64
 }
 
 // OutlinePath is the taxonomy file's path on disk.
@@ -110,13 +113,28 @@ func (p *Project) read(rel string, limit int64, keyPos format.Pos) ([]byte, form
 	if err != nil {
 		return nil, format.Diags{{Pos: keyPos, Msg: err.Error()}}
 	}
-	data, err := format.ReadFileLimited(full, rel, limit)
+	return p.readResolved(full, rel, limit, keyPos)
+}
+
+// readResolved reads a resolved file of at most limit bytes, counting it
+// against limits.bytes from its size before anything is read.
+func (p *Project) readResolved(full, rel string, limit int64, keyPos format.Pos) ([]byte, format.Diags) {
+	budget := int64(p.Settings.Limits.Bytes)
+	if info, err := os.Stat(full); err == nil && info.Mode().IsRegular() && p.bytesRead+info.Size() > budget {
+		return nil, format.Diags{{Pos: format.Pos{File: rel, Line: 1, Col: 1}, Msg: fmt.Sprintf(
+			"this file is %d bytes, which brings the inputs read so far to %d: %s", info.Size(), p.bytesRead+info.Size(),
+			format.OverLimit("bytes of input files", int(budget), "limits.bytes"))}}
+	}
+	// The file may grow between the size and the read: the read stops at
+	// what is left of the budget too.
+	data, err := format.ReadFileLimited(full, rel, min(limit, budget-p.bytesRead))
 	if err != nil {
 		if errors.Is(err, fs.ErrNotExist) {
 			return nil, format.Diags{{Pos: keyPos, Msg: "file " + rel + " does not exist"}}
 		}
 		return nil, format.AsDiags(err, rel)
 	}
+	p.bytesRead += int64(len(data))
 	return data, nil
 }
 
@@ -163,7 +181,8 @@ func (p *Project) loadItems() format.Diags {
 			ds = append(ds, rds...)
 			continue
 		}
-		items, err := format.ParseItems(rel, data)
+		lim := p.Settings.Limits.Items
+		items, err := format.ParseItemsWithin(rel, data, format.Budget{Left: lim - len(p.Items), Over: format.OverLimit("items", lim, "limits.items")})
 		if err != nil {
 			ds = append(ds, format.AsDiags(err, rel)...)
 			continue
@@ -257,6 +276,7 @@ func (p *Project) loadVectors() format.Diags {
 
 func (p *Project) loadLinks() format.Diags {
 	var ds format.Diags
+	linksRead := 0
 	for i, src := range p.Settings.Similarity.Sources {
 		if src.Kind != "links" || src.File == "" {
 			continue
@@ -269,11 +289,13 @@ func (p *Project) loadLinks() format.Diags {
 			ds = append(ds, rds...)
 			continue
 		}
-		links, err := format.ParseLinkTable(src.File, data)
+		lim := p.Settings.Limits.Links
+		links, err := format.ParseLinkTableWithin(src.File, data, format.Budget{Left: lim - linksRead, Over: format.OverLimit("links", lim, "limits.links")})
 		if err != nil {
 			ds = append(ds, format.AsDiags(err, src.File)...)
 			continue
 		}
+		linksRead += links.Len()
 		if !p.itemsBroken {
 			ds = append(ds, p.unknownLinked(links)...)
 		}
@@ -362,6 +384,7 @@ func constraintEntries(dir string) (files []string, skipped format.Diags, err er
 
 func (p *Project) loadConstraints() format.Diags {
 	var ds format.Diags
+	recordsRead := 0
 	files, skipped, err := constraintEntries(p.Dir)
 	p.Warnings = append(p.Warnings, skipped...)
 	if err != nil {
@@ -382,11 +405,56 @@ func (p *Project) loadConstraints() format.Diags {
 			ds = append(ds, format.AsDiags(err, rel)...)
 			continue
 		}
+		if at, over := p.pastRecordBudget(cf, &recordsRead); over {
+			// The records of this file are let go, and no further file is
+			// read: what is kept stays inside the budget.
+			lim := p.Settings.Limits.Records
+			ds.Add(at, "%s", format.OverLimit("constraint records (a shape counts as the triplets it compiles to)", lim, "limits.records"))
+			return ds
+		}
 		ds = append(ds, p.checkRefs(cf)...)
 		ds = append(ds, p.shapeProblems(cf)...)
 		p.Constraints = append(p.Constraints, cf)
 	}
 	return ds
+}
+
+// pastRecordBudget adds the records of cf to *read and reports where the
+// first record past limits.records stands, if one does. A triplet or
+// group record counts one; a shape counts the triplets it compiles to
+// (at least one), which is what it costs the solver.
+func (p *Project) pastRecordBudget(cf *format.ConstraintFile, read *int) (format.Pos, bool) {
+	type cost struct {
+		at format.Pos
+		n  int
+	}
+	var costs []cost
+	for _, t := range cf.Triplets {
+		costs = append(costs, cost{t.Pos, 1})
+	}
+	for _, g := range cf.Groups {
+		costs = append(costs, cost{g.Pos, 1})
+	}
+	idx := func(id string) (int32, bool) {
+		i, ok := p.Index[id]
+		return int32(i), ok
+	}
+	for _, sh := range cf.Shapes {
+		n := int64(1)
+		if nodes := shapeNodes(sh.Tree, idx); nodes != nil {
+			n = max(n, shapeTripletCount(nodes))
+		}
+		costs = append(costs, cost{sh.Pos, int(min(n, 1<<40))})
+	}
+	sort.Slice(costs, func(i, j int) bool { return costs[i].at.Line < costs[j].at.Line })
+	lim := p.Settings.Limits.Records
+	for _, c := range costs {
+		if *read+c.n > lim {
+			return c.at, true
+		}
+		*read += c.n
+	}
+	return format.Pos{}, false
 }
 
 // checkRefs reports constraint records that name items the repository
@@ -441,12 +509,12 @@ func (p *Project) loadOutline() format.Diags {
 	if err != nil {
 		return format.Diags{{Pos: p.keyPos("taxonomy.file"), Msg: err.Error()}}
 	}
-	data, err := format.ReadFileLimited(full, rel, format.MaxOutlineBytes)
-	if errors.Is(err, fs.ErrNotExist) {
+	if _, err := os.Stat(full); errors.Is(err, fs.ErrNotExist) {
 		return nil
 	}
-	if err != nil {
-		return format.AsDiags(err, rel)
+	data, ds := p.readResolved(full, rel, format.MaxOutlineBytes, p.keyPos("taxonomy.file"))
+	if len(ds) > 0 {
+		return ds
 	}
 	o, err := format.ParseOutline(rel, data)
 	if err != nil {

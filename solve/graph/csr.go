@@ -35,12 +35,6 @@ type Edge struct {
 // long as duplicates are summed in a fixed order: they are summed in sorted
 // order of (A, B, W), so the floating-point sum is deterministic too.
 func FromEdges(n int, edges []Edge) (*CSR, error) {
-	g := &CSR{N: n, Offsets: make([]int64, n+1)}
-	// Bucket the directed edges by row (a counting sort on A), then sort
-	// each short row by (B, W): the same order as one sort of all 2m
-	// directed edges by (A, B, W), at a fraction of the cost at a million
-	// items.
-	start := make([]int64, n+1)
 	for _, e := range edges {
 		if e.A < 0 || e.B < 0 || int(e.A) >= n || int(e.B) >= n {
 			return nil, fmt.Errorf("edge %d-%d outside 0..%d", e.A, e.B, n-1)
@@ -48,11 +42,30 @@ func FromEdges(n int, edges []Edge) (*CSR, error) {
 		if math.IsNaN(e.W) || math.IsInf(e.W, 0) {
 			return nil, fmt.Errorf("edge %d-%d has weight %v", e.A, e.B, e.W)
 		}
-		if e.A == e.B || e.W <= 0 {
+	}
+	return fromEdgeFunc(n, len(edges), func(k int) (int32, int32, float64) {
+		e := edges[k]
+		return e.A, e.B, e.W
+	}), nil
+}
+
+// fromEdgeFunc is FromEdges over m edges given by edge(k), checked
+// already: vertices in range, weights finite. An edge with a vertex below
+// 0 is left out (LinkColumns marks links to unknown items so).
+func fromEdgeFunc(n, m int, edge func(k int) (a, b int32, w float64)) *CSR {
+	g := &CSR{N: n, Offsets: make([]int64, n+1)}
+	// Bucket the directed edges by row (a counting sort on A), then sort
+	// each short row by (B, W): the same order as one sort of all 2m
+	// directed edges by (A, B, W), at a fraction of the cost at a million
+	// items.
+	start := make([]int64, n+1)
+	for k := range m {
+		a, b, w := edge(k)
+		if a == b || w <= 0 || a < 0 || b < 0 {
 			continue
 		}
-		start[e.A+1]++
-		start[e.B+1]++
+		start[a+1]++
+		start[b+1]++
 	}
 	for i := 0; i < n; i++ {
 		start[i+1] += start[i]
@@ -63,14 +76,15 @@ func FromEdges(n int, edges []Edge) (*CSR, error) {
 	}
 	dir := make([]half, start[n])
 	fill := append([]int64(nil), start[:n]...)
-	for _, e := range edges {
-		if e.A == e.B || e.W <= 0 {
+	for k := range m {
+		a, b, w := edge(k)
+		if a == b || w <= 0 || a < 0 || b < 0 {
 			continue
 		}
-		dir[fill[e.A]] = half{e.B, e.W}
-		fill[e.A]++
-		dir[fill[e.B]] = half{e.A, e.W}
-		fill[e.B]++
+		dir[fill[a]] = half{b, w}
+		fill[a]++
+		dir[fill[b]] = half{a, w}
+		fill[b]++
 	}
 	fill = nil
 	less := func(x, y half) int {
@@ -112,7 +126,7 @@ func FromEdges(n int, edges []Edge) (*CSR, error) {
 	for k, h := range dir[:kept] {
 		g.Targets[k], g.Weights[k] = h.b, h.w
 	}
-	return g, nil
+	return g
 }
 
 // Neighbors returns the neighbour ids and weights of v (shared slices; do
