@@ -111,16 +111,19 @@ type LimitsSettings struct {
 
 // The default budgets are the documented capacity, which loads and solves
 // inside the 8 GB memory target: a million items with tags and text and
-// ten million links peak at 6.5 GB resident (bench/genrepo -n 1000000
-// -text; README, "Capacity"). Records and bytes take what is left: a
-// triplet record costs about 0.5 KB from its text to the solver, and the
-// capacity's files are 0.4 GB, so a million records and 1 GiB of input
-// stay inside the target too.
+// ten million links peak at 7.3 GB resident (bench/genrepo -n 1000000
+// -text; README, "Capacity"). Records and bytes leave the rest of the
+// target as headroom: the capacity's input files are 0.4 GB (items 0.18,
+// links 0.22), so 512 MiB admits them and refuses a 1 GB items file, and
+// a triplet record costs about half a kilobyte from its text to the
+// solver, so a million records take about 0.5 GB. Binary vector matrices
+// (.npy, .parquet) are read in place, not whole, and count against their
+// own per-file limit instead.
 const (
 	DefaultLimitItems   = 1_000_000
 	DefaultLimitLinks   = 10_000_000
 	DefaultLimitRecords = 1_000_000
-	DefaultLimitBytes   = 1 << 30
+	DefaultLimitBytes   = 512 << 20
 )
 
 // OverLimit is the problem reported where a budget is passed: what

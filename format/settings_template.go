@@ -115,5 +115,5 @@ links = 10000000
 records = 1000000
 # Bytes of every input file ramify reads whole (items, links, vectors as
 # text, constraints, the outline).
-bytes = 1073741824
+bytes = 536870912
 `
