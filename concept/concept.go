@@ -37,11 +37,11 @@ type Counts struct {
 // alike has the same identifier on both (it is made from the members).
 func Carry(root *format.Category, prevs ...*format.Category) Counts {
 	var counts Counts
-	cur := members(root)
+	cur := walkOrder(root)
 	taken := map[string]bool{}
 	for _, c := range cur {
-		if c.cat.ID != "" {
-			taken[c.cat.ID] = true
+		if c.ID != "" {
+			taken[c.ID] = true
 			counts.Kept++
 		}
 	}
@@ -49,30 +49,32 @@ func Carry(root *format.Category, prevs ...*format.Category) Counts {
 		if prev == nil {
 			continue
 		}
-		old := members(prev)
-		oldSets, curSets := commonSets(old, cur)
+		old := walkOrder(prev)
+		oldSets, curSets := diff.CommonSets(prev, root)
 		for _, p := range diff.MatchClusters(oldSets, curSets, naming.CarryJaccard) {
-			id := old[p.Old].cat.ID
-			if id == "" || taken[id] || cur[p.New].cat.ID != "" {
+			id := old[p.Old].ID
+			if id == "" || taken[id] || cur[p.New].ID != "" {
 				continue
 			}
-			cur[p.New].cat.ID = id
+			cur[p.New].ID = id
 			taken[id] = true
 			counts.Carried++
 		}
 		for _, c := range old {
-			if c.cat.ID != "" {
-				taken[c.cat.ID] = true
+			if c.ID != "" {
+				taken[c.ID] = true
 			}
 		}
 	}
 	for _, c := range cur {
-		if c.cat.ID != "" {
+		if c.ID != "" {
 			continue
 		}
+		members := c.AllItems()
+		slices.Sort(members)
 		for salt := 0; ; salt++ {
-			if id := format.DeriveConceptID(c.members, salt); !taken[id] {
-				c.cat.ID = id
+			if id := format.DeriveConceptID(members, salt); !taken[id] {
+				c.ID = id
 				taken[id] = true
 				break
 			}
@@ -82,72 +84,16 @@ func Carry(root *format.Category, prevs ...*format.Category) Counts {
 	return counts
 }
 
-// category is a non-root category with its members (every item below
-// it, sorted).
-type category struct {
-	cat     *format.Category
-	members []string
-}
-
-// members lists the categories below root in walk order.
-func members(root *format.Category) []category {
-	var out []category
-	var rec func(c *format.Category) []string
-	rec = func(c *format.Category) []string {
-		all := slices.Clone(c.Items)
-		for _, ch := range c.Children {
-			i := len(out)
-			out = append(out, category{cat: ch})
-			sub := rec(ch)
-			slices.Sort(sub)
-			out[i].members = sub
-			all = append(all, sub...)
+// walkOrder lists the categories below root in walk order.
+func walkOrder(root *format.Category) []*format.Category {
+	var out []*format.Category
+	root.Walk(func(c *format.Category, _ int) bool {
+		if c != root {
+			out = append(out, c)
 		}
-		return all
-	}
-	rec(root)
+		return true
+	})
 	return out
-}
-
-// commonSets turns both lists into sorted index sets over the items both
-// hold.
-func commonSets(a, b []category) (aSets, bSets [][]int32) {
-	inA := map[string]bool{}
-	for _, c := range a {
-		for _, it := range c.members {
-			inA[it] = true
-		}
-	}
-	var common []string
-	seen := map[string]bool{}
-	for _, c := range b {
-		for _, it := range c.members {
-			if inA[it] && !seen[it] {
-				seen[it] = true
-				common = append(common, it)
-			}
-		}
-	}
-	slices.Sort(common)
-	index := make(map[string]int32, len(common))
-	for i, it := range common {
-		index[it] = int32(i)
-	}
-	toSets := func(cs []category) [][]int32 {
-		out := make([][]int32, len(cs))
-		for k, c := range cs {
-			var s []int32
-			for _, it := range c.members {
-				if i, ok := index[it]; ok {
-					s = append(s, i)
-				}
-			}
-			slices.Sort(s)
-			out[k] = s
-		}
-		return out
-	}
-	return toSets(a), toSets(b)
 }
 
 // pathKey joins a display-name path for map keys.

@@ -33,26 +33,7 @@ type catShare struct {
 }
 
 func newComparison(oldRoot, newRoot *format.Category) *comparison {
-	c := &comparison{old: flatten(oldRoot), new: flatten(newRoot)}
-	// Both item lists are sorted by id: merge them.
-	a, b := c.old.items, c.new.items
-	for len(a) > 0 || len(b) > 0 {
-		switch {
-		case len(b) == 0 || len(a) > 0 && a[0].id < b[0].id:
-			c.onlyOld = append(c.onlyOld, a[0])
-			a = a[1:]
-		case len(a) == 0 || b[0].id < a[0].id:
-			c.onlyNew = append(c.onlyNew, b[0])
-			b = b[1:]
-		default:
-			c.common = append(c.common, a[0].id)
-			c.oldCat = append(c.oldCat, a[0].cat)
-			c.newCat = append(c.newCat, b[0].cat)
-			a, b = a[1:], b[1:]
-		}
-	}
-	c.old.setMembers(c.oldCat)
-	c.new.setMembers(c.newCat)
+	c := commonItems(flatten(oldRoot), flatten(newRoot))
 	// The root (id 0) takes no part in matching.
 	// Where overlaps tie exactly (a category and its only subcategory hold
 	// the same items), the pair with equal names wins.
@@ -268,4 +249,44 @@ func (c *comparison) createdAndDissolved() (created, dissolved []Path) {
 	slices.SortFunc(created, comparePaths)
 	slices.SortFunc(dissolved, comparePaths)
 	return created, dissolved
+}
+
+// commonItems pairs the items both flattened trees hold (in id order:
+// common[i] is item i) and fills each category's members with them.
+func commonItems(old, new *flatTree) *comparison {
+	c := &comparison{old: old, new: new}
+	// Both item lists are sorted by id: merge them.
+	a, b := c.old.items, c.new.items
+	for len(a) > 0 || len(b) > 0 {
+		switch {
+		case len(b) == 0 || len(a) > 0 && a[0].id < b[0].id:
+			c.onlyOld = append(c.onlyOld, a[0])
+			a = a[1:]
+		case len(a) == 0 || b[0].id < a[0].id:
+			c.onlyNew = append(c.onlyNew, b[0])
+			b = b[1:]
+		default:
+			c.common = append(c.common, a[0].id)
+			c.oldCat = append(c.oldCat, a[0].cat)
+			c.newCat = append(c.newCat, b[0].cat)
+			a, b = a[1:], b[1:]
+		}
+	}
+	c.old.setMembers(c.oldCat)
+	c.new.setMembers(c.newCat)
+	return c
+}
+
+// CommonSets lists, for every category below each root in walk order, the
+// items below it that both trees hold in some category (items placed in a
+// root itself do not count), as ascending indices into those items sorted
+// by id: the sets MatchClusters compares. Each item is looked at once per
+// tree, not once per category that holds it.
+func CommonSets(oldRoot, newRoot *format.Category) (oldSets, newSets [][]int32) {
+	inRoot := func(it placedItem) bool { return it.cat == 0 }
+	old, new := flatten(oldRoot), flatten(newRoot)
+	old.items = slices.DeleteFunc(old.items, inRoot)
+	new.items = slices.DeleteFunc(new.items, inRoot)
+	c := commonItems(old, new)
+	return c.old.members[1:], c.new.members[1:]
 }

@@ -109,13 +109,19 @@ func AssignTyped(root, prev *format.Category, fixed []Fixed, typed []Typed, word
 	}
 
 	if prev != nil {
-		old := categories(prev)
-		newSets, oldSets := commonSets(cats, old)
+		var old []*format.Category
+		prev.Walk(func(c *format.Category, _ int) bool {
+			if c != prev {
+				old = append(old, c)
+			}
+			return true
+		})
+		oldSets, newSets := diff.CommonSets(prev, root)
 		for _, p := range diff.MatchClusters(oldSets, newSets, CarryJaccard) {
 			if claims[p.New] != claimNone {
 				continue
 			}
-			from := old[p.Old].cat
+			from := old[p.Old]
 			cats[p.New].cat.Name, cats[p.New].cat.Provisional = from.Name, from.Provisional
 			claims[p.New] = claimCarried
 			if from.Provisional {
@@ -256,48 +262,4 @@ func setKey(items []string) string {
 	slices.Sort(s)
 	s = slices.Compact(s)
 	return strings.Join(s, "\x00")
-}
-
-// commonSets turns both trees' member lists into sorted index sets over
-// the items they share, for the matching.
-func commonSets(cur, old []category) (curSets, oldSets [][]int32) {
-	inOld := map[string]bool{}
-	for _, c := range old {
-		for _, it := range c.members {
-			inOld[it] = true
-		}
-	}
-	index := map[string]int32{}
-	for _, c := range cur {
-		for _, it := range c.members {
-			if inOld[it] {
-				index[it] = 0
-			}
-		}
-	}
-	ids := make([]string, 0, len(index))
-	for it := range index {
-		ids = append(ids, it)
-	}
-	slices.Sort(ids)
-	for i, it := range ids {
-		index[it] = int32(i)
-	}
-	toSet := func(members []string) []int32 {
-		var s []int32
-		for _, it := range members {
-			if i, ok := index[it]; ok {
-				s = append(s, i)
-			}
-		}
-		slices.Sort(s)
-		return s
-	}
-	for _, c := range cur {
-		curSets = append(curSets, toSet(c.members))
-	}
-	for _, c := range old {
-		oldSets = append(oldSets, toSet(c.members))
-	}
-	return curSets, oldSets
 }
