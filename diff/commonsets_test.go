@@ -6,6 +6,8 @@ import (
 	"slices"
 	"testing"
 
+	"github.com/google/go-cmp/cmp"
+
 	"github.com/ramify-tax/ramify/format"
 )
 
@@ -94,6 +96,25 @@ func TestCommonSetsMatchesDefinition(t *testing.T) {
 		}
 		if !eq(gotOld, wantOld) || !eq(gotNew, wantNew) {
 			t.Fatalf("seed %d: CommonSets differs from the definition", seed)
+		}
+	}
+}
+
+// TestCompareChangesIsCompareWithoutMetrics: on random trees and edits,
+// CompareChanges reports every change Compare does and leaves the metrics
+// out.
+func TestCompareChangesIsCompareWithoutMetrics(t *testing.T) {
+	for seed := range uint64(8) {
+		rng := rand.New(rand.NewPCG(seed, 9))
+		old := genTaxonomy(rng, 300, 2, 4)
+		cur := perturb(rng, old, 0.2, 2)
+		full, changes := Compare(old, cur), CompareChanges(old, cur)
+		if !cmp.Equal(changes.Metrics, Metrics{}) {
+			t.Fatalf("seed %d: CompareChanges filled the metrics", seed)
+		}
+		full.Metrics = Metrics{}
+		if !cmp.Equal(full, changes, cmp.AllowUnexported(Report{})) {
+			t.Fatalf("seed %d: CompareChanges differs from Compare: %s", seed, cmp.Diff(full, changes, cmp.AllowUnexported(Report{})))
 		}
 	}
 }

@@ -177,6 +177,20 @@ const (
 //   - Metrics: the trees restricted to the common items, indexed by
 //     sorted id, categories left empty dropped.
 func Compare(old, new *format.Category) *Report {
+	r, c := compareChanges(old, new)
+	r.Metrics = c.metrics()
+	return r
+}
+
+// CompareChanges is Compare without the tree metrics (Metrics is left
+// zero): what moved, was added, removed, renamed, split, merged, created
+// and dissolved, for a caller that only reports those.
+func CompareChanges(old, new *format.Category) *Report {
+	r, _ := compareChanges(old, new)
+	return r
+}
+
+func compareChanges(old, new *format.Category) (*Report, *comparison) {
 	c := newComparison(old, new)
 	r := &Report{
 		Added:     c.added(),
@@ -188,6 +202,5 @@ func Compare(old, new *format.Category) *Report {
 	r.all, r.Moved, r.MovedCategories = c.moved()
 	r.Split, r.Merged = c.splitsAndMerges()
 	r.Created, r.Dissolved = c.createdAndDissolved()
-	r.Metrics = c.metrics()
-	return r
+	return r, c
 }

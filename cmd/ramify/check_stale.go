@@ -15,7 +15,7 @@ import (
 // are the same, in the words of the file: the order of its lines, or its
 // header.
 func staleReason(committed *format.Category, committedText []byte, fresh *format.Category, freshText []byte) string {
-	rep := diff.Compare(committed, fresh)
+	rep := diff.CompareChanges(committed, fresh)
 	var parts []string
 	items, cats := movesReport(rep)
 	if len(items)+len(cats) > 0 {

@@ -169,7 +169,7 @@ func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *fo
 	}
 	moved, movedCats := []string{}, []categoryMoveJSON{}
 	if prev != nil {
-		rep := diff.Compare(prev, sol.Root)
+		rep := diff.CompareChanges(prev, sol.Root)
 		moved, movedCats = movesReport(rep)
 		e.report["added"] = len(rep.Added)
 		e.report["removed"] = len(rep.Removed)

@@ -42,7 +42,28 @@ func Combine(parts []*CSR, weights []float64) (*CSR, error) {
 		}
 	}
 
-	out := &CSR{N: n, Offsets: make([]int64, n+1)}
+	room := 0
+	for _, g := range parts {
+		room += len(g.Targets)
+	}
+	out := &CSR{N: n, Offsets: make([]int64, n+1), Targets: make([]int32, 0, room), Weights: make([]float64, 0, room)}
+	if len(parts) == 1 {
+		// One source: its graph rescaled, with the weights the merge
+		// below would sum (0 + x is x).
+		g, sc := parts[0], scale[0]
+		if sc > 0 {
+			for i := 0; i < n; i++ {
+				for e := g.Offsets[i]; e < g.Offsets[i+1]; e++ {
+					if w := float64(sc * g.Weights[e]); w > 0 {
+						out.Targets = append(out.Targets, g.Targets[e])
+						out.Weights = append(out.Weights, w)
+					}
+				}
+				out.Offsets[i+1] = int64(len(out.Targets))
+			}
+		}
+		return out, nil
+	}
 	heads := make([]int64, len(parts))
 	for i := 0; i < n; i++ {
 		for p, g := range parts {

@@ -2,6 +2,7 @@ package graph
 
 import (
 	"math"
+	"slices"
 	"testing"
 )
 
@@ -139,5 +140,30 @@ func TestRecall(t *testing.T) {
 	}
 	if r := Recall(approx, mustEdges(t, 4, nil)); r != 1 {
 		t.Errorf("recall of an empty graph %v, want 1", r)
+	}
+}
+
+// TestCombineOnePartAsMerged: one source takes a shortcut past the merge
+// of rows; it gives the graph the merge gives when an empty part (which
+// the merge skips) stands beside it, bit for bit.
+func TestCombineOnePartAsMerged(t *testing.T) {
+	var edges []Edge
+	for i := range int32(40) {
+		for j := i + 1; j < 40; j += 1 + i%5 {
+			edges = append(edges, Edge{i, j, 0.1 + float64((i*7+j*3)%11)/3})
+		}
+	}
+	g := mustEdges(t, 40, edges)
+	one, err := Combine([]*CSR{g}, []float64{0.7})
+	if err != nil {
+		t.Fatal(err)
+	}
+	merged, err := Combine([]*CSR{g, mustEdges(t, 40, nil)}, []float64{0.7, 1})
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkGraph(t, one)
+	if !slices.Equal(one.Offsets, merged.Offsets) || !slices.Equal(one.Targets, merged.Targets) || !slices.Equal(one.Weights, merged.Weights) {
+		t.Error("one part combined differs from the merge")
 	}
 }
