@@ -8,6 +8,7 @@ import (
 	"os"
 	"path"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strconv"
 	"strings"
@@ -187,6 +188,11 @@ func (p *Project) loadItems() format.Diags {
 			ds = append(ds, format.AsDiags(err, rel)...)
 			continue
 		}
+		if len(p.Settings.Items.Files) == 1 {
+			// The parser has refused an id given twice within one file.
+			p.Items = items
+			continue
+		}
 		for _, it := range items {
 			if prev, dup := firstSeen[it.ID]; dup {
 				ds.Add(it.Pos, "item %q is defined twice (first at %s)", it.ID, prev)
@@ -198,11 +204,20 @@ func (p *Project) loadItems() format.Diags {
 	}
 	// Everything downstream works on item indices; in id order they, and
 	// so every output, do not depend on the order of the lines or on how
-	// the items are split over files.
-	sort.Slice(p.Items, func(i, j int) bool { return p.Items[i].ID < p.Items[j].ID })
-	for i, it := range p.Items {
-		p.Index[it.ID] = i
+	// the items are split over files. Ids are distinct, so the order is
+	// the same by any sort; sorting positions moves less than items.
+	order := make([]int32, len(p.Items))
+	for i := range order {
+		order[i] = int32(i)
 	}
+	slices.SortFunc(order, func(a, b int32) int { return strings.Compare(p.Items[a].ID, p.Items[b].ID) })
+	sorted := make([]format.Item, len(p.Items))
+	p.Index = make(map[string]int, len(p.Items))
+	for i, k := range order {
+		sorted[i] = p.Items[k]
+		p.Index[sorted[i].ID] = i
+	}
+	p.Items = sorted
 	return ds
 }
 
