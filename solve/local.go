@@ -415,32 +415,16 @@ func (r *repairer) candidatesNear(ix *treeIndex, u unit, near []int32) []spot {
 	for _, x := range u.items {
 		targets, _ := r.g.Neighbors(int(x))
 		for _, y := range targets {
-			if !r.t.placed(y) || ix.inUnit(u, y) {
-				continue
-			}
-			for v := y; v >= 0; v = r.t.parent[v] {
-				if !r.t.isLeaf(v) {
-					add(spot{v, false})
-				}
-				if v != r.t.root {
-					add(spot{v, true})
-				}
+			if r.t.placed(y) && !ix.inUnit(u, y) {
+				addPath(y)
 			}
 		}
 		// The root paths of items a record ties to x are places too, even
 		// with no edge: a record may need x exactly where those items meet.
 		for _, k := range r.touch[x] {
 			for _, y := range r.constraintItems(k) {
-				if !r.t.placed(y) || ix.inUnit(u, y) {
-					continue
-				}
-				for v := y; v >= 0; v = r.t.parent[v] {
-					if !r.t.isLeaf(v) {
-						add(spot{v, false})
-					}
-					if v != r.t.root {
-						add(spot{v, true})
-					}
+				if r.t.placed(y) && !ix.inUnit(u, y) {
+					addPath(y)
 				}
 			}
 		}

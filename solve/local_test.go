@@ -10,23 +10,7 @@ import (
 // leafParents maps every reachable leaf to the sorted leaf set of its
 // parent, as a string, so that two trees can be compared by where each
 // item sits.
-func leafHomes(t *Tree) map[int32]string {
-	parent := t.Parents()
-	out := map[int32]string{}
-	for _, v := range t.PostOrder() {
-		if !t.IsLeaf(v) {
-			continue
-		}
-		ls := t.Leaves(parent[v])
-		slices.Sort(ls)
-		key := make([]byte, 0, 4*len(ls))
-		for _, l := range ls {
-			key = append(key, byte(l), byte(l>>8), ',')
-		}
-		out[v] = string(key)
-	}
-	return out
-}
+func leafHomes(t *Tree) map[int32]string { return homesWithout(t, nil) }
 
 // homesWithout is leafHomes with the items of skip left out of every
 // category: an item keeps its home when only those came or went.
