@@ -180,6 +180,7 @@ func parseConcepts(file string, data []byte, root *Category) Diags {
 		ds.Add(countPos, "the concept block counts %d identifiers but holds %d lines; an edit lost or added one — restore the block from git (`git diff` shows it)", count, len(lines))
 	}
 	if len(ds) > 0 {
+		ds.Sort() // the missing count line is found last but told at the first line
 		return ds
 	}
 	bindConcepts(root, lines)
@@ -213,8 +214,18 @@ func bindConcepts(root *Category, lines []conceptLine) {
 		}
 		return false
 	}
+	// Among categories with equal members (a category and its only
+	// subcategory), the one at the line's path comes first.
 	for li, l := range lines {
-		take(byMembers[l.members], li)
+		var samePath []int
+		for _, i := range byMembers[l.members] {
+			if rows[i].path == l.path {
+				samePath = append(samePath, i)
+			}
+		}
+		if !take(samePath, li) {
+			take(byMembers[l.members], li)
+		}
 	}
 	for li, l := range lines {
 		if !used[li] {
