@@ -9,7 +9,7 @@ import (
 
 // TestAUC checks the rank statistic on cases worked by hand: perfect and
 // reversed separation, all ties, and one of four positive–negative pairs
-// out of order (Hanley & McNeil 1982: AUC = U / (n₊ n₋)).
+// out of order (Hanley & McNeil 1982: AUC = U / (n₊ n₋)), and NaN scores.
 func TestAUC(t *testing.T) {
 	for _, c := range []struct {
 		score []float64
@@ -22,6 +22,9 @@ func TestAUC(t *testing.T) {
 		{[]float64{0.9, 0.3, 0.5, 0.1}, []bool{true, true, false, false}, 0.75},
 		{[]float64{0.5, 0.5, 0.1}, []bool{true, false, false}, 0.75},
 		{[]float64{0.3, 0.2}, []bool{true, true}, 0.5},
+		// NaN ranks lowest: the positive at 0.5 beats both negatives.
+		{[]float64{math.NaN(), 0.5, math.NaN()}, []bool{false, true, false}, 1},
+		{[]float64{math.NaN(), math.NaN(), 0.1}, []bool{true, false, false}, 0.25},
 	} {
 		if got := AUC(c.score, c.pos); math.Abs(got-c.want) > 1e-12 {
 			t.Errorf("AUC(%v, %v) = %v, want %v", c.score, c.pos, got, c.want)

@@ -1,6 +1,7 @@
 package loop
 
 import (
+	"cmp"
 	"slices"
 
 	"github.com/ramify-tax/ramify/solve"
@@ -118,18 +119,18 @@ func (rc roundCounts) misplaced() []bool {
 // AUC is the area under the ROC curve of score for predicting positive:
 // the probability that a random positive scores above a random negative,
 // ties counting one half (the Mann–Whitney U statistic over n₊·n₋; Hanley
-// & McNeil, Radiology 1982). It is 0.5 when either class is empty.
+// & McNeil, Radiology 1982). It is 0.5 when either class is empty. A NaN
+// score ranks below every number, tied with any other NaN.
 func AUC(score []float64, positive []bool) float64 {
 	idx := make([]int, len(score))
 	for i := range idx {
 		idx[i] = i
 	}
+	// cmp.Compare puts a NaN below every number and equal to another NaN,
+	// so an undefined score ranks lowest instead of breaking the order.
 	slices.SortFunc(idx, func(a, b int) int {
-		switch {
-		case score[a] < score[b]:
-			return -1
-		case score[a] > score[b]:
-			return 1
+		if c := cmp.Compare(score[a], score[b]); c != 0 {
+			return c
 		}
 		return a - b
 	})
@@ -137,8 +138,8 @@ func AUC(score []float64, positive []bool) float64 {
 	var pos, neg int
 	rankSum := 0.0
 	for i := 0; i < len(idx); {
-		j := i
-		for j < len(idx) && score[idx[j]] == score[idx[i]] {
+		j := i + 1
+		for j < len(idx) && cmp.Compare(score[idx[j]], score[idx[i]]) == 0 {
 			j++
 		}
 		mean := float64(i+j+1) / 2 // ranks i+1 .. j
