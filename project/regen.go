@@ -50,8 +50,10 @@ type Solution struct {
 	// Reason says why it was rebuilt.
 	Mode, Reason string
 	// Placed counts the items a local re-solve took out and put back;
-	// Regions the sizes of the subtrees it had to re-solve whole.
+	// Joined the categories it added over existing ones; Regions the
+	// sizes of the subtrees it had to re-solve whole.
 	Placed  int
+	Joined  int
 	Regions []int
 }
 
@@ -154,8 +156,8 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 		if err != nil {
 			return nil, err
 		}
-		sol.Mode, sol.Placed, sol.Regions = ModeLocal, rep.Placed, rep.Regions
-		if rep.Placed == 0 {
+		sol.Mode, sol.Placed, sol.Joined, sol.Regions = ModeLocal, rep.Placed, rep.Joined, rep.Regions
+		if rep.Placed == 0 && rep.Joined == 0 {
 			sol.Mode = ModeKept
 		}
 		if rep.Rebuilt {

@@ -27,6 +27,9 @@ type RepairReport struct {
 	// Placed counts the items that were taken out and put back (new
 	// items, items the records name, items freed by removed records).
 	Placed int
+	// Joined counts the categories Repair added over existing ones to
+	// mend a record without moving items (see wrap).
+	Joined int
 	// Regions lists the subtrees Repair had to re-solve because no single
 	// placement could satisfy the records, by their leaf counts.
 	Regions []int
@@ -131,8 +134,9 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 			}
 		}
 	}
-	// Broken triplets: move the fewest items that mend them; where that
-	// fails, take out every item they name and place them as before.
+	// Broken triplets: move the fewest items that mend them, or else join
+	// categories under a new one (wrap); where both fail, take out every
+	// item they name and place them as before.
 	var late []int32
 	for _, s := range r.brokenRecords() {
 		if !slices.ContainsFunc(s.records, func(rs recordShape) bool { return ch.Whole[rs.record] }) {
@@ -146,6 +150,12 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 					continue
 				}
 			}
+		}
+		// A star where a record wants a split: a new category mends it
+		// without moving an item out of its category.
+		if _, ok := r.wrap(s); ok {
+			rep.Joined++
+			continue
 		}
 		for _, x := range s.items {
 			stay[x], out[x] = true, true

@@ -48,6 +48,22 @@ type recordShape struct {
 	clusters [][]int32
 }
 
+// outside lists the record's items outside its category cl that are not
+// gone, and reports whether some outside item is gone.
+func (rs recordShape) outside(cl []int32, gone func(int32) bool) (placed []int32, someGone bool) {
+	for _, y := range rs.items {
+		if _, in := slices.BinarySearch(cl, y); in {
+			continue
+		}
+		if gone(y) {
+			someGone = true
+			continue
+		}
+		placed = append(placed, y)
+	}
+	return placed, someGone
+}
+
 // brokenSet is a set of broken records that share placed items, and
 // those items, sorted.
 type brokenSet struct {
@@ -221,15 +237,8 @@ func (r *repairer) breach(tv treeView, rs recordShape, gone func(int32) bool) ([
 		if inside < 2 {
 			continue
 		}
-		outsideGone := false
-		for _, y := range rs.items {
-			if _, in := slices.BinarySearch(cl, y); in {
-				continue
-			}
-			if gone(y) {
-				outsideGone = true
-				continue
-			}
+		outside, outsideGone := rs.outside(cl, gone)
+		for _, y := range outside {
 			if tv.isAncestor(lca, y) {
 				return [3]int32{first, last, y}, true
 			}

@@ -181,6 +181,7 @@ func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *fo
 		e.report["rebuild_reason"] = sol.Reason
 	}
 	e.report["placed"] = sol.Placed
+	e.report["joined"] = sol.Joined
 	e.report["seconds"] = roundSig(sol.Seconds, 3)
 }
 
@@ -203,11 +204,18 @@ func printSolveReport(e *env, p *project.Project, sol *project.Solution) {
 	case project.ModeRebuild:
 		e.say("  solved       from scratch: %s", sol.Reason)
 	case project.ModeLocal:
-		how := "placed where the change forces"
-		if len(sol.Regions) > 0 {
-			how += fmt.Sprintf(", %s re-solved whole", plural(len(sol.Regions), "subtree", "subtrees"))
+		var done []string
+		if sol.Placed > 0 {
+			how := "placed where the change forces"
+			if len(sol.Regions) > 0 {
+				how += fmt.Sprintf(", %s re-solved whole", plural(len(sol.Regions), "subtree", "subtrees"))
+			}
+			done = append(done, fmt.Sprintf("%s (%s)", plural(sol.Placed, "item", "items"), how))
 		}
-		e.say("  solved       locally: %s (%s)", plural(sol.Placed, "item", "items"), how)
+		if sol.Joined > 0 {
+			done = append(done, plural(sol.Joined, "new category", "new categories")+" over existing ones, no item moved out of its category")
+		}
+		e.say("  solved       locally: %s", strings.Join(done, "; "))
 	case project.ModeKept:
 		e.say("  solved       locally: nothing forced a change")
 	}
