@@ -129,7 +129,7 @@ func hiddenTarget(t *testing.T, dir string) *format.Category {
 // arrangement.
 func answerFromHiddenTarget(t *testing.T, dir string, target *format.Category) {
 	t.Helper()
-	if _, _, err := loop.AnswerOpen(dir, target); err != nil {
+	if _, err := loop.AnswerOpen(dir, target); err != nil {
 		t.Fatal(err)
 	}
 }

@@ -62,6 +62,10 @@ type Round struct {
 	// Repaired and Broken count the triples the reference resolves that
 	// the round's solve turned right and wrong.
 	Repaired, Broken int
+	// Resolved is the mean number of its triples the reference resolves,
+	// over the round's packets: what an answer can teach (a packet inside
+	// one flat category of the reference teaches nothing).
+	Resolved float64
 	// AUC is how well the committee's per-item uncertainty on the tree
 	// the round started from predicts the items misplaced in it (those
 	// whose triples are wrong more often than the tree's overall).
@@ -96,11 +100,11 @@ func Run(cfg Config) ([]Round, error) {
 		if _, err := cfg.Run("review", "draw", "--dir", dir, "--count", fmt.Sprint(cfg.Count), "--date", date, "--quiet"); err != nil {
 			return nil, err
 		}
-		answered, fixed, err := AnswerOpen(dir, cfg.Set.Reference)
+		ans, err := AnswerOpen(dir, cfg.Set.Reference)
 		if err != nil {
 			return nil, err
 		}
-		packets += answered
+		packets += ans.Answered
 		if _, err := cfg.Run("absorb", "--dir", dir, "--date", date, "--quiet"); err != nil {
 			return nil, err
 		}
@@ -113,8 +117,8 @@ func Run(cfg Config) ([]Round, error) {
 		}
 		rc := compareTriples(ref, tree, next)
 		prec, rec := diff.TripletScores(next, ref)
-		rounds = append(rounds, Round{Round: r, Packets: packets, Fixed: fixed, Precision: prec, Recall: rec, F1: f1(prec, rec),
-			Repaired: rc.repaired, Broken: rc.broken})
+		rounds = append(rounds, Round{Round: r, Packets: packets, Fixed: ans.Fixed, Precision: prec, Recall: rec, F1: f1(prec, rec),
+			Repaired: rc.repaired, Broken: rc.broken, Resolved: ans.resolvedPerPacket()})
 		p, tree = np, next
 	}
 	auc, err := uncertaintyAUC(p, tree, ref)
@@ -193,24 +197,40 @@ func uncertaintyAUC(p *project.Project, tree, ref *solve.Tree) (float64, error) 
 	return AUC(score, rc.misplaced()), nil
 }
 
+// Answers is what AnswerOpen did.
+type Answers struct {
+	Answered, Fixed int
+	// Resolved sums, over the answered packets, the triples of each
+	// packet's items that the reference resolves.
+	Resolved int
+}
+
+func (a Answers) resolvedPerPacket() float64 {
+	if a.Answered == 0 {
+		return 0
+	}
+	return float64(a.Resolved) / float64(a.Answered)
+}
+
 // AnswerOpen answers every pending open packet as a reviewer who knows
 // the reference would: "ok" when the packet already arranges its items as
 // the reference restricted to them does, else "fixed" with that
-// arrangement. It returns the packets answered and how many were fixed.
-func AnswerOpen(dir string, ref *format.Category) (answered, fixed int, err error) {
+// arrangement.
+func AnswerOpen(dir string, ref *format.Category) (Answers, error) {
+	var a Answers
 	files, err := filepath.Glob(filepath.Join(dir, review.OpenDir, "*.outline"))
 	if err != nil {
-		return 0, 0, err
+		return a, err
 	}
 	slices.Sort(files)
 	for _, f := range files {
 		data, err := os.ReadFile(f)
 		if err != nil {
-			return 0, 0, err
+			return a, err
 		}
 		pk, err := format.ParsePacket(f, data)
 		if err != nil {
-			return 0, 0, err
+			return a, err
 		}
 		if pk.Verdict != format.VerdictPending {
 			continue
@@ -221,12 +241,50 @@ func AnswerOpen(dir string, ref *format.Category) (answered, fixed int, err erro
 		if !review.SameShape(pk.Tree, want) {
 			pk.Verdict = format.VerdictFixed
 			pk.Tree = want
-			fixed++
+			a.Fixed++
 		}
-		answered++
+		a.Answered++
+		a.Resolved += resolvedTriples(want)
 		if err := os.WriteFile(f, format.FormatPacket(pk), 0o644); err != nil {
-			return 0, 0, err
+			return a, err
 		}
 	}
-	return answered, fixed, nil
+	return a, nil
+}
+
+// resolvedTriples counts the triples of a tree's items that it resolves:
+// one pair's lowest common category lies strictly below the other two's.
+func resolvedTriples(root *format.Category) int {
+	var paths [][]*format.Category // each item's categories, root first
+	var walk func(c *format.Category, above []*format.Category)
+	walk = func(c *format.Category, above []*format.Category) {
+		here := append(slices.Clip(above), c)
+		for range c.Items {
+			paths = append(paths, here)
+		}
+		for _, k := range c.Children {
+			walk(k, here)
+		}
+	}
+	walk(root, nil)
+	common := func(a, b []*format.Category) int {
+		k := 0
+		for k < len(a) && k < len(b) && a[k] == b[k] {
+			k++
+		}
+		return k
+	}
+	count := 0
+	for i := range paths {
+		for j := i + 1; j < len(paths); j++ {
+			ij := common(paths[i], paths[j])
+			for k := j + 1; k < len(paths); k++ {
+				ik, jk := common(paths[i], paths[k]), common(paths[j], paths[k])
+				if ij > max(ik, jk) || ik > max(ij, jk) || jk > max(ij, ik) {
+					count++
+				}
+			}
+		}
+	}
+	return count
 }

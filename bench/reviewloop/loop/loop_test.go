@@ -4,6 +4,7 @@ import (
 	"math"
 	"testing"
 
+	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/solve"
 )
 
@@ -51,5 +52,27 @@ func TestCompareTriples(t *testing.T) {
 	}
 	if rc := compareTriples(ref, crossed, crossed); rc.wrongWith[0] != 3 || rc.triplesWith[0] != 3 {
 		t.Errorf("crossed: leaf 0 is in 3 wrong triples of 3, got %d of %d", rc.wrongWith[0], rc.triplesWith[0])
+	}
+}
+
+// TestResolvedTriples counts by hand: ((a b) (c d)) resolves all four
+// triples, ((a b) c d) the two that hold a and b, the star none.
+func TestResolvedTriples(t *testing.T) {
+	for _, c := range []struct {
+		outline string
+		want    int
+	}{
+		{"A/\n  a\n  b\nB/\n  c\n  d\n", 4},
+		{"A/\n  a\n  b\nc\nd\n", 2},
+		{"a\nb\nc\nd\n", 0},
+		{"A/\n  a\n  B/\n    b\n    c\nd\ne\n", 3 + 3 + 1},
+	} {
+		o, err := format.ParseOutline("t", []byte("# ramify outline 1\n"+c.outline))
+		if err != nil {
+			t.Fatal(err)
+		}
+		if got := resolvedTriples(o.Root); got != c.want {
+			t.Errorf("resolvedTriples(%q) = %d, want %d", c.outline, got, c.want)
+		}
 	}
 }
