@@ -50,6 +50,10 @@ type RepairReport struct {
 //     least among the places that keep every record whose items are all
 //     placed, or stays where it was when that place is allowed and costs at
 //     most a factor (1 + opt.Stability) of the best;
+//   - a triplet record or shape prev breaks is mended by moving the
+//     fewest items (mend), or else, when the tree leaves it as a star
+//     where it wants a split, by a new category over the categories that
+//     hold its items (wrap), which moves no item out of its category;
 //   - a unit with no allowed place makes Repair re-solve the smallest
 //     subtree that holds every item its records name (the solver with the
 //     region's old categories as prior), widened past categories a group
