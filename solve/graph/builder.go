@@ -18,9 +18,10 @@ const (
 )
 
 const (
-	// ExactLimit is the largest n SearchAuto searches exactly; METHODS 1.3
-	// estimates exact search comfortable up to 10–20k items on two cores,
-	// and the benchmarks measure it.
+	// ExactLimit is the largest n SearchAuto searches exactly. It is a
+	// rough estimate, not a published figure, of where exact search stops
+	// being comfortable on two cores (10–20k items); the benchmarks
+	// measure it.
 	ExactLimit = 20000
 	// AllPairsLimit is the largest n for which k = 0 (keep every pair with
 	// a positive similarity) is allowed: its memory is O(n²).

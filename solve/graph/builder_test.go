@@ -6,7 +6,8 @@ import (
 )
 
 func TestSearchPolicy(t *testing.T) {
-	// DESIGN 8 step 1 / METHODS 1.3: exact for small n, approximate beyond;
+	// The project's choice: exact search for small n, NN-Descent (Dong,
+	// Charikar & Li, WWW 2011) beyond;
 	// all pairs and k ≥ n-1 are always exact.
 	tests := []struct {
 		search Search

@@ -9,7 +9,8 @@ import (
 
 // TestSameGraphOnAnyGOMAXPROCS builds every source, exact and approximate,
 // with one, two and three threads and requires bit-identical graphs
-// (METHODS 11: fixed chunking and combine order).
+// (work is split into fixed chunks and combined in a fixed order, so no
+// floating-point sum depends on the number of threads).
 func TestSameGraphOnAnyGOMAXPROCS(t *testing.T) {
 	const n = 3000
 	vals := clusteredVectors(n, 8, 10, 31)

@@ -70,7 +70,8 @@ func TestVectorsGaussianMatchesBruteForce(t *testing.T) {
 	values := withConstantColumn(clusteredVectors(n, dim, 4, 12), n, dim)
 	z := gonumZScores(values, n, dim+1)
 	// Reference distances via gonum v0.17.0 floats.Distance(·, ·, 2); σ_i is
-	// the distance to the 7th nearest other item (METHODS 1.1).
+	// the distance to the 7th nearest other item (the local scaling of
+	// Zelnik-Manor & Perona, "Self-tuning spectral clustering", NIPS 2004).
 	dist := func(i, j int) float64 { return floats.Distance(z[i], z[j], 2) }
 	sigma := make([]float64, n)
 	for i := range sigma {
@@ -100,7 +101,7 @@ func TestVectorsGaussianMatchesBruteForce(t *testing.T) {
 	}
 }
 
-// refTagCosine is METHODS 1.1's IDF-weighted tag cosine written out
+// refTagCosine is the IDF-weighted cosine of binary tag vectors written out
 // directly: cos = Σ_{t∈A∩B} u_t² / (‖u_A‖·‖u_B‖), u_t = ln(N/df_t), 0 for a
 // zero vector. Empty tag names are ignored, as Tags documents.
 func refTagCosine(tags [][]string) func(i, j int) float64 {
@@ -143,7 +144,8 @@ func refTagCosine(tags [][]string) func(i, j int) float64 {
 	}
 }
 
-// refTextCosine is textbook TF-IDF (raw tf × ln(N/df), METHODS 1.1)
+// refTextCosine is textbook TF-IDF (raw tf × ln(N/df); Salton & Buckley,
+// "Term-weighting approaches in automatic text retrieval", 1988)
 // written out with maps over the same tokens Text uses.
 func refTextCosine(texts []string) func(i, j int) float64 {
 	n := len(texts)
@@ -250,7 +252,7 @@ func TestTextMatchesBruteForce(t *testing.T) {
 func TestTiesGoToSmallerIndex(t *testing.T) {
 	// Items 0-3 have identical tags (cosine 1 with each other), item 4 is
 	// different. With k = 2 each of 0-3 keeps the two smallest other indices
-	// (METHODS 1.3: ties broken by item ID), so 2-3 is not an edge: worked
+	// (ties go to the smaller item index), so 2-3 is not an edge: worked
 	// by hand.
 	tags := [][]string{{"a"}, {"a"}, {"a"}, {"a"}, {"b"}}
 	g, err := Tags(tags, 2)

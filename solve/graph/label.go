@@ -49,7 +49,8 @@ func (m TextMix) Check() error {
 // LabelText builds the kNN graph of a label-aware text similarity: for
 // each channel of mix (label head words, label character 3–5-grams,
 // description words) a TF-IDF cosine with sublinear tf (1 + ln tf) and
-// textbook idf ln(N/df) (Salton & Buckley 1988, METHODS 1.1), mixed as
+// textbook idf ln(N/df) (Salton & Buckley, "Term-weighting approaches in
+// automatic text retrieval", Inf. Process. Manage. 24(5), 1988), mixed as
 // Σ_c w_c·cos_c / Σ_c w_c before the neighbour search. An item with an
 // empty channel (no label, say) is similar through that channel to
 // nothing, so its similarities come from the other channels only, scaled

@@ -36,8 +36,8 @@ func TestCharGrams(t *testing.T) {
 }
 
 // LabelText's similarity is the weighted mean of the three channel cosines,
-// each computed here independently with TFIDF (sublinear tf, textbook idf,
-// METHODS 1.1) on the channel's own documents.
+// each computed here independently with TFIDF (sublinear tf, textbook idf
+// ln(N/df)) on the channel's own documents.
 func TestLabelTextMixesChannelCosines(t *testing.T) {
 	labels := []string{"claw hammer", "sledge hammer, sledgehammer", "hand saw", "hacksaw", "tape measure", ""}
 	texts := []string{

@@ -104,10 +104,11 @@ type proposal struct {
 }
 
 // nnDescent approximates every item's k nearest neighbours by NN-Descent
-// (Dong, Charikar & Li, WWW 2011; METHODS 1.3): starting from first guesses,
-// each round compares every item's neighbours with each other — a
-// neighbour of a neighbour is likely a neighbour — and keeps the better
-// pairs. Only pairs with at least one new member are compared, and each
+// (W. Dong, M. Charikar & K. Li, "Efficient k-nearest neighbor graph
+// construction for generic similarity measures", WWW 2011): starting from
+// first guesses, each round compares every item's neighbours with each
+// other — a neighbour of a neighbour is likely a neighbour — and keeps the
+// better pairs. Only pairs with at least one new member are compared, and each
 // round samples ρ·k new forward and ρ·k reverse neighbours per item.
 //
 // Determinism with parallelism: every random draw comes from a stream fixed

@@ -5,8 +5,8 @@ import (
 	"testing"
 )
 
-// Recall targets: Dong, Charikar & Li (WWW 2011, METHODS 1.3) report
-// typically above 90% recall; we require at least that on seeded data.
+// Recall targets: Dong, Charikar & Li (WWW 2011) report, in their
+// abstract, typically above 90% recall; we require at least that on seeded data.
 
 func denseTestRows(n, dim int, gaussian bool, seed uint64) *denseRows[float64] {
 	x, d := standardize(clusteredVectors(n, dim, 20, seed), nil, n, dim)

@@ -2,7 +2,8 @@ package graph
 
 // Text builds the kNN graph of TF-IDF cosine similarity between free-text
 // descriptions: Tokens, then light plural stemming (PluralStem), then raw
-// tf × textbook idf ln(N/df) with L2-normalised rows (METHODS 1.1). A
+// tf × textbook idf ln(N/df) with L2-normalised rows (Salton & Buckley,
+// "Term-weighting approaches in automatic text retrieval", 1988). A
 // description whose every word is in all descriptions (or that has no
 // words) is the zero vector, similar to nothing. With 1000 items or more, a
 // word in more than half of them is dropped as too common (see

@@ -6,7 +6,7 @@ import (
 )
 
 func TestTextOptions(t *testing.T) {
-	// Sublinear tf (METHODS 1.1: tf → 1 + ln tf), worked by hand: "saw",
+	// Sublinear tf (tf → 1 + ln tf), worked by hand: "saw",
 	// "blade", "drill" are each in 2 of 3 documents (same idf, which cancels
 	// in the cosine); d1 has saw three times, so over (saw, blade, drill)
 	// d1 ∝ (1+ln 3, 1, 0) and d2 ∝ (1, 0, 1):

@@ -30,9 +30,10 @@ func denseRow(v SparseVector, nTerms int) []float64 {
 }
 
 func TestTFIDFScikitLearnExample(t *testing.T) {
-	// METHODS 1.2 check value 1 [P: scikit-learn user guide, text feature
-	// extraction, "Tf–idf term weighting"; recomputed C]: the 6×3 count
-	// matrix, its idf vectors and L2-normalised rows.
+	// Published values: the scikit-learn user guide, section "Text feature
+	// extraction", subsection "Tf–idf term weighting", works the 6×3
+	// count matrix below; its idf vectors and L2-normalised rows, also
+	// recomputed by hand.
 	counts := [][]int{{3, 0, 1}, {2, 0, 0}, {3, 0, 0}, {4, 0, 0}, {3, 2, 0}, {3, 0, 2}}
 	df := []int{6, 1, 2}
 	tests := []struct {
@@ -87,7 +88,8 @@ func TestTFIDFScikitLearnExample(t *testing.T) {
 }
 
 func TestTFIDFTextbookCosines(t *testing.T) {
-	// METHODS 1.2 check value 2 [C]: textbook idf ln(N/df), raw tf.
+	// Textbook idf ln(N/df), raw tf; computed for this test by hand, not a
+	// published value.
 	docs := [][]string{{"red", "apple", "fruit"}, {"green", "apple", "fruit"}, {"red", "car"}}
 	w := Weighting{}
 	for _, tc := range []struct {
@@ -131,7 +133,7 @@ func TestTFIDFTextbookCosines(t *testing.T) {
 }
 
 func TestTermWeight(t *testing.T) {
-	// Formulas from METHODS 1.1: raw tf, sublinear 1 + ln tf, binary.
+	// Raw tf, sublinear 1 + ln tf, binary (Salton & Buckley 1988).
 	tests := []struct {
 		tf    TFWeight
 		count int
@@ -150,7 +152,7 @@ func TestTermWeight(t *testing.T) {
 }
 
 func TestZeroVectorDocument(t *testing.T) {
-	// METHODS 1.2 note: with textbook idf a term in every document weighs
+	// With textbook idf a term in every document weighs
 	// 0; a document made only of such terms is the zero vector and must
 	// have similarity 0 with everything, never NaN. A document without
 	// words (empty, or stopwords only) is the zero vector too.

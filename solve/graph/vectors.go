@@ -20,8 +20,9 @@ const (
 )
 
 // LocalScaleRank is the neighbour rank whose distance sets an item's
-// Gaussian bandwidth. Zelnik-Manor & Perona used 7; the METHODS brief
-// tags that value as from memory, not confirmed against the paper. An item
+// Gaussian bandwidth (Zelnik-Manor & Perona, "Self-tuning spectral
+// clustering", NIPS 2004). The value 7 is the one they are recalled to
+// have used; it has not been checked against the paper's text. An item
 // with fewer other items uses its farthest one.
 const LocalScaleRank = 7
 

@@ -7,8 +7,8 @@ import (
 
 func TestGaussianLocalScalingByHand(t *testing.T) {
 	// Local scaling σ_i = distance to the 7th nearest neighbour, w_ij =
-	// exp(−d²/(σ_i σ_j)) (Zelnik-Manor & Perona 2004 via METHODS 1.1; the
-	// rank 7 is tagged from memory there). Points on a line, so z-scoring
+	// exp(−d²/(σ_i σ_j)) (Zelnik-Manor & Perona, NIPS 2004; the rank 7 is
+	// recalled from that paper, not checked). Points on a line, so z-scoring
 	// (a shift and one common scale) leaves every weight unchanged. Expected
 	// values worked by hand.
 	tests := []struct {
