@@ -2,8 +2,12 @@ package solve
 
 import "sort"
 
-// BUILD (Aho, Sagiv, Szymanski & Ullman, SIAM J. Comput. 10, 1981) extended
-// with cluster constraints (METHODS 4.1–4.2). At a set S the Aho graph joins
+// BUILD (A. V. Aho, Y. Sagiv, T. G. Szymanski & J. D. Ullman, "Inferring
+// a tree from lowest common ancestors with an application to the
+// optimization of relational expressions", SIAM J. Comput. 10(3), 1981)
+// extended with cluster constraints: a cluster C is displayed iff ab|c for
+// all a, b ∈ C and c ∉ C, so rather than expand it into triplets BUILD
+// unions C whole. At a set S the Aho graph joins
 // a and b for every triplet ab|c with a, b, c ∈ S, and all of C for every
 // cluster C ⊊ S; its components become the children of S. If the graph is
 // connected the constraints restricted to S are inconsistent. A triplet

@@ -8,7 +8,7 @@ import (
 	"testing"
 )
 
-// Leaves a..e are 0..4 in the examples of METHODS 4.4.
+// Leaves a..e are 0..4 in the BUILD examples below.
 const (
 	la int32 = iota
 	lb
@@ -40,8 +40,8 @@ func newick(t *Tree) string {
 }
 
 func TestBuildExamples(t *testing.T) {
-	// METHODS 4.4 examples 1–4 and 6 (BUILD of Aho et al. 1981, traced by
-	// hand there).
+	// Small examples of our own for BUILD (Aho et al., SIAM J. Comput.
+	// 1981), each traced by hand; not taken from the paper.
 	cases := []struct {
 		name     string
 		n        int
@@ -55,8 +55,8 @@ func TestBuildExamples(t *testing.T) {
 		// All three resolutions of one triple: any two already conflict;
 		// BUILD's witness is the two records whose edges joined {a,b,c}.
 		{"ex2 three", 3, Constraints{Triplets: []Triplet{trip(la, lb, lc, 0), trip(lb, lc, la, 1), trip(la, lc, lb, 2)}}, "", []int{0, 1}},
-		// METHODS writes (((b,c),a),(d,e)); children here are ordered by
-		// their smallest leaf.
+		// The hand trace gives (((b,c),a),(d,e)); children here are ordered
+		// by their smallest leaf.
 		{"ex3", 5, Constraints{Triplets: []Triplet{trip(lb, lc, la, 0), trip(la, lc, ld, 1), trip(ld, le, lb, 2)}}, "((a,(b,c)),(d,e))", nil},
 		{"ex4", 4, Constraints{}, "(a,b,c,d)", nil},
 		{"ex6", 5, Constraints{
@@ -190,9 +190,10 @@ func clusterSet(t *Tree) []string {
 }
 
 func TestBuildIdentityProperty(t *testing.T) {
-	// METHODS 4.4 examples 5 and 7: BUILD on all C(n,3) triplets of a
-	// binary tree returns that tree (Aho et al. 1981); 50 random trees on
-	// 10 leaves, and some of other sizes.
+	// BUILD on all C(n,3) triplets of a binary tree returns that tree: it
+	// returns a tree displaying them all (Aho et al. 1981), and a binary
+	// tree is the only tree that displays all of its own triplets. 50
+	// random trees on 10 leaves, and some of other sizes.
 	r := rand.New(rand.NewPCG(7, 7))
 	for trial := 0; trial < 80; trial++ {
 		n := 10
@@ -260,8 +261,8 @@ func onlyRecords(c *Constraints, keep []int) *Constraints {
 func TestConsistentAgreesWithExactOracle(t *testing.T) {
 	// Consistency decided by BUILD against the constrained subset DP of
 	// exact.go (OptimalConstrained's ok, an independent implementation of
-	// METHODS 2.4), on random small constraint sets; and on every
-	// inconsistent set the conflict returned is minimal: inconsistent on
+	// the Aho-graph condition), on random small constraint sets; and on
+	// every inconsistent set the conflict returned is minimal: inconsistent on
 	// its own, consistent after dropping any one record.
 	r := rand.New(rand.NewPCG(11, 3))
 	inconsistent := 0

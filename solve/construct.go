@@ -12,7 +12,18 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// The constrained top-down construction (DESIGN 8 step 3, METHODS 4.3).
+// The constrained top-down construction. It is the recursive sparsest-cut
+// scheme of Dasgupta ("A cost function for similarity-based hierarchical
+// clustering", STOC 2016) — split each set where the uniform sparsity
+// ψ(A,B) = w(A,B)/(|A|·|B|) is smallest, then recurse — with hard triplet
+// and cluster constraints carried top-down as in Chatziafratis, Niazadeh &
+// Charikar ("Hierarchical clustering with structural constraints", ICML
+// 2018, arXiv 1805.09476): items that the constraints hold together (the
+// components of the Aho graph of BUILD) become super-nodes that no split
+// may cut, weighted by their sizes, so ψ becomes w(A,B)/(m(A)·m(B)). The
+// spectral sweep that finds the cut is a heuristic for ψ, not the
+// approximation algorithms those papers analyse.
+//
 // Each recursion set S is a segment order[lo:hi] of one leaf permutation,
 // kept in ascending leaf order until it is finished. Per set:
 //
@@ -387,15 +398,16 @@ func (b *builder) superNodes(w *constructWorker, set []int32) int {
 	return k
 }
 
-// softUnions holds the previous outline's categories together (Stability,
-// DESIGN 8 step 7). A previous category P in the set is joined into one
-// super-node while the set still holds previously categorised items
-// outside P — so P survives as a node, and new items may still join it
-// once the recursion reaches P's own set — provided the similarity graph
-// still backs it: P's edge density inside G[S] must be at least
-// (1 − Stability) times the density of the whole set. Joining only coarsens
-// the Aho components, so it never breaks a constraint. It reports whether
-// any category was joined.
+// softUnions holds the previous outline's categories together (Stability:
+// the previous outline pulls the new tree toward itself, so that adding a
+// few items changes little else). A previous category P in the set is
+// joined into one super-node while the set still holds previously
+// categorised items outside P — so P survives as a node, and new items may
+// still join it once the recursion reaches P's own set — provided the
+// similarity graph still backs it: P's edge density inside G[S] must be at
+// least (1 − Stability) times the density of the whole set. Joining only
+// coarsens the Aho components, so it never breaks a constraint. It reports
+// whether any category was joined.
 func (b *builder) softUnions(w *constructWorker, tk ctask) bool {
 	set := b.order[tk.lo:tk.hi]
 	covered := 0
@@ -1020,7 +1032,8 @@ func (a *ahoMasks) components(set uint32, buf []uint32) []uint32 {
 }
 
 // subsetDP is the exact Dasgupta optimum over subsets of at most 16 atoms
-// with masses (METHODS 2.4): best[A] = min over admissible splits A = B ∪ C
+// with masses (the subset DP of OptimalCost, exact.go):
+// best[A] = min over admissible splits A = B ∪ C
 // of best[B] + best[C] + m(A)·w(B, C), where B contains A's lowest atom and
 // is a union of Aho components of A when constraints are given.
 type subsetDP struct {

@@ -8,8 +8,12 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Cost is Dasgupta's cost of t on g: the sum over edges {i,j} of
-// w_ij·|L(lca(i,j))|, for any rooted tree (binary or multiway). It never
+// Cost is Dasgupta's cost of t on g (S. Dasgupta, "A cost function for
+// similarity-based hierarchical clustering", STOC 2016, arXiv 1510.05043):
+//
+//	cost_g(t) = Σ_{i,j} w_ij·|L(lca(i,j))|
+//
+// summed over the edges of g, for any rooted tree (binary or multiway). It never
 // panics: a malformed tree or a graph that does not fit the tree gives NaN
 // (CostChecked says why). A single-leaf tree, or a graph without edges,
 // costs 0.
@@ -28,10 +32,10 @@ func CostChecked(g *graph.CSR, t *Tree) (float64, error) {
 		return math.NaN(), err
 	}
 	size := t.Sizes()
-	// Node form of the cost (METHODS 2.1): Σ_v |L(v)|·(weight of the edges
-	// whose lca is v), summed in node-id order with compensation so the
-	// result does not depend on how large the terms are relative to each
-	// other.
+	// Node form of the cost, the same sum grouped by lca: Σ_v |L(v)|·(weight
+	// of the edges whose lca is v), summed in node-id order with
+	// compensation so the result does not depend on how large the terms are
+	// relative to each other.
 	var sum compensatedSum
 	for v, w := range cross {
 		if w != 0 {

@@ -57,8 +57,9 @@ func dgStar(tb testing.TB, n int) *graph.CSR {
 	return dgGraph(tb, n, e)
 }
 
-// dgTwoTriangles is METHODS 2.5's triangles {0,1,2}, {3,4,5} with the
-// bridge 2-3.
+// dgTwoTriangles is the triangles {0,1,2}, {3,4,5} with the bridge 2-3,
+// unit weights: a small graph of our own whose optimum (22, by the exact
+// DP of exact.go) is known.
 func dgTwoTriangles(tb testing.TB) *graph.CSR {
 	return dgGraph(tb, 6, []graph.Edge{
 		{A: 0, B: 1, W: 1}, {A: 0, B: 2, W: 1}, {A: 1, B: 2, W: 1},
@@ -67,7 +68,8 @@ func dgTwoTriangles(tb testing.TB) *graph.CSR {
 	})
 }
 
-// dgFourNodes is METHODS 2.5's 4-node example w01=3, w23=2, w12=1, w03=0.5.
+// dgFourNodes is a 4-node example of our own, w01=3, w23=2, w12=1, w03=0.5
+// (optimum 16 by the exact DP).
 func dgFourNodes(tb testing.TB) *graph.CSR {
 	return dgGraph(tb, 4, []graph.Edge{
 		{A: 0, B: 1, W: 3}, {A: 2, B: 3, W: 2}, {A: 1, B: 2, W: 1}, {A: 0, B: 3, W: 0.5},
@@ -207,7 +209,7 @@ func TestCostHandBuiltTrees(t *testing.T) {
 		name string
 		g    *graph.CSR
 		t    *Tree
-		want float64 // METHODS 2.5 [C] unless noted
+		want float64 // by the definition or the exact DP, not published values
 	}{
 		{"path8 caterpillar", dgPath(t, 8), dgCaterpillar(8), 35},                                  // n(n+1)/2-1
 		{"path8 balanced", dgPath(t, 8), dgBalanced(8), 24},                                        // = OPT(P_8)
@@ -216,12 +218,13 @@ func TestCostHandBuiltTrees(t *testing.T) {
 		{"path8 odd/even root", dgPath(t, 8), dgNested(t, 8, "(((0,2),(4,6)),((1,3),(5,7)))"), 56}, // worst n(n-1)
 		{"star6 peel", dgStar(t, 6), dgNested(t, 6, "(((((0,1),2),3),4),5)"), 20},                  // n(n+1)/2-1
 		{"two triangles opt", dgTwoTriangles(t), dgNested(t, 6, "((0,(1,2)),(3,(4,5)))"), 22},
-		// METHODS 5 rotation example: ((0,(3,(4,5))),(1,2)) costs 28 and
-		// (((1,2),(3,(4,5))),0) costs 27.
+		// Rotations at the root of the optimum: ((0,(3,(4,5))),(1,2)) costs
+		// 22 + 3·2 − 2·0 = 28 and (((1,2),(3,(4,5))),0) costs 22 + 3·2 − 1·1
+		// = 27 (the rotation Δ of improve.go, worked by hand).
 		{"two triangles rotated A", dgTwoTriangles(t), dgNested(t, 6, "((0,(3,(4,5))),(1,2))"), 28},
 		{"two triangles rotated B", dgTwoTriangles(t), dgNested(t, 6, "(((1,2),(3,(4,5))),0)"), 27},
-		// METHODS 5 collapse example: contracting (0,(1,2)) into the root
-		// adds (6-3)·2 = 6.
+		// Contracting (0,(1,2)) into the root adds (|L(v)|−|L(u)|)·c(u) =
+		// (6-3)·2 = 6 (fold.go's Δ, worked by hand).
 		{"two triangles collapsed", dgTwoTriangles(t), dgNested(t, 6, "(0,(1,2),(3,(4,5)))"), 28},
 		{"four nodes opt", dgFourNodes(t), dgNested(t, 4, "((0,1),(2,3))"), 16},
 		{"clique5 star tree", dgClique(t, 5), dgNested(t, 5, "(0,1,2,3,4)"), 50}, // 5·C(5,2), by definition
@@ -237,7 +240,10 @@ func TestCostHandBuiltTrees(t *testing.T) {
 }
 
 func TestCostCliqueEveryTree(t *testing.T) {
-	// METHODS 2.2: every binary tree of the unit clique costs (n³-n)/3.
+	// Dasgupta (2016) shows that on a clique of equal weights every tree
+	// costs the same (where in the paper is not checked here). The value
+	// for unit weights, (n³-n)/3, is derived from the triplet form of the
+	// cost: 2·C(n,2) + 2·C(n,3).
 	r := rand.New(rand.NewPCG(7, 7))
 	for n := 2; n <= 12; n++ {
 		g := dgClique(t, n)
@@ -252,8 +258,8 @@ func TestCostCliqueEveryTree(t *testing.T) {
 
 func TestCostMatchesDefinition(t *testing.T) {
 	// Internal check: the offline-LCA node form equals the edge-by-edge
-	// definition (METHODS 2.1) on random graphs and random binary and
-	// multiway trees.
+	// definition Σ w_ij·|L(lca(i,j))| (Dasgupta 2016) on random graphs and
+	// random binary and multiway trees.
 	r := rand.New(rand.NewPCG(11, 3))
 	for trial := 0; trial < 40; trial++ {
 		n := 2 + r.IntN(30)
@@ -337,7 +343,8 @@ func TestCostMalformedGivesNaN(t *testing.T) {
 
 func TestCostDeepCaterpillar(t *testing.T) {
 	// The walk is iterative: a 200,000-deep caterpillar on a path costs
-	// n(n+1)/2 - 1 (METHODS 2.5) without exhausting the stack.
+	// n(n+1)/2 - 1 (each level v adds |L(v)|·1; by hand) without exhausting
+	// the stack.
 	n := 200000
 	if testing.Short() {
 		n = 20000
@@ -352,7 +359,7 @@ func TestCostDeepCaterpillar(t *testing.T) {
 func TestCrossWeights(t *testing.T) {
 	// Two triangles under ((0,(1,2)),(3,(4,5))): the root carries the
 	// bridge 2-3, each triangle node its two outer edges, each pair node
-	// its inner edge (METHODS 2.1 node form; by hand).
+	// its inner edge (the node form of the cost; by hand).
 	tr := dgNested(t, 6, "((0,(1,2)),(3,(4,5)))")
 	cross, err := CrossWeights(dgTwoTriangles(t), tr)
 	if err != nil {

@@ -14,16 +14,19 @@ const MaxExactItems = 18
 
 // OptimalCost returns the minimum Dasgupta cost over all trees on g's
 // vertices and a binary tree attaining it, by dynamic programming over
-// subsets (METHODS 2.4):
+// subsets, O(3^n) time and O(2^n) memory:
 //
 //	OPT({v}) = 0
 //	OPT(S)   = min over A ⊂ S with min(S) ∈ A ≠ S of OPT(A) + OPT(S\A) + |S|·w(A, S\A)
 //
-// Some optimal tree is binary (METHODS 2.2), so the minimum over binary
-// trees is the minimum over all trees. Among equally good splits the first
-// in the enumeration order is kept, so the tree is deterministic. It
-// returns (NaN, nil) when g is nil or has more than MaxExactItems
-// vertices. It is meant as a test oracle.
+// The recurrence is the node form of Dasgupta's cost (STOC 2016) applied
+// at the root. Some optimal tree is binary — contracting a child u into
+// its parent v changes the cost by (|L(v)|−|L(u)|)·c(u) ≥ 0, c(u) the
+// weight between u's children, so refining never costs more — hence the
+// minimum over binary trees is the minimum over all trees. Among equally
+// good splits the first in the enumeration order is kept, so the tree is
+// deterministic. It returns (NaN, nil) when g is nil or has more than
+// MaxExactItems vertices. It is meant as a test oracle.
 func OptimalCost(g *graph.CSR) (float64, *Tree) {
 	d := newOracleDP(g, nil, false)
 	if d == nil {
@@ -47,12 +50,13 @@ func WorstCost(g *graph.CSR) float64 {
 
 // OptimalConstrained is OptimalCost restricted to the trees that display
 // every constraint of c. A binary tree displays them iff at every node S
-// its split cuts no connected component of the Aho graph of S (METHODS
-// 2.4, 4.1): vertices S, an edge a–b for every triplet ab|c with a, b, c
-// all in S, and every cluster constraint C ⊊ S held together whole. So
-// the programme only splits S between unions of those components. ok is
-// false when no tree displays all constraints, when a constraint names a
-// leaf outside the graph, or when g is nil or too large.
+// its split cuts no connected component of the Aho graph of S (Aho,
+// Sagiv, Szymanski & Ullman, SIAM J. Comput. 1981): vertices S, an edge
+// a–b for every triplet ab|c with a, b, c all in S, and every cluster
+// constraint C ⊊ S held together whole. So the programme only splits S
+// between unions of those components. ok is false when no tree displays
+// all constraints, when a constraint names a leaf outside the graph, or
+// when g is nil or too large.
 func OptimalConstrained(g *graph.CSR, c *Constraints) (cost float64, t *Tree, ok bool) {
 	if c == nil {
 		c = &Constraints{}
@@ -104,7 +108,7 @@ func newOracleDP(g *graph.CSR, c *Constraints, worst bool) *oracleDP {
 	d := &oracleDP{n: n, worst: worst}
 	full := 1 << n
 	// inner[S] = inner[S−{l}] + w(l, S−{l}) for the lowest member l, with
-	// w(l, ·) read from l's row of g (METHODS 2.4).
+	// w(l, ·) read from l's row of g.
 	d.inner = make([]float64, full)
 	for s := 1; s < full; s++ {
 		l := bits.TrailingZeros32(uint32(s))

@@ -73,7 +73,7 @@ func dgLeafMasks(t *Tree) []uint32 {
 	return m
 }
 
-// dgDisplays checks constraints from their definitions (METHODS 4.1):
+// dgDisplays checks constraints from their definitions:
 // ab|c holds iff the smallest cluster holding a and b misses c; a cluster
 // constraint holds iff some node has exactly that leaf set.
 func dgDisplays(t *Tree, c *Constraints) bool {
@@ -135,7 +135,10 @@ func dgCheckOptimum(t *testing.T, name string, g *graph.CSR, want, worst float64
 }
 
 func TestOptimalCostTable(t *testing.T) {
-	// All values: METHODS 2.5 [C: DP n ≤ 16, brute force n ≤ 6].
+	// Not published values: computed for these tests by the subset DP for
+	// n ≤ 16 and by enumerating every binary tree for n ≤ 6. The clique's
+	// equal cost is Dasgupta's (STOC 2016); its value is derived in
+	// TestCostCliqueEveryTree.
 	for n := 2; n <= 9; n++ {
 		want := float64(n*n*n-n) / 3 // K_n: every tree costs (n³-n)/3
 		dgCheckOptimum(t, "clique", dgClique(t, n), want, want)
@@ -194,7 +197,9 @@ func dgSameClusters(a, b *Tree) bool {
 }
 
 func TestOptimalCostPathFormula(t *testing.T) {
-	// METHODS 2.5: OPT(P_n) = n(⌈log₂n⌉+1) − 2^⌈log₂n⌉.
+	// OPT(P_n) = n(⌈log₂n⌉+1) − 2^⌈log₂n⌉: a closed form fitted to the
+	// exact DP for n ≤ 16 (the balanced tree attains it), not taken from a
+	// paper.
 	for n := 2; n <= 14; n++ {
 		k := bits.Len(uint(n - 1)) // ⌈log₂n⌉
 		want := float64(n*(k+1) - 1<<k)
@@ -205,8 +210,8 @@ func TestOptimalCostPathFormula(t *testing.T) {
 }
 
 func TestOptimalCostBruteForce(t *testing.T) {
-	// METHODS 2.4: the DP agrees with enumerating all (2n−3)!! binary
-	// trees; the counts are METHODS 2.5's 1, 3, 15, 105, 945.
+	// The DP agrees with enumerating all (2n−3)!! rooted binary trees on n
+	// labelled leaves (the standard count: 1, 3, 15, 105, 945).
 	counts := map[int]int{2: 1, 3: 3, 4: 15, 5: 105, 6: 945}
 	for n := 2; n <= 6; n++ {
 		trees := dgAllBinaryTrees(n)
@@ -232,7 +237,7 @@ func TestOptimalCostBruteForce(t *testing.T) {
 }
 
 func TestOptimalCostDisconnected(t *testing.T) {
-	// METHODS 2.2: an optimal tree separates the components above
+	// An optimal tree separates the components above
 	// everything else, so the root carries no edge, and OPT is the sum of
 	// the components' optima.
 	edges := []graph.Edge{
@@ -283,7 +288,8 @@ func TestOptimalCostLimits(t *testing.T) {
 }
 
 func TestOptimalConstrainedExamples(t *testing.T) {
-	// BUILD examples of METHODS 4.4 with a = 0, b = 1, ...
+	// The BUILD examples of build_test.go (traced by hand) with a = 0,
+	// b = 1, ...
 	tri := func(a, b, c int32) Triplet { return Triplet{A: a, B: b, C: c} }
 	g4, g5 := dgClique(t, 4), dgClique(t, 5)
 	cases := []struct {
@@ -325,8 +331,7 @@ func TestOptimalConstrainedExamples(t *testing.T) {
 }
 
 func TestOptimalConstrainedBruteForce(t *testing.T) {
-	// METHODS 2.4 [C: verified against brute force on 60 random
-	// constrained instances]: the constrained DP equals the minimum over
+	// The constrained DP equals the minimum over
 	// all binary trees that display the constraints, and ok is false
 	// exactly when none does.
 	r := rand.New(rand.NewPCG(2024, 6))

@@ -179,7 +179,7 @@ func (sp *spectralWork) fiedler(g *graph.CSR, deg, b []float64, ids []int32, see
 //
 //	ψ(A, B) = w(A, B) / (m(A) · m(B)),
 //
-// together with that ψ (METHODS 3.4; ties go to the smallest k). mass nil
+// together with that ψ (ties go to the smallest k). mass nil
 // means unit masses. n must be at least 2.
 func SweepCut(g *graph.CSR, x, mass []float64) ([]int32, int, float64) {
 	ids := make([]int32, g.N)

@@ -9,8 +9,10 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Folding the binary tree into a multiway taxonomy (DESIGN 8 step 5,
-// METHODS 5). Folding (contracting) a node u into its parent v makes u's
+// Folding the binary tree into a multiway taxonomy: binary nodes whose
+// split is not meaningfully tighter than their parent's are folded into
+// it, within MinSize, MaxChildren and MaxDepth, and never against a
+// constraint. Folding (contracting) a node u into its parent v makes u's
 // children v's children.
 //
 // Tightness. A node's split is scored by the mean similarity across its
@@ -31,7 +33,8 @@ import (
 // ψ(u)/ψ(v)), and a fold updates the parent by the mediant
 // ψ(v) ← (w_v + w_u)/(p_v + p_u), which is exact. Folding never increases
 // the number of categories a leaf sits in and costs Δ = (|L(v)|−|L(u)|)·w_u
-// of Dasgupta's cost.
+// of Dasgupta's cost (the node form: the edges across u's children move
+// from lca u to lca v).
 //
 // With Stability the previous categories (found again as nodes by
 // priorMatches) are exempt from the tightness rule and folded last for
@@ -43,8 +46,9 @@ import (
 // MinSize pass once more, for folds that the earlier ones made legal. No fold
 // may give a node more than MaxChildren children, dissolve a cluster
 // constraint, or dissolve the node lca(a,b) of a triplet ab|c whose c lies
-// in the parent (the uncollapsible rule of METHODS 5), so MinSize and
-// MaxDepth are met as far as those allow.
+// in the parent (folding that node would make a, b and c siblings, which
+// no longer resolves ab|c), so MinSize and MaxDepth are met as far as
+// those allow.
 
 // foldTightness: a split must be this many times tighter than its parent's
 // to stay a category of its own.

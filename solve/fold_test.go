@@ -12,8 +12,8 @@ import (
 func noProgress(string, int, int) {}
 
 func TestFoldCollapseMethodsExample(t *testing.T) {
-	// METHODS 5: contracting (0,(1,2)) into the root of the two-triangle
-	// optimum costs Δ = (6−3)·2 = 6, so the cost goes from 22 to 28.
+	// Contracting (0,(1,2)) into the root of the two-triangle optimum
+	// costs Δ = (6−3)·2 = 6, so the cost goes from 22 to 28 (by hand).
 	g := twoTriangles(t)
 	tr, p, _ := twoTrianglesOpt()
 	f := newFolder(g, tr, nil, foldParams{})
@@ -43,7 +43,7 @@ func chainTree() (tr *Tree, ab, abc int32) {
 }
 
 func TestFoldUncollapsible(t *testing.T) {
-	// METHODS 5: a node is uncollapsible if it is a cluster constraint or
+	// A node is uncollapsible if it is a cluster constraint or
 	// lca(a,b) of a triplet ab|c with c in parent∖node. Here (a,b) is
 	// smaller than MinSize 3 and as loose as its parent, so only a
 	// constraint keeps it.

@@ -7,23 +7,26 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Local improvement of the binary tree (DESIGN 8 step 4): rotation passes,
+// Local improvement of the binary tree: rotation passes,
 // then passes of the wider re-arrangement move below. Both compute the
 // change of Dasgupta's cost exactly and never break a constraint.
 //
-// Rotations (METHODS 5). At a node
-// v with children u and Y, where u has children X1 and X2, the rotations
+// Rotations. At a node v with children u and Y, where u has children X1 and
+// X2, the rotations
 //
 //	((X1,X2),Y) → ((X1,Y),X2)   Δcost = n_Y·w(X1,X2) − n_X2·w(X1,Y)
 //	((X1,X2),Y) → ((X2,Y),X1)   Δcost = n_Y·w(X1,X2) − n_X1·w(X2,Y)
 //
-// change Dasgupta's cost by exactly Δ. One pass buckets every edge by its
-// LCA and by the grandchild it enters (O(m) LCA queries on a depth-first
-// layout), scores all rotations, and applies the improving ones best first
-// as long as they do not touch a node an earlier rotation of the same pass
-// changed. A rotation removes the cluster X1∪X2 and flips exactly the
-// triples with one leaf in each of X1, X2, Y, so it is refused when X1∪X2
-// is a cluster constraint or some ab|c has lca(a,b) = u and c in Y.
+// change Dasgupta's cost by exactly Δ: by the node form of the cost only v
+// and u change; v keeps its leaves, and u's replacement holds X1 and Y in
+// place of X1 and X2 (or X2 and Y). The formulas are derived here and
+// checked against full recomputation in the tests. One pass buckets every
+// edge by its LCA and by the grandchild it enters (O(m) LCA queries on a
+// depth-first layout), scores all rotations, and applies the improving ones
+// best first as long as they do not touch a node an earlier rotation of the
+// same pass changed. A rotation removes the cluster X1∪X2 and flips exactly
+// the triples with one leaf in each of X1, X2, Y, so it is refused when
+// X1∪X2 is a cluster constraint or some ab|c has lca(a,b) = u and c in Y.
 
 const defaultImprovePasses = 12
 

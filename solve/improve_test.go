@@ -6,7 +6,8 @@ import (
 	"testing"
 )
 
-// twoTrianglesOpt is ((0,(1,2)),(3,(4,5))), the optimum of METHODS 2.5.
+// twoTrianglesOpt is ((0,(1,2)),(3,(4,5))), the optimum (cost 22) of the
+// two-triangle graph by the exact DP of exact.go.
 func twoTrianglesOpt() (*Tree, int32, int32) {
 	t := NewTree(6)
 	p := t.Add(0, t.Add(1, 2))
@@ -36,7 +37,7 @@ func rotate(t *Tree, v, u, keep, promote int32) {
 }
 
 func TestRotationMethodsExample(t *testing.T) {
-	// METHODS 5: on two triangles with OPT ((0,(1,2)),(3,(4,5))) = 22,
+	// By hand: on two triangles with OPT ((0,(1,2)),(3,(4,5))) = 22,
 	// ((0,(3,(4,5))),(1,2)) has Δ = 3·2 − 2·0 = +6 (cost 28) and
 	// (((1,2),(3,(4,5))),0) has Δ = 3·2 − 1·1 = +5 (cost 27).
 	g := twoTriangles(t)
@@ -166,7 +167,9 @@ func TestImproveKeepsConstraintsAndNeverWorsens(t *testing.T) {
 }
 
 func TestSatisfiesOnMultiwayTrees(t *testing.T) {
-	// The definitions of DESIGN 6 / METHODS 4.1 on hand-made trees.
+	// The definitions on hand-made trees: ab|c holds iff lca(a,b) lies
+	// strictly below lca(a,b,c); a cluster holds iff some node has exactly
+	// its leaves.
 	tr := NewTree(5)
 	ab := tr.Add(la, lb)
 	abc := tr.Add(ab, lc)

@@ -11,8 +11,8 @@ import (
 // median pairwise distance, w = exp(−d²/(2σ²))) and checks that the
 // constrained solver's binary tree costs no more than scipy's average
 // linkage tree there: 486167.70444274787 (dasgupta_iris.json; scipy 1.10.1
-// linkage(X, 'average'), cost by numpy 1.24.2 + math.fsum). DESIGN section
-// 9 sets "no worse than average linkage" as the quality floor.
+// linkage(X, 'average'), cost by numpy 1.24.2 + math.fsum). "No worse
+// than average linkage" is the project's quality floor.
 func TestSolveIrisCostNoWorseThanAverageLinkage(t *testing.T) {
 	x := dgReadCSV(t, "iris.csv", []int{0, 1, 2, 3})
 	g := dgIrisGraph(t, x)
@@ -35,7 +35,7 @@ func TestSolveIrisCostNoWorseThanAverageLinkage(t *testing.T) {
 // species (Fisher 1936), and scipy's average linkage tree has it as one
 // child of the root (testdata/reference/README.md, section b). The graph
 // is the one `ramify solve` builds from a vectors file: the 15-nearest-
-// neighbour cosine graph on z-scored features (METHODS 1.1).
+// neighbour cosine graph on z-scored features.
 func TestSolveIrisSetosaIsOneCategory(t *testing.T) {
 	x := dgReadCSV(t, "iris.csv", []int{0, 1, 2, 3})
 	n, dim := len(x), len(x[0])

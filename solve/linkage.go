@@ -9,7 +9,14 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Average linkage (UPGMA) by the nearest-neighbour chain (METHODS 6).
+// Average linkage (UPGMA: R. R. Sokal & C. D. Michener, "A statistical
+// method for evaluating systematic relationships", Univ. Kansas Sci. Bull.
+// 38, 1958) by the nearest-neighbour chain (J. Juan 1982, J.-P. Benzécri
+// 1982; F. Murtagh, "A survey of recent advances in hierarchical
+// clustering algorithms", Computer J. 26(4), 1983; D. Müllner, "Modern
+// hierarchical, agglomerative clustering algorithms", arXiv 1109.2378,
+// 2011). The chain is exact for reducible linkages, and average linkage is
+// one: a merged cluster is never nearer to a third than both its parts.
 //
 // Both versions return a binary tree in the stepwise-dendrogram layout of
 // scipy.cluster.hierarchy.linkage: the merges are sorted by merge value
@@ -35,8 +42,9 @@ type linkMerge struct {
 // The chain follows scipy's nn_chain step for step: a cluster lives in the
 // slot of the larger of its two parents' slots; the search starts at the
 // element below the top of the chain and only a strictly smaller distance,
-// scanning slots upwards, replaces it. That is METHODS 6's mandatory tie
-// rule (the element below wins a tie, then the smallest slot), and it
+// scanning slots upwards, replaces it. That tie rule is not optional (the
+// element below wins a tie, then the smallest slot; without it the chain
+// can cycle), and it
 // makes the merges equal to scipy's on the same doubles.
 func AverageLinkageDist(n int, dist func(i, j int) float64) *Tree {
 	if n <= 1 {

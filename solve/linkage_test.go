@@ -192,7 +192,9 @@ func dgReadSummary(tb testing.TB) dgSummary {
 }
 
 func TestAverageLinkageUPGMAExample(t *testing.T) {
-	// METHODS 6.1 [P: public 5-taxon worked example; C]: a..e = 0..4.
+	// The classic UPGMA worked example on 5S ribosomal RNA distances of five
+	// bacteria (published in the English Wikipedia article "UPGMA"):
+	// merges and heights as published there; a..e = 0..4.
 	d := map[[2]int]float64{
 		{0, 1}: 17, {0, 2}: 21, {0, 3}: 31, {0, 4}: 23, {1, 2}: 30,
 		{1, 3}: 34, {1, 4}: 21, {2, 3}: 28, {2, 4}: 39, {3, 4}: 43,
@@ -214,14 +216,15 @@ func TestAverageLinkageUPGMAExample(t *testing.T) {
 	if !dgSameClusters(tr, dgNested(t, 5, "(((0,1),4),(2,3))")) {
 		t.Errorf("tree is not (((a,b),e),(c,d))")
 	}
-	// Cophenetic correlation 0.730203 (METHODS 6.1, 6 decimals).
+	// Cophenetic correlation (Sokal & Rohlf, Taxon 11, 1962) 0.730203, 6
+	// decimals: computed by hand from the published tree, not published.
 	if c := CopheneticCorrelation(tr, dist); math.Abs(c-0.730203) > 5e-7 {
 		t.Errorf("cophenetic correlation %v, want 0.730203", c)
 	}
 }
 
 func TestAverageLinkageTieRule(t *testing.T) {
-	// All distances equal: every candidate ties. METHODS 6's rule (the
+	// All distances equal: every candidate ties. The chain's tie rule (the
 	// element below the top wins a tie, then the smallest id; a merged
 	// cluster lives in the larger slot, as in scipy's nn_chain) gives the
 	// caterpillar ((((0,1),2),3),4), traced by hand.
@@ -479,8 +482,8 @@ func dgGreedyAverage(g *graph.CSR) ([][2]string, []float64) {
 
 func TestAverageLinkageGraphGreedyDefinition(t *testing.T) {
 	// The chain on sparse graphs makes the same merges, in the same
-	// order of similarity, as the greedy definition (METHODS 6: average
-	// linkage on graphs is reducible, so the NN-chain is exact).
+	// order of similarity, as the greedy definition (average linkage on
+	// graphs is reducible, so the NN-chain is exact; Müllner 2011).
 	for seed := uint64(0); seed < 10; seed++ {
 		n := 12 + int(seed)*3
 		g := dgRandomGraph(t, 500+seed, n, 0.25)

@@ -137,9 +137,8 @@ func TestRepairWithoutChangeKeepsTheTree(t *testing.T) {
 
 // A triplet that the previous tree breaks moves only its own items: every
 // other item keeps the leaf set of its category, up to the items the
-// record names, in the median trial (the stability target of DESIGN.md
-// section 9: one record moves at most 1% of the items beyond those it
-// names, median).
+// record names, in the median trial (the project's stability target: one
+// record moves at most 1% of the items beyond those it names, median).
 func TestRepairMovesOnlyWhatARecordNames(t *testing.T) {
 	var shares []float64
 	for trial := range 50 {

@@ -13,7 +13,7 @@ import (
 // 4, depth 4, about ten partner draws per item: 3–10 edges per item after
 // merging). It reports the Dasgupta cost of the binary tree relative to
 // average linkage on the same graph (cost/avglink; below 1 is better, the
-// DESIGN 9 target is ≤ 1) and of the folded taxonomy relative to the
+// project's target is ≤ 1) and of the folded taxonomy relative to the
 // planted tree (tax/planted). n = 100,000 runs only with RAMIFY_BIG=1.
 func BenchmarkSolve(b *testing.B) {
 	sizes := []int{1000, 10000}

@@ -38,7 +38,8 @@ func categories(t *solve.Tree) ([][]int32, []int) {
 
 // matchCategories pairs old and new categories greedily by Jaccard overlap
 // over the items both know (largest first, ties by index), as a stand-in
-// for the name matching of DESIGN 8 step 6; -1 when unmatched.
+// for the name matching of solve/naming (maximum-weight matching on
+// Jaccard overlap); -1 when unmatched.
 func matchCategories(old, cur [][]int32, known func(int32) bool) []int {
 	type pair struct {
 		j    float64
@@ -122,14 +123,15 @@ func keptShare(oldTax, newTax *solve.Tree, nOld int) float64 {
 }
 
 func TestSolveStabilityAfterOnePercentNew(t *testing.T) {
-	// DESIGN 9: after adding 1% new items, at least 99% of the old items
-	// keep their category. Planted instances (solve/planted): the old
-	// version is solved on the first n items alone; the new one on all
-	// n + n/100 with that outline's categories as Prior and the DESIGN 4
-	// default stability 0.3. Planted item ids are dealt to categories at
-	// random, so the new items are a random 1%. Categories are matched
-	// across versions by Jaccard overlap (matchCategories); an item kept
-	// its category when its new parent is the match of its old one.
+	// The project's stability target: after adding 1% new items, at least
+	// 99% of the old items keep their category. Planted instances
+	// (solve/planted): the old version is solved on the first n items
+	// alone; the new one on all n + n/100 with that outline's categories as
+	// Prior and the default stability 0.3. Planted item ids are dealt to
+	// categories at random, so the new items are a random 1%. Categories
+	// are matched across versions by Jaccard overlap (matchCategories); an
+	// item kept its category when its new parent is the match of its old
+	// one.
 	opt := solve.Options{MinSize: 3, MaxChildren: 12, MaxDepth: 6, Seed: 1}
 	for _, cfg := range [][3]int{{3000, 4, 3}, {3000, 3, 4}, {5000, 6, 3}} {
 		nOld := cfg[0]

@@ -73,8 +73,9 @@ func leafSets(t *solve.Tree) map[int32][]int32 {
 }
 
 func TestSolveSplitsComponentsFirst(t *testing.T) {
-	// Dasgupta (2016), METHODS 2.2: an optimal tree separates connected
-	// components above everything else. Three components and two isolated
+	// An optimal tree separates connected components above everything
+	// else (Dasgupta, STOC 2016: a top split that no edge crosses costs
+	// nothing). Three components and two isolated
 	// items under shuffled ids: every node of both trees lies inside one
 	// component or is a union of whole components.
 	r := rand.New(rand.NewPCG(1, 2))
@@ -121,8 +122,8 @@ func TestSolveSplitsComponentsFirst(t *testing.T) {
 }
 
 func TestSolveCliqueCost(t *testing.T) {
-	// Dasgupta (2016), METHODS 2.2/2.5: on a unit-weight clique every
-	// binary tree costs (n³ − n)/3.
+	// On a unit-weight clique every tree costs the same (Dasgupta, STOC
+	// 2016), (n³ − n)/3 for binary trees by the triplet form of the cost.
 	for n := 2; n <= 40; n += 3 {
 		var es []graph.Edge
 		for i := 0; i < n; i++ {
@@ -148,7 +149,7 @@ func pathEdges(n int) []graph.Edge {
 }
 
 func TestSolvePathCosts(t *testing.T) {
-	// METHODS 2.5: OPT(P_n) for n = 2..16 (exhaustive DP there) and the
+	// OPT(P_n) for n = 2..16 (by the exact subset DP; not published) and the
 	// caterpillar's n(n+1)/2 − 1, which any sensible tree must beat.
 	opt := []float64{2, 5, 8, 12, 16, 20, 24, 29, 34, 39, 44, 49, 54, 59, 64}
 	for n := 2; n <= 16; n++ {
@@ -170,7 +171,8 @@ func TestSolvePathCosts(t *testing.T) {
 		res := mustSolve(t, g, nil, solve.Options{})
 		c := solve.Cost(g, res.Binary)
 		cater := float64(n*(n+1)/2 - 1)
-		// For n = 2^k OPT = n·log₂n (METHODS 2.5): 384 at n = 64.
+		// For n = 2^k OPT = n·log₂n (the balanced tree; the closed form of
+		// exact_test.go): 384 at n = 64.
 		t.Logf("P%d: cost %g, caterpillar %g", n, c, cater)
 		if c >= cater {
 			t.Errorf("P%d: cost %g not below the caterpillar's %g", n, c, cater)
@@ -182,9 +184,9 @@ func TestSolvePathCosts(t *testing.T) {
 }
 
 func TestSolveNearOptimalOnSmallGraphs(t *testing.T) {
-	// DESIGN 9: within 5% of the exact optimum on random graphs with
-	// n ≤ 10; the oracle is the subset DP of exact.go (METHODS 2.4). The
-	// default pipeline finishes such sets by its own exact DP; the
+	// The project's quality target: within 5% of the exact optimum on
+	// random graphs with n ≤ 10; the oracle is the subset DP of exact.go.
+	// The default pipeline finishes such sets by its own exact DP; the
 	// spectral-only run shows what the Fiedler sweep plus rotations reach
 	// without it.
 	sumDefault, sumSpectral, worstSpectral := 0.0, 0.0, 0.0
@@ -317,8 +319,7 @@ func drawConstraints(r *rand.Rand, h *solve.Tree, triplets, clusters int) *solve
 func TestSolveConstrainedNearOptimal(t *testing.T) {
 	// Random consistent constraints on random graphs with n ≤ 10: both
 	// trees satisfy all of them, and the binary tree's cost is compared
-	// with the constrained optimum of exact.go (METHODS 2.4, constrained
-	// oracle).
+	// with the constrained optimum of exact.go (OptimalConstrained).
 	r := rand.New(rand.NewPCG(9, 9))
 	sum, sumS, worstS := 0.0, 0.0, 0.0
 	const trials = 150
@@ -381,7 +382,8 @@ func TestSolveSatisfiesConstraintsAtScale(t *testing.T) {
 
 func TestSolveConflictBeforeClustering(t *testing.T) {
 	// Inconsistent constraints: a *ConflictError naming the minimal set
-	// (METHODS 4.4 example 6 plus an unrelated consistent record), and no
+	// (the cluster {0,1,2} implies 01|3, which contradicts 03|1; the third
+	// record is unrelated and consistent), and no
 	// clustering stage is started.
 	g := fromEdges(t, 6, pathEdges(6))
 	c := &solve.Constraints{

@@ -24,7 +24,8 @@ import (
 // is the normalised Laplacian N = I − D^{-1/2} W D^{-1/2} (x = D^{-1/2} v for
 // an eigenvector v of N); with b = unit masses it is the combinatorial L;
 // with b = super-node masses it is the relaxation of uniform sparsity with
-// masses that the constrained construction needs (METHODS 4.3 step 3).
+// masses that the constrained construction needs (construct.go's
+// super-nodes: minimising xᵀLx/xᵀBx relaxes w(A,B)/(m(A)·m(B))).
 // Internally everything works on the symmetric matrix A = B^{-1/2} L B^{-1/2},
 // whose bottom eigenvector B^{1/2} 1 is known and deflated.
 
@@ -109,7 +110,9 @@ func (sp *spectralWork) toX(y []float64) []float64 {
 // masses mass (ties by ids). Lanczos does not run to convergence: it stops
 // when the smallest Ritz value has stalled (moved by less than the share
 // cutStallTol over cutCheckEvery steps), because the sweep's guarantee
-// depends only on the Rayleigh quotient of the vector it sweeps. side[i] = 0
+// depends only on the Rayleigh quotient of the vector it sweeps (the sweep
+// proof of Cheeger's inequality for graphs; see F. Chung, Spectral Graph
+// Theory, AMS 1997). side[i] = 0
 // marks the chosen prefix. The error is errNoConvergence's, from the dense
 // eigensolver.
 func (sp *spectralWork) sparsestCut(g *graph.CSR, deg, b, mass []float64, ids []int32, seed uint64, sw *sweepWork, side []int8) error {
@@ -320,7 +323,12 @@ func (sp *spectralWork) subtract(w, h []float64, lo, hi int) {
 	}
 }
 
-// lanczos runs Lanczos with full reorthogonalisation on A, with its known
+// lanczos runs the Lanczos iteration (C. Lanczos, J. Res. Nat. Bur.
+// Standards 45, 1950) with full reorthogonalisation on A — each new vector
+// is orthogonalised against the whole basis, since in floating point the
+// three-term recurrence loses orthogonality as Ritz values converge (C. C.
+// Paige, PhD thesis, University of London, 1971; G. H. Golub & C. F. Van
+// Loan, Matrix Computations, 4th ed., 2013, ch. 10) — with its known
 // bottom eigenvector B^{1/2}1 deflated, so that the smallest Ritz pair
 // approximates (λ₂, y₂). At step cutFirstCheck, every cutCheckEvery steps
 // after it and at the last step it hands the smallest Ritz pair (y of unit

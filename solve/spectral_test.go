@@ -63,8 +63,8 @@ func completeGraph(t testing.TB, n int) *graph.CSR {
 	return mustGraph(t, n, es)
 }
 
-// twoTriangles is {0,1,2} and {3,4,5} joined by the bridge 2–3
-// (METHODS 3.1 and 2.5).
+// twoTriangles is {0,1,2} and {3,4,5} joined by the bridge 2–3, a small
+// graph of our own whose spectrum and best cut are worked out below.
 func twoTriangles(t testing.TB) *graph.CSR {
 	return mustGraph(t, 6, []graph.Edge{
 		{A: 0, B: 1, W: 1}, {A: 0, B: 2, W: 1}, {A: 1, B: 2, W: 1},
@@ -92,8 +92,10 @@ func closeSlices(t *testing.T, name string, got, want []float64, tol float64) {
 }
 
 func TestLaplacianClosedForms(t *testing.T) {
-	// Closed forms of METHODS 3.1 ([C] there, re-derived): combinatorial L
-	// and normalised N spectra of paths, cycles, stars, complete graphs.
+	// The standard closed forms of the combinatorial L and normalised N
+	// spectra of paths, cycles, stars and complete graphs (for N see F.
+	// Chung, Spectral Graph Theory, AMS 1997, ch. 1), each re-derived here;
+	// P_n's L spectrum is 2 − 2cos(πk/n), its N spectrum 1 − cos(πk/(n−1)).
 	type tc struct {
 		name       string
 		g          *graph.CSR
@@ -141,8 +143,8 @@ func TestLaplacianClosedForms(t *testing.T) {
 		closeSlices(t, c.name+" L", LaplacianEigenvalues(c.g, false), sortedCopy(comb), 1e-9)
 		closeSlices(t, c.name+" N", LaplacianEigenvalues(c.g, true), sortedCopy(norm), 1e-9)
 	}
-	// METHODS 3.1: two triangles and a bridge, L = 0, (5−√17)/2, 3, 3, 3,
-	// (5+√17)/2.
+	// Two triangles and a bridge, L = 0, (5−√17)/2, 3, 3, 3, (5+√17)/2:
+	// the roots of its characteristic polynomial, worked by hand.
 	closeSlices(t, "two triangles L", LaplacianEigenvalues(twoTriangles(t), false),
 		[]float64{0, (5 - math.Sqrt(17)) / 2, 3, 3, 3, (5 + math.Sqrt(17)) / 2}, 1e-9)
 }
@@ -229,9 +231,10 @@ func TestFiedlerP10MatchesNumpy(t *testing.T) {
 }
 
 func TestFiedlerNormalisedValues(t *testing.T) {
-	// λ₂ of N = I − D^{-1/2}WD^{-1/2} (mass nil): METHODS 3.1 closed forms,
+	// λ₂ of N = I − D^{-1/2}WD^{-1/2} (mass nil), the closed forms above,
 	// 1 − cos(π/(n−1)) for P_n, 1 − cos(2π/n) for C_n, n/(n−1) for K_n,
-	// 1 for a star, 0.204666 for two triangles (METHODS 3.1 [C]). The sizes
+	// 1 for a star; 0.204666 for two triangles, from a dense symmetric
+	// eigensolver (not a published value). The sizes
 	// above denseEigenLimit exercise Lanczos.
 	cases := []struct {
 		name string
@@ -345,7 +348,7 @@ func TestLanczosMatchesDenseWithMasses(t *testing.T) {
 
 func TestFiedlerDisconnectedHasNoNaN(t *testing.T) {
 	// Two components and an isolated vertex: λ₂ = 0 (multiplicity of 0 =
-	// number of components, METHODS 3.1) and a finite vector.
+	// number of components; Chung 1997, ch. 1) and a finite vector.
 	g := mustGraph(t, 6, []graph.Edge{{A: 0, B: 1, W: 1}, {A: 1, B: 2, W: 2}, {A: 3, B: 4, W: 1}})
 	for _, m := range [][]float64{nil, {1, 1, 1, 1, 1, 1}} {
 		lambda, x := Fiedler(g, m, 1)
@@ -377,8 +380,8 @@ func TestFiedlerDisconnectedHasNoNaN(t *testing.T) {
 }
 
 func TestSweepCuts(t *testing.T) {
-	// METHODS 3.1: on two triangles and a bridge the best cut is the
-	// bridge, ψ = 1/9; METHODS 3.1/3.4: the Fiedler vector of P6 is
+	// By hand: on two triangles and a bridge the best cut is the bridge,
+	// ψ = 1/(3·3) = 1/9; the Fiedler vector of P6, cos(π(i+½)/6), is
 	// monotone, so the sweep splits the path in the middle (ψ = 1/9).
 	cases := []struct {
 		name string

@@ -1,6 +1,3 @@
-// Package solve builds the taxonomy tree: the hierarchy that fits the
-// similarity graph best under Dasgupta's cost among the trees that honour
-// every editorial constraint, and the average-linkage baseline.
 package solve
 
 // Tree is a rooted tree over leaves 0..N-1. Node ids 0..N-1 are the leaves

@@ -41,8 +41,10 @@ type Counts struct {
 
 // CarryJaccard is the least Jaccard overlap, on the items both versions
 // hold, at which a category of the previous version hands its name to a
-// new one. At or above 1/2 a category's candidates are nested in the other
-// tree (METHODS.md section 10), so the matching stays small.
+// new one. A category A overlaps two disjoint categories X and Y by more
+// than 1/2 only if |A∩X| + |A∩Y| > |A|, which cannot be, so from 1/2 up a
+// category's candidates lie (apart from ties at exactly 1/2) on one root
+// path of the other tree, and the matching stays small.
 const CarryJaccard = 0.5
 
 // Assign names every category below root (the root itself keeps no name),
