@@ -1,6 +1,7 @@
 package project
 
 import (
+	"errors"
 	"slices"
 
 	"github.com/ramify-tax/ramify/format"
@@ -23,6 +24,36 @@ type Compiled struct {
 	// Triplets counts the triplets that shapes and triplet records stand
 	// for; Groups counts cluster constraints.
 	Triplets, Groups int
+}
+
+// Conflict names the records of a conflicting set, given by the solver's
+// record numbers (positions in Records).
+func (c *Compiled) Conflict(recs []int) *ConflictError {
+	conflict := &ConflictError{}
+	for _, r := range recs {
+		conflict.Records = append(conflict.Records, c.Records[r])
+	}
+	return conflict
+}
+
+// NameConflict turns the solver's *solve.ConflictError, which numbers
+// the records, into a *ConflictError naming them; any other error comes
+// back as it is.
+func (c *Compiled) NameConflict(err error) error {
+	var ce *solve.ConflictError
+	if errors.As(err, &ce) {
+		return c.Conflict(ce.Records)
+	}
+	return err
+}
+
+// Consistent returns nil when the records over n items can all hold, and
+// otherwise a *ConflictError naming a smallest set that cannot.
+func (c *Compiled) Consistent(n int) error {
+	if ok, recs := solve.Consistent(n, c.Constraints); !ok {
+		return c.Conflict(recs)
+	}
+	return nil
 }
 
 // Compile turns every constraint record into solver constraints. It

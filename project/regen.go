@@ -144,8 +144,8 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	var tree *solve.Tree
 	plan, reason := p.localPlan(ro, keys, compiled)
 	if plan != nil {
-		if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
-			return nil, p.conflict(compiled, recs)
+		if err := compiled.Consistent(len(p.Items)); err != nil {
+			return nil, err
 		}
 		if opt.MaxChildren == 1 {
 			return nil, errors.New("solve: max children must be at least 2")
@@ -331,23 +331,10 @@ func (p *Project) build(method Method, g *graph.CSR, compiled *Compiled, opt sol
 		return res.Taxonomy, nil
 	}
 	res, err := solve.Solve(g, compiled.Constraints, opt)
-	var ce *solve.ConflictError
-	if errors.As(err, &ce) {
-		return nil, p.conflict(compiled, ce.Records)
-	}
 	if err != nil {
-		return nil, err
+		return nil, compiled.NameConflict(err)
 	}
 	return res.Taxonomy, nil
-}
-
-// conflict names the records of a conflicting set.
-func (p *Project) conflict(compiled *Compiled, recs []int) *ConflictError {
-	conflict := &ConflictError{}
-	for _, r := range recs {
-		conflict.Records = append(conflict.Records, compiled.Records[r])
-	}
-	return conflict
 }
 
 func (p *Project) itemsFilesText() string {

@@ -6,7 +6,6 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
-	"github.com/ramify-tax/ramify/solve"
 	"github.com/spf13/pflag"
 )
 
@@ -131,12 +130,8 @@ func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) e
 	}
 	p.Constraints = append(p.Constraints, added...)
 	compiled := p.Compile()
-	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
-		conflict := &project.ConflictError{}
-		for _, r := range recs {
-			conflict.Records = append(conflict.Records, compiled.Records[r])
-		}
-		return solveError(e, conflict)
+	if err := compiled.Consistent(len(p.Items)); err != nil {
+		return solveError(e, err)
 	}
 	return nil
 }

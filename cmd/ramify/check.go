@@ -121,12 +121,8 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 // committed outline breaks one of them, naming each record.
 func checkConstraints(e *env, p *project.Project) error {
 	compiled := p.Compile()
-	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
-		conflict := &project.ConflictError{}
-		for _, r := range recs {
-			conflict.Records = append(conflict.Records, compiled.Records[r])
-		}
-		return solveError(e, conflict)
+	if err := compiled.Consistent(len(p.Items)); err != nil {
+		return solveError(e, err)
 	}
 	tree := project.FromCategory(p.Outline.Root, p.Index, len(p.Items))
 	violated := solve.Satisfies(tree, compiled.Constraints)

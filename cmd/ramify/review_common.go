@@ -13,7 +13,6 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
-	"github.com/ramify-tax/ramify/solve"
 	"github.com/spf13/pflag"
 )
 
@@ -133,24 +132,9 @@ func reviewCommittee(e *env, p *project.Project, structure string) (*review.Comm
 		if compiled == nil {
 			return nil, err
 		}
-		return nil, solveError(e, convertConflict(compiled, err))
+		return nil, solveError(e, compiled.NameConflict(err))
 	}
 	return c, nil
-}
-
-// convertConflict turns the solver's conflict, which names records by
-// number, into the project's, which carries each record's place and
-// provenance.
-func convertConflict(compiled *project.Compiled, err error) error {
-	var ce *solve.ConflictError
-	if !errors.As(err, &ce) {
-		return err
-	}
-	out := &project.ConflictError{}
-	for _, r := range ce.Records {
-		out.Records = append(out.Records, compiled.Records[r])
-	}
-	return out
 }
 
 // sortedStrings returns s sorted (s itself is sorted in place).
