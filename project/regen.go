@@ -127,18 +127,10 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	if progress != nil {
 		progress("similarity graph", 1, 1)
 	}
-	opt := solve.Options{
-		MinSize:     p.Settings.Taxonomy.MinSize,
-		MaxChildren: p.Settings.Taxonomy.MaxChildren,
-		MaxDepth:    p.Settings.Taxonomy.MaxDepth,
-		Seed:        Seed,
-		Stability:   p.Settings.Taxonomy.Stability,
-		Progress:    progress,
-	}
-	ids := make([]string, len(p.Items))
-	for i, it := range p.Items {
-		ids[i] = it.ID
-	}
+	opt := p.CommitteeOptions()
+	opt.Stability = p.Settings.Taxonomy.Stability
+	opt.Progress = progress
+	ids := p.ItemIDs()
 	keys := p.RecordKeys()
 	sol := &Solution{Graph: g, Compiled: compiled}
 	var tree *solve.Tree
