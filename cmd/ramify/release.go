@@ -6,7 +6,6 @@ import (
 	"encoding/hex"
 	"errors"
 	"fmt"
-	"io/fs"
 	"os"
 	"path/filepath"
 	"regexp"
@@ -141,13 +140,17 @@ func runRelease(e *env, args []string) error {
 		return withGate("check", err)
 	}
 	// Gate 2: nothing waiting for a verdict.
-	open, err := packetFiles(dir, "reviews/open")
+	open, err := listPackets(dir, review.OpenDir)
 	if err != nil {
 		return err
 	}
 	if len(open) > 0 {
-		return failf("gate open packets: %s in reviews/open/ (%s); answer them and run `ramify absorb`",
-			plural(len(open), "packet waits", "packets wait"), strings.Join(open, ", "))
+		rels := make([]string, len(open))
+		for i, f := range open {
+			rels[i] = f.rel
+		}
+		return failf("gate open packets: %s in %s/ (%s); answer them and run `ramify absorb`",
+			plural(len(open), "packet waits", "packets wait"), review.OpenDir, strings.Join(rels, ", "))
 	}
 	// Gate 3: enough audits on this tree, reject rate bounded.
 	structure := format.StructureHash(p.Outline.Root)
@@ -327,56 +330,19 @@ func sha256Hex(b []byte) string {
 	return hex.EncodeToString(s[:])
 }
 
-// packetFiles lists the .outline files of a reviews folder.
-func packetFiles(dir, rel string) ([]string, error) {
-	folder, err := project.Resolve(dir, rel)
-	if err != nil {
-		return nil, err
-	}
-	entries, err := os.ReadDir(folder)
-	if errors.Is(err, fs.ErrNotExist) {
-		return nil, nil
-	}
-	if err != nil {
-		return nil, err
-	}
-	var out []string
-	for _, en := range entries {
-		if en.Type().IsRegular() && strings.HasSuffix(en.Name(), ".outline") {
-			out = append(out, rel+"/"+en.Name())
-		}
-	}
-	sort.Strings(out)
-	return out, nil
-}
-
 // readDonePackets parses the audit log, reviews/done/*.outline.
 func readDonePackets(dir string) ([]*format.Packet, error) {
-	files, err := packetFiles(dir, "reviews/done")
+	files, err := listPackets(dir, review.DoneDir)
 	if err != nil {
 		return nil, err
 	}
-	var out []*format.Packet
-	var ds format.Diags
-	for _, rel := range files {
-		full, err := project.Resolve(dir, rel)
-		if err != nil {
-			return nil, err
-		}
-		data, err := format.ReadFileLimited(full, rel, format.MaxSmallFileBytes)
-		if err != nil {
-			ds = append(ds, format.AsDiags(err, rel)...)
-			continue
-		}
-		pk, err := format.ParsePacket(rel, data)
-		if err != nil {
-			ds = append(ds, format.AsDiags(err, rel)...)
-			continue
-		}
-		out = append(out, pk)
-	}
+	answers, ds := parsePackets(files)
 	if len(ds) > 0 {
 		return nil, ds
+	}
+	out := make([]*format.Packet, len(answers))
+	for i, a := range answers {
+		out[i] = a.Packet
 	}
 	return out, nil
 }
@@ -404,12 +370,12 @@ func releaseInputs(p *project.Project) ([]string, error) {
 	for _, f := range files {
 		set[f] = true
 	}
-	done, err := packetFiles(p.Dir, "reviews/done")
+	done, err := listPackets(p.Dir, review.DoneDir)
 	if err != nil {
 		return nil, err
 	}
 	for _, f := range done {
-		set[f] = true
+		set[f.rel] = true
 	}
 	out := make([]string, 0, len(set))
 	for f := range set {

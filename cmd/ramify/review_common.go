@@ -87,6 +87,12 @@ func readPackets(dir, rel string) ([]*review.Answer, format.Diags) {
 	if err != nil {
 		return nil, format.Diags{{Pos: format.Pos{File: rel}, Msg: err.Error()}}
 	}
+	return parsePackets(files)
+}
+
+// parsePackets reads and parses packet files, reporting every problem of
+// every file.
+func parsePackets(files []packetFile) ([]*review.Answer, format.Diags) {
 	var out []*review.Answer
 	var ds format.Diags
 	for _, f := range files {
