@@ -1,6 +1,12 @@
 package format
 
-import "fmt"
+import (
+	"bytes"
+	"fmt"
+	"slices"
+	"sort"
+	"strings"
+)
 
 var itemKeys = []string{"id", "label", "tags", "text"}
 
@@ -83,4 +89,33 @@ func addTOMLItem(set *itemSet, r *tomlRecord) bool {
 		}
 	}
 	return set.add(it, at)
+}
+
+// FormatItemsTOML writes items as an items.toml file that ParseItemsTOML
+// reads back: header (comment lines, written as given), then one [[item]]
+// table per item in id order with only the keys that have values, every
+// string a TOML basic string.
+func FormatItemsTOML(header string, items []Item) []byte {
+	var b bytes.Buffer
+	b.WriteString(header)
+	sorted := slices.Clone(items)
+	sort.Slice(sorted, func(i, j int) bool { return sorted[i].ID < sorted[j].ID })
+	for _, it := range sorted {
+		b.WriteString("\n[[item]]\n")
+		b.WriteString("id = " + tomlQuote(it.ID) + "\n")
+		if it.Label != "" {
+			b.WriteString("label = " + tomlQuote(it.Label) + "\n")
+		}
+		if len(it.Tags) > 0 {
+			quoted := make([]string, len(it.Tags))
+			for i, t := range it.Tags {
+				quoted[i] = tomlQuote(t)
+			}
+			b.WriteString("tags = [" + strings.Join(quoted, ", ") + "]\n")
+		}
+		if it.Text != "" {
+			b.WriteString("text = " + tomlQuote(it.Text) + "\n")
+		}
+	}
+	return b.Bytes()
 }

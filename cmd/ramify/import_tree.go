@@ -1,7 +1,6 @@
 package main
 
 import (
-	"sort"
 	"strings"
 	"unicode"
 
@@ -275,11 +274,4 @@ func importHasControl(s, allowed string) bool {
 		}
 	}
 	return false
-}
-
-// itemsByID orders items by id, the order items.toml is written in.
-func itemsByID(items []format.Item) []format.Item {
-	out := append([]format.Item(nil), items...)
-	sort.Slice(out, func(i, j int) bool { return out[i].ID < out[j].ID })
-	return out
 }
