@@ -20,10 +20,15 @@ const DefaultCommitteeSize = 20
 // any GOMAXPROCS.
 const committeeWorkers = 4
 
-// Committee is a set of trees solved under the same constraints on
-// randomly reweighted copies of one similarity graph (METHODS 8.1): where
-// they agree, the data and the decisions fix the tree firmly; where they
-// differ, a reviewer's answer is worth most.
+// Committee is a set of trees solved under the same constraints on randomly
+// reweighted copies of one similarity graph — the bootstrap support of
+// phylogenetics (J. Felsenstein, "Confidence limits on phylogenies: an
+// approach using the bootstrap", Evolution 39(4), 1985) with the Bayesian
+// bootstrap's weights (D. B. Rubin, "The Bayesian bootstrap", Ann. Statist.
+// 9(1), 1981) in place of resampling — and the committee of query by
+// committee (H. S. Seung, M. Opper & H. Sompolinsky, "Query by committee",
+// COLT 1992): where they agree, the data and the decisions fix the tree
+// firmly; where they differ, a reviewer's answer is worth most.
 type Committee struct {
 	N int // items
 	// Trees are the folded taxonomies, Binary the binary hierarchies they

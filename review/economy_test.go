@@ -13,13 +13,13 @@ import (
 	"github.com/ramify-tax/ramify/solve/planted"
 )
 
-// The review economy (DESIGN 9): a scripted reviewer answers packets from a
-// hidden target tree, a seeded planted hierarchy; each round's packets are
-// answered, every "fixed" one becomes a shape (the target's triplets among
-// the packet's items), and the taxonomy is solved again. Counted: packets
-// until the triplet agreement with the target reaches economyTarget,
-// committee-chosen packets against uniformly random ones. The target is to
-// need at most half as many.
+// The review economy, a target the project sets itself: a scripted reviewer
+// answers packets from a hidden target tree, a seeded planted hierarchy;
+// each round's packets are answered, every "fixed" one becomes a shape (the
+// target's triplets among the packet's items), and the taxonomy is solved
+// again. Counted: packets until the triplet agreement with the target
+// reaches economyTarget, committee-chosen packets against uniformly random
+// ones. The target is to need at most half as many.
 //
 // The graph is fuzzyGraph (decay 1.3, 6 draws per item, noise 0.8), on
 // which the data-only solve agrees with the target on about 95% of the

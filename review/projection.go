@@ -6,8 +6,9 @@ import (
 	"github.com/ramify-tax/ramify/format"
 )
 
-// Restrict is the tree restricted to the given items (METHODS 8.2, the
-// tree a review packet shows): items not listed are dropped, categories
+// Restrict is the tree restricted to the given items (the restriction
+// T|Q of phylogenetics, e.g. Semple & Steel, Phylogenetics, OUP 2003;
+// the tree a review packet shows): items not listed are dropped, categories
 // left empty are dropped, and a category left with a single child (one
 // item or one subcategory) is replaced by that child, so that only the
 // lowest common categories of the listed items remain, under their names

@@ -31,7 +31,7 @@ glue-gun
 `
 
 func TestRestrict(t *testing.T) {
-	// METHODS 8.2: T|Q keeps the lowest common ancestors of Q and
+	// The restriction T|Q keeps the lowest common ancestors of Q and
 	// suppresses unary nodes; categories keep their full-tree names.
 	tests := []struct {
 		name  string

@@ -67,14 +67,15 @@ func TestSummarizeAudits(t *testing.T) {
 	}
 	// 4 rejections in 20 audits: exact 95% interval [0.0573339971,
 	// 0.4366140030], R's binom.confint(method = "exact") as stored in
-	// statsmodels' test results (METHODS.md 9, [P]).
+	// statsmodels' test results (published reference values; Clopper &
+	// Pearson, Biometrika 26(4), 1934).
 	done, next = nil, 0
 	add(16, format.ReasonAudit, structure, format.VerdictOK, true)
 	add(4, format.ReasonAudit, structure, format.VerdictFixed, false)
 	if s := SummarizeAudits(done, current); s.Rate != 0.2 || math.Abs(s.Lo-0.0573339971) > 1e-8 || math.Abs(s.Hi-0.4366140030) > 1e-8 {
 		t.Errorf("rate %v, interval [%.10f, %.10f]", s.Rate, s.Lo, s.Hi)
 	}
-	// 0 of 30 rejected: upper end 0.1157033082 (METHODS.md 9, same source),
+	// 0 of 30 rejected: upper end 0.1157033082 (the same statsmodels data),
 	// above the default gate of 0.10, which needs 6 more.
 	done, next = nil, 0
 	add(30, format.ReasonAudit, structure, format.VerdictOK, true)

@@ -12,10 +12,11 @@ func (c *Committee) Votes(a, b, x int32) [4]int {
 	return v
 }
 
-// VoteEntropy is the entropy, in nats, of a committee's votes (Dagan &
-// Engelson's vote entropy): −Σ (v/B) ln(v/B) over the classes, B the
-// number of votes. Unanimous votes give 0; votes spread evenly over k
-// classes give ln k. No votes give 0.
+// VoteEntropy is the entropy, in nats, of a committee's votes (the vote
+// entropy of I. Dagan & S. P. Engelson, "Committee-based sampling for
+// training probabilistic classifiers", ICML 1995): −Σ (v/B) ln(v/B) over
+// the classes, B the number of votes. Unanimous votes give 0; votes spread
+// evenly over k classes give ln k. No votes give 0.
 func VoteEntropy(votes []int) float64 {
 	total := 0
 	for _, v := range votes {
@@ -35,7 +36,8 @@ func VoteEntropy(votes []int) float64 {
 }
 
 // MajorityDisagreement is the share of votes that do not go to the most
-// popular class, 1 − max/B (D_maj of METHODS 8.3); 0 for no votes.
+// popular class, 1 − max/B (L. C. Freeman's variation ratio, Elementary
+// Applied Statistics, 1965); 0 for no votes.
 func MajorityDisagreement(votes []int) float64 {
 	total, best := 0, 0
 	for _, v := range votes {
@@ -49,8 +51,11 @@ func MajorityDisagreement(votes []int) float64 {
 }
 
 // Disagreement is the committee's vote entropy averaged over the triplets
-// of items (METHODS 8.3: whole-packet votes saturate at ln B, triplets do
-// not). Fewer than three items have no triplet and score 0.
+// of items. Votes on the whole restricted tree would not rank packets: a
+// packet of 8 items has 135135 binary shapes alone, so B committee trees
+// tend to cast B different votes and the entropy sits at ln B; votes
+// per triplet fall into four classes and do not saturate. Fewer than three
+// items have no triplet and score 0.
 func (c *Committee) Disagreement(items []int32) float64 {
 	if len(items) < 3 {
 		return 0

@@ -11,7 +11,9 @@ import (
 )
 
 // ClopperPearson is the exact two-sided confidence interval for a binomial
-// proportion (Clopper & Pearson 1934): with x failures in n trials and
+// proportion (C. J. Clopper & E. S. Pearson, "The use of confidence or
+// fiducial limits illustrated in the case of the binomial", Biometrika
+// 26(4), 1934): with x failures in n trials and
 // confidence level (0.95 for a 95% interval), α = 1 − level and
 //
 //	lo = B⁻¹(α/2; x, n−x+1)     (0 when x = 0)

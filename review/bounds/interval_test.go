@@ -68,9 +68,11 @@ func TestClopperPearsonUpperMatchesSciPy(t *testing.T) {
 	}
 }
 
-// Values from R binom.confint(method="exact") as stored in statsmodels' test
-// results, quoted in METHODS.md section 9 (tag [P], matched there by
-// bisection to 1e-8), and the 8/10 example at three levels (tag [C]).
+// Published reference values: R's binom.confint(method="exact") as stored
+// in statsmodels' test results (and reproduced independently by bisection
+// on the binomial tail to 1e-8). The 8/10 intervals at three levels were
+// computed for this test by the same bisection, not taken from a
+// publication.
 func TestClopperPearsonPublishedValues(t *testing.T) {
 	tests := []struct {
 		x, n           int
@@ -85,7 +87,7 @@ func TestClopperPearsonPublishedValues(t *testing.T) {
 		{29, 30, 0.95, 0.8278305444, 0.9991564291, 1e-9},
 		{0, 30, 0.95, 0, 0.1157033082, 1e-9},
 		{30, 30, 0.95, 0.8842966918, 1, 1e-9},
-		// METHODS 9, 8/10 [C, matches a public example], six decimals.
+		// 8/10, computed by bisection (see above), six decimals.
 		{8, 10, 0.95, 0.443905, 0.974789, 1e-6},
 		{8, 10, 0.99, 0.351799, 0.989149, 1e-6},
 		{8, 10, 0.90, 0.493099, 0.963229, 1e-6},
@@ -98,7 +100,8 @@ func TestClopperPearsonPublishedValues(t *testing.T) {
 	}
 }
 
-// METHODS.md section 9 table of two-sided 95% intervals [C], four decimals.
+// Two-sided 95% intervals, four decimals: computed for this test by
+// bisection on the binomial tail, not published values.
 func TestClopperPearsonTable(t *testing.T) {
 	xs := []int{0, 1, 2, 5}
 	table := map[int][4][2]float64{
@@ -115,13 +118,14 @@ func TestClopperPearsonTable(t *testing.T) {
 			want := table[n][i]
 			lo, hi := ClopperPearson(x, n, 0.95)
 			if math.Abs(lo-want[0]) > 5e-5 || math.Abs(hi-want[1]) > 5e-5 {
-				t.Errorf("ClopperPearson(%d, %d, 0.95) = [%.4f, %.4f], want [%.4f, %.4f] (METHODS 9 table)", x, n, lo, hi, want[0], want[1])
+				t.Errorf("ClopperPearson(%d, %d, 0.95) = [%.4f, %.4f], want [%.4f, %.4f]", x, n, lo, hi, want[0], want[1])
 			}
 		}
 	}
 }
 
-// METHODS.md section 9, one-sided 95% upper bounds [C], five decimals.
+// One-sided 95% upper bounds, five decimals: computed by bisection on the
+// binomial tail, not published values.
 func TestClopperPearsonUpperTable(t *testing.T) {
 	want := map[int][3]float64{
 		10:  {.25887, .39416, .50690},
@@ -132,16 +136,17 @@ func TestClopperPearsonUpperTable(t *testing.T) {
 	for _, n := range []int{10, 30, 100, 300} {
 		for x := 0; x < 3; x++ {
 			if got := ClopperPearsonUpper(x, n, 0.95); math.Abs(got-want[n][x]) > 5e-6 {
-				t.Errorf("ClopperPearsonUpper(%d, %d, 0.95) = %.5f, want %.5f (METHODS 9)", x, n, got, want[n][x])
+				t.Errorf("ClopperPearsonUpper(%d, %d, 0.95) = %.5f, want %.5f", x, n, got, want[n][x])
 			}
 		}
 	}
 }
 
-// Rule of three (Hanley & Lippman-Hand 1983, as summarised in METHODS.md
-// section 9): with no failures in n trials the one-sided 95% upper bound is
-// close to 3/n; exactly 1 − 0.05^(1/n). METHODS gives 0.09503 vs 0.1 at
-// n = 30 and 0.02951 vs 0.03 at n = 100.
+// Rule of three (J. A. Hanley & A. Lippman-Hand, "If nothing goes wrong,
+// is everything all right?", JAMA 249(13), 1983): with no failures in n
+// trials the one-sided 95% upper bound is close to 3/n, since
+// −ln 0.05 = 2.9957; exactly 1 − 0.05^(1/n): 0.09503 vs 0.1 at n = 30 and
+// 0.02951 vs 0.03 at n = 100 (computed from the closed form).
 func TestRuleOfThree(t *testing.T) {
 	tests := []struct {
 		n     int
@@ -164,9 +169,9 @@ func TestRuleOfThree(t *testing.T) {
 	}
 }
 
-// METHODS.md section 9: zero-failure audit sizes ⌈ln 0.05 / ln(1−p₀)⌉ for
-// "rejection rate < p₀" at one-sided 95% [C]. The bound at that size is
-// below p₀ and one packet fewer is not.
+// Zero-failure audit sizes ⌈ln 0.05 / ln(1−p₀)⌉ for "rejection rate < p₀"
+// at one-sided 95%, from solving 1 − 0.05^(1/n) < p₀ for n (derived here).
+// The bound at that size is below p₀ and one packet fewer is not.
 func TestZeroFailureAuditSizes(t *testing.T) {
 	tests := []struct {
 		p0 float64
@@ -205,7 +210,7 @@ func TestClopperPearsonProperties(t *testing.T) {
 		}
 		_, hi := ClopperPearson(0, n, 0.95)
 		if closed := 1 - math.Pow(0.025, 1/float64(n)); math.Abs(hi-closed) > 1e-12 {
-			t.Errorf("ClopperPearson(0, %d, 0.95) upper = %v, want 1-0.025^(1/n) = %v (METHODS 9)", n, hi, closed)
+			t.Errorf("ClopperPearson(0, %d, 0.95) upper = %v, want 1-0.025^(1/n) = %v", n, hi, closed)
 		}
 	}
 }
