@@ -19,7 +19,7 @@ func TestCompareDegenerateOutlines(t *testing.T) {
 		{"from nothing", "", "A/\n  x\n  y\n", true, false},
 		{"flat lists", "x\ny\nz\n", "x\ny\nz\n", true, false},
 		// A flat list is a star: its lca sizes are constant, so the
-		// correlation is undefined (METHODS 7.4, the star row).
+		// correlation is undefined (see TestMetricsSmallTrees).
 		{"flat to nested", "w\nx\ny\nz\n", "A/\n  w\n  x\ny\nz\n", true, false},
 		{"nested both", "A/\n  w\n  x\ny\nz\n", "A/\n  w\n  y\nx\nz\n", true, true},
 	}

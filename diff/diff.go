@@ -123,7 +123,9 @@ func (r *Report) AllMoved() []Move { return r.all }
 const (
 	// MatchJaccard is the least Jaccard overlap, on common items, at which
 	// an old and a new category count as the same category (matched).
-	// Above 1/2 the candidates of a category are nested (METHODS.md 10).
+	// Above 1/2 the candidates of a category are nested: two disjoint
+	// categories X, Y cannot both overlap A by more than half, as that
+	// would need |A∩X| + |A∩Y| > |A|.
 	MatchJaccard = 0.5
 	// Mostly is the share that "mostly" means in the split and merge
 	// rules: at least 80%, checked in integers as 5·part ≥ 4·whole.

@@ -14,9 +14,11 @@ type Pair struct {
 
 // MatchClusters pairs old clusters with new ones so that the total Jaccard
 // overlap is as large as possible — a maximum-weight bipartite matching
-// (Kuhn 1955; Munkres 1957) — and then keeps the pairs whose overlap is at
-// least minJaccard. The threshold is applied after matching, as METHODS.md
-// section 10 specifies: a weak pair still takes part in the optimum, and a
+// (H. W. Kuhn, "The Hungarian method for the assignment problem", Naval
+// Res. Logist. Q. 2, 1955; J. Munkres, "Algorithms for the assignment and
+// transportation problems", J. SIAM 5, 1957) — and then keeps the pairs
+// whose overlap is at least minJaccard. The threshold is applied after
+// matching, by design: a weak pair still takes part in the optimum, and a
 // cluster whose best partner is taken elsewhere is left unmatched rather
 // than given a worse partner that would lower the total.
 //

@@ -9,12 +9,12 @@ import (
 	"github.com/google/go-cmp/cmp"
 )
 
-// methodsCheckSets realises the Jaccard matrix of the METHODS.md section 10
-// check value with actual leaf sets: rows A, B, C (old) × columns X, Y, Z
+// jaccardExampleSets realises a Jaccard matrix of our own, small enough to
+// check by hand, with actual leaf sets: rows A, B, C (old) × columns X, Y, Z
 // (new), J = [[.6,.5,0],[.5,0,.1],[0,.4,.3]]. The block sizes were found by
 // an exact rational LP (the equations (1+J)|o∩n| = J(|o|+|n|) are linear in
 // the block sizes); the test checks the resulting matrix exactly.
-func methodsCheckSets() (old, new [][]int32) {
+func jaccardExampleSets() (old, new [][]int32) {
 	blocks := []struct {
 		old, new []int // indices into A,B,C and X,Y,Z
 		size     int
@@ -60,9 +60,9 @@ func jaccard(a, b []int32) (inter, union int) {
 	return inter, len(a) + len(b) - inter
 }
 
-func TestMatchClustersMethodsCheckValue(t *testing.T) {
-	old, new := methodsCheckSets()
-	// The sets realise METHODS 10's matrix exactly (tenths as integers).
+func TestMatchClustersJaccardExample(t *testing.T) {
+	old, new := jaccardExampleSets()
+	// The sets realise the matrix exactly (tenths as integers).
 	want := [3][3]int{{6, 5, 0}, {5, 0, 1}, {0, 4, 3}}
 	for r := range 3 {
 		for c := range 3 {
@@ -72,8 +72,8 @@ func TestMatchClustersMethodsCheckValue(t *testing.T) {
 			}
 		}
 	}
-	// METHODS 10 [C: brute force over all 3! assignments]: the optimum is
-	// A–Y, B–X, C–Z with total 1.3 (unique).
+	// By brute force over all 3! assignments (not a published value): the
+	// optimum is A–Y, B–X, C–Z with total 1.3 (unique).
 	got := MatchClusters(old, new, 0)
 	wantPairs := []Pair{{0, 1, 0.5}, {1, 0, 0.5}, {2, 2, 0.3}}
 	if diff := cmp.Diff(wantPairs, got); diff != "" {
@@ -84,13 +84,13 @@ func TestMatchClustersMethodsCheckValue(t *testing.T) {
 		total += p.Jaccard
 	}
 	if math.Abs(total-1.3) > 1e-12 {
-		t.Errorf("matched total = %v, want 1.3 (METHODS 10)", total)
+		t.Errorf("matched total = %v, want 1.3", total)
 	}
-	// Greedy by largest overlap takes A–X first and ends at 1.1 (METHODS 10).
+	// Greedy by largest overlap takes A–X first and ends at 1.1 (by hand).
 	if g := greedyTotal(old, new); math.Abs(g-1.1) > 1e-12 {
-		t.Errorf("greedy total = %v, want 1.1 (METHODS 10)", g)
+		t.Errorf("greedy total = %v, want 1.1", g)
 	}
-	// τ = 0.35 applied after matching drops C–Z only (METHODS 10).
+	// τ = 0.35 applied after matching drops C–Z only.
 	got = MatchClusters(old, new, 0.35)
 	if diff := cmp.Diff(wantPairs[:2], got); diff != "" {
 		t.Errorf("MatchClusters(τ=0.35) mismatch (-want +got):\n%s", diff)

@@ -15,8 +15,10 @@ import (
 // to disagree on and the agreement is 1.
 //
 // The count is exact, in O(n² log d) time for depth d and O(n) memory:
-// triples resolved the same way in both trees by the pair method of
-// METHODS.md 7.2, plus the triples unresolved in both by inclusion–exclusion
+// triples resolved the same way in both trees by counting, for each pair,
+// the leaves outside both its lca clusters (derived in countTriplets and
+// checked against brute force), plus the triples unresolved in both by
+// inclusion–exclusion
 // (see countTriplets). For large n use TripletAgreementSampled.
 // It panics if the trees are over different numbers of leaves or malformed.
 func TripletAgreement(a, b *solve.Tree) float64 {

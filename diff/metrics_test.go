@@ -8,9 +8,11 @@ import (
 	"github.com/ramify-tax/ramify/solve"
 )
 
-// METHODS.md 7.4, tree-comparison check values [C: brute force]. The
-// triplet column there is the triplet distance: triples that differ.
-func TestMetricsMethodsTable(t *testing.T) {
+// Small tree pairs whose RF distance (Robinson & Foulds 1981), triplet
+// distance (triples that differ; Critchlow, Pearl & Qian 1996) and
+// cophenetic correlation of lca sizes were computed by brute force for
+// this test, not taken from a publication.
+func TestMetricsSmallTrees(t *testing.T) {
 	abcd := []string{"a", "b", "c", "d"}
 	one8 := []string{"1", "2", "3", "4", "5", "6", "7", "8"}
 	one5 := one8[:5]
@@ -32,18 +34,18 @@ func TestMetricsMethodsTable(t *testing.T) {
 	for _, tc := range tests {
 		t.Run(tc.name, func(t *testing.T) {
 			if d, _ := RF(tc.t1, tc.t2); d != tc.rf {
-				t.Errorf("RF = %d, want %d (METHODS 7.4)", d, tc.rf)
+				t.Errorf("RF = %d, want %d", d, tc.rf)
 			}
 			want := 1 - float64(tc.differ)/float64(tc.triples)
 			if got := TripletAgreement(tc.t1, tc.t2); math.Abs(got-want) > 1e-15 {
-				t.Errorf("TripletAgreement = %v, want %v = 1 − %d/%d (METHODS 7.4)", got, want, tc.differ, tc.triples)
+				t.Errorf("TripletAgreement = %v, want %v = 1 − %d/%d", got, want, tc.differ, tc.triples)
 			}
 			r, ok := CopheneticCorrelation(tc.t1, tc.t2)
 			if tc.name == "against a star" && ok {
-				t.Errorf("CopheneticCorrelation = %v, true; want undefined for a star (METHODS 7.4)", r)
+				t.Errorf("CopheneticCorrelation = %v, true; want undefined for a star", r)
 			}
 			if tc.cophDefined && (!ok || math.Abs(r-tc.coph) > 1e-6) {
-				t.Errorf("CopheneticCorrelation = %v, %v; want %v (METHODS 7.4)", r, ok, tc.coph)
+				t.Errorf("CopheneticCorrelation = %v, %v; want %v", r, ok, tc.coph)
 			}
 		})
 	}
@@ -84,7 +86,8 @@ func TestTripletAgreementSmallN(t *testing.T) {
 }
 
 // Two independent uniform binary trees agree on a given triplet with
-// probability 1/3 (METHODS.md 8.3 [C]); random-merge trees on 60 leaves
+// probability 1/3 (by label symmetry each of the three resolutions is
+// equally likely in the second tree); random-merge trees on 60 leaves
 // are not uniform over shapes but are label-symmetric, which is all the
 // argument needs. The sampled interval must also cover the exact value.
 func TestTripletAgreementSampled(t *testing.T) {
@@ -107,7 +110,7 @@ func TestTripletAgreementSampled(t *testing.T) {
 		}
 	}
 	if mean := sum / pairs; math.Abs(mean-1.0/3) > 0.03 {
-		t.Errorf("mean agreement of independent random binary trees = %v, want ≈ 1/3 (METHODS 8.3)", mean)
+		t.Errorf("mean agreement of independent random binary trees = %v, want ≈ 1/3", mean)
 	}
 	// Same seed, same draws.
 	a, b := randomTree(rng, 30, 0.3, 0), randomTree(rng, 30, 0.3, 0)
@@ -141,8 +144,9 @@ func TestRFMatchesBruteForce(t *testing.T) {
 	}
 }
 
-// Two binary trees on n leaves are at most 2(n−2) apart (METHODS 7.1),
-// reached by the reversed caterpillars of METHODS 7.4.
+// Two binary trees on n leaves are at most 2(n−2) apart (each has n−2
+// non-trivial clusters; Robinson & Foulds 1981), reached by the reversed
+// caterpillars of TestMetricsSmallTrees.
 func TestRFBinaryMaximum(t *testing.T) {
 	one5 := []string{"1", "2", "3", "4", "5"}
 	d, norm := RF(mustNewick("((((1,2),3),4),5);", one5...), mustNewick("((((5,4),1),3),2);", one5...))

@@ -27,7 +27,6 @@ func (c tripletCounts) agreeing() int64 {
 // For a pair {a, b} let A = L_x(lca_x(a,b)) and B = L_y(lca_y(a,b)). A third
 // leaf c makes ab the resolved pair ("cherry") of {a,b,c} in x exactly when
 // c ∉ A, so each triple resolved in x is counted once by its cherry, and
-// (METHODS.md 7.2)
 //
 //	sameSplit = Σ_{a<b} (n − |A ∪ B|)   resolvedA = Σ_{a<b} (n − |A|).
 //

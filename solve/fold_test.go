@@ -11,7 +11,7 @@ import (
 
 func noProgress(string, int, int) {}
 
-func TestFoldCollapseMethodsExample(t *testing.T) {
+func TestFoldCollapseTwoTriangles(t *testing.T) {
 	// Contracting (0,(1,2)) into the root of the two-triangle optimum
 	// costs Δ = (6−3)·2 = 6, so the cost goes from 22 to 28 (by hand).
 	g := twoTriangles(t)

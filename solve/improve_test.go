@@ -36,7 +36,7 @@ func rotate(t *Tree, v, u, keep, promote int32) {
 	t.Kids[v] = []int32{u, promote}
 }
 
-func TestRotationMethodsExample(t *testing.T) {
+func TestRotationTwoTriangles(t *testing.T) {
 	// By hand: on two triangles with OPT ((0,(1,2)),(3,(4,5))) = 22,
 	// ((0,(3,(4,5))),(1,2)) has Δ = 3·2 − 2·0 = +6 (cost 28) and
 	// (((1,2),(3,(4,5))),0) has Δ = 3·2 − 1·1 = +5 (cost 27).
