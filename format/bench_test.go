@@ -7,7 +7,8 @@ import (
 	"testing"
 )
 
-// Benchmarks measure the codecs at the sizes DESIGN section 9 aims for;
+// Benchmarks measure the codecs at the sizes the project aims for (up to
+// 100,000 items, see README "Capacity and limits");
 // run with go test -bench . -benchmem ./format.
 
 func benchOutline(n int) []byte {

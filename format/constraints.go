@@ -86,8 +86,8 @@ var (
 )
 
 // ParseConstraints reads a constraints file: [[triplet]], [[group]] and
-// [[shape]] records in any mix (DESIGN section 6). Every problem is
-// reported with its place.
+// [[shape]] records in any mix (the records of README "A tour of the
+// workflow"). Every problem is reported with its place.
 func ParseConstraints(file string, data []byte) (*ConstraintFile, error) {
 	doc, ds := decodeTOML(file, data, constraintLimits)
 	if len(ds) > 0 {

@@ -12,7 +12,8 @@ import (
 	"github.com/google/go-cmp/cmp/cmpopts"
 )
 
-// designExample is the record syntax of DESIGN section 6, comments and all.
+// designExample is the project's reference example of the record syntax,
+// one record of each kind, comments and all.
 const designExample = `[[triplet]]                     # a and b belong together before either joins c
 pair = ["claw-hammer", "mallet-rubber"]
 out = "drill-driver-18v"

@@ -40,8 +40,9 @@ var (
 	packetFields   = []string{"verdict", "reviewer", "note"}
 )
 
-// Packet is a review packet (DESIGN section 7): the tree restricted to a
-// few items, with why and from what it was drawn and the reviewer's answer.
+// Packet is a review packet (README "A tour of the workflow"): the tree
+// restricted to a few items, with why and from what it was drawn and the
+// reviewer's answer.
 type Packet struct {
 	Reason string // ReasonUncertain or ReasonAudit
 	From   string // structure hash of the taxonomy it was drawn from

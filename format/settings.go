@@ -6,7 +6,7 @@ import (
 	"strings"
 )
 
-// Settings is a parsed ramify.toml (DESIGN section 4). Keys a file leaves
+// Settings is a parsed ramify.toml. Keys a file leaves
 // out keep the values of DefaultSettings.
 type Settings struct {
 	Items      ItemsSettings

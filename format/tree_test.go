@@ -6,7 +6,8 @@ import (
 	"testing"
 )
 
-// ValidItemID must accept exactly what DESIGN section 3 says.
+// ValidItemID must accept exactly the documented item-id rule,
+// [A-Za-z0-9][A-Za-z0-9._:-]* (see ValidItemID).
 func TestValidItemIDMatchesTheRule(t *testing.T) {
 	rule := regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9._:-]*$`)
 	cases := []string{"", "a", "A9", "9", "claw-hammer", "isbn:978-3", "a.b_c", "-a", ".a", "_a", ":a",

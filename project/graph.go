@@ -81,8 +81,9 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 			}
 			rows[i] = r
 		}
-		// Cosine on z-scored features is the documented vector similarity
-		// (METHODS 1.1); the Gaussian kernel stays available in solve/graph.
+		// Cosine on z-scored features is the project's chosen vector
+		// similarity; the Gaussian kernel with local scaling stays
+		// available in solve/graph.
 		if p.Vectors.Values32 != nil {
 			return graph.VectorRows(b, p.Vectors.Values32, rows, n, dim, graph.Cosine)
 		}

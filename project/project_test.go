@@ -59,8 +59,8 @@ func TestResolveStaysInside(t *testing.T) {
 	}
 }
 
-// TestShapeTriplets: an outline stands for the triplets it resolves
-// (DESIGN section 6). For ((a,b),c),d written as nested categories the
+// TestShapeTriplets: a shape record's outline stands for the triplets it
+// resolves. For ((a,b),c),d written as nested categories the
 // resolved triplets are ab|c, ab|d, ac|d and bc|d — C(4,3) = 4 triples,
 // each resolved; three items meeting in one category resolve nothing.
 func TestShapeTriplets(t *testing.T) {

@@ -8,8 +8,9 @@
 //
 //	go run ./bench/stability [-sizes 1000,20000] [-trials 15] [-ramify BIN]
 //
-// Target (DESIGN.md section 9): median at most 1% of the items per record,
-// and no top-level category dissolved by a record that does not name it.
+// Target (the project's stability goal): median at most 1% of the items per
+// record, and no top-level category dissolved by a record that does not
+// name it.
 package main
 
 import (
