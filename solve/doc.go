@@ -2,7 +2,8 @@
 // similarity graph best under Dasgupta's cost among the trees that honour
 // every editorial constraint, and the average-linkage baseline.
 //
-// Each algorithm's doc comment names the paper it follows.
+// docs/methods.md describes the methods and their papers; each algorithm's
+// doc comment names the paper it follows.
 //
 // # Explicit float64 conversions around products
 //
