@@ -6,6 +6,7 @@ import (
 	"math/rand/v2"
 	"sync"
 
+	"github.com/ramify-tax/ramify/internal/splitmix"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
@@ -144,10 +145,7 @@ func (c *Committee) Size() int { return len(c.Trees) }
 // (SplitMix64's finaliser), so neighbouring replicates get unrelated
 // streams.
 func replicateSeed(seed uint64, b int) uint64 {
-	z := seed + uint64(b+1)*0x9e3779b97f4a7c15
-	z = (z ^ (z >> 30)) * 0xbf58476d1ce4e5b9
-	z = (z ^ (z >> 27)) * 0x94d049bb133111eb
-	return z ^ (z >> 31)
+	return splitmix.Mix(seed + uint64(b+1)*splitmix.Gamma)
 }
 
 func solveReplicate(n int, edges []graph.Edge, c *solve.Constraints, opt solve.Options, seed uint64) (taxonomy, binary *solve.Tree, err error) {

@@ -11,6 +11,7 @@ import (
 	"gonum.org/v1/gonum/lapack/lapack64"
 	"gonum.org/v1/gonum/mat"
 
+	"github.com/ramify-tax/ramify/internal/splitmix"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -219,11 +220,7 @@ func (sp *spectralWork) denseFiedler(g *graph.CSR, deg []float64) (float64, []fl
 // startValue maps a vertex id to a deterministic pseudo-random number in
 // [−1, 1) (SplitMix64 of the seeded id).
 func startValue(seed uint64, id int32) float64 {
-	x := seed ^ (uint64(uint32(id)) * 0x9E3779B97F4A7C15)
-	x += 0x9E3779B97F4A7C15
-	x = (x ^ (x >> 30)) * 0xBF58476D1CE4E5B9
-	x = (x ^ (x >> 27)) * 0x94D049BB133111EB
-	x ^= x >> 31
+	x := splitmix.Mix((seed ^ (uint64(uint32(id)) * splitmix.Gamma)) + splitmix.Gamma)
 	return float64(x>>11)/float64(1<<52) - 1
 }
 

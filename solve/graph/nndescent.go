@@ -4,6 +4,8 @@ import (
 	"math/rand/v2"
 	"runtime"
 	"sync"
+
+	"github.com/ramify-tax/ramify/internal/splitmix"
 )
 
 // space is a set of items with a symmetric similarity score (higher =
@@ -83,17 +85,7 @@ func newNNWorker(sp space) *nnWorker {
 // draws depend on (seed, round, phase, item) only, never on which goroutine
 // handles the item or in which order.
 func (w *nnWorker) reseed(seed uint64, round int, phase uint64, v int) {
-	w.pcg.Seed(seed, mix64(uint64(round)<<40^phase<<32^uint64(v)))
-}
-
-// mix64 is the splitmix64 finaliser: nearby inputs give unrelated outputs.
-func mix64(x uint64) uint64 {
-	x ^= x >> 30
-	x *= 0xbf58476d1ce4e5b9
-	x ^= x >> 27
-	x *= 0x94d049bb133111eb
-	x ^= x >> 31
-	return x
+	w.pcg.Seed(seed, splitmix.Mix(uint64(round)<<40^phase<<32^uint64(v)))
 }
 
 // proposal is a pair whose similarity beat the entry threshold of at least
