@@ -1,6 +1,10 @@
 package solve
 
-import "sort"
+import (
+	"sort"
+
+	"github.com/ramify-tax/ramify/internal/disjoint"
+)
 
 // BUILD (A. V. Aho, Y. Sagiv, T. G. Szymanski & J. D. Ullman, "Inferring
 // a tree from lowest common ancestors with an application to the
@@ -193,33 +197,6 @@ func sortedUnique(ls []int32) []int32 {
 	return out
 }
 
-// unionFind over leaf ids; reset only the leaves of the current set.
-type unionFind []int32
-
-func (u unionFind) find(x int32) int32 {
-	for u[x] != x {
-		u[x] = u[u[x]]
-		x = u[x]
-	}
-	return x
-}
-
-// union joins the sets of a and b, reporting whether they were apart. The
-// smaller root becomes the representative, so the result does not depend
-// on the order of unions.
-func (u unionFind) union(a, b int32) bool {
-	ra, rb := u.find(a), u.find(b)
-	if ra == rb {
-		return false
-	}
-	if ra < rb {
-		u[rb] = ra
-	} else {
-		u[ra] = rb
-	}
-	return true
-}
-
 // buildTask is one recursion set: order[lo:hi] are its leaves (ascending),
 // trip[tlo:thi] and clus[clo:chi] its active constraints, node its id.
 type buildTask struct {
@@ -248,7 +225,7 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 			clus = append(clus, int32(i))
 		}
 	}
-	uf := make(unionFind, n)
+	uf := make(disjoint.Sets, n)
 	compOf := make([]int32, n) // leaf → child index within the current set
 	firstOf := make([]int32, n)
 	var tmp []int32
@@ -276,14 +253,14 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 		var witness []int
 		for _, ti := range trip[tk.tlo:tk.thi] {
 			tr := p.trips[ti]
-			if uf.union(tr.A, tr.B) {
+			if uf.Union(tr.A, tr.B) {
 				witness = append(witness, tr.Record)
 			}
 		}
 		for _, ci := range clus[tk.clo:tk.chi] {
 			cl := p.clusters[ci]
 			for _, l := range cl[1:] {
-				if uf.union(cl[0], l) {
+				if uf.Union(cl[0], l) {
 					witness = append(witness, p.clusRec[ci])
 				}
 			}
@@ -292,7 +269,7 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 		// first appearance of a root gives that order.
 		nc := int32(0)
 		for _, l := range set {
-			r := uf.find(l)
+			r := uf.Find(l)
 			if r == l {
 				firstOf[l] = nc
 				nc++
@@ -302,7 +279,7 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 			return nil, uniqueInts(witness)
 		}
 		for _, l := range set {
-			compOf[l] = firstOf[uf.find(l)]
+			compOf[l] = firstOf[uf.Find(l)]
 		}
 		counts = stablePartition(set, compOf, int(nc), &tmp, counts)
 		// Constraints go to the child that holds them whole.

@@ -9,6 +9,7 @@ import (
 	"sync"
 	"sync/atomic"
 
+	"github.com/ramify-tax/ramify/internal/disjoint"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -105,7 +106,7 @@ func construct(g *graph.CSR, c *Constraints, p constructParams) (*Tree, error) {
 		b.order[i] = int32(i)
 	}
 	b.gapDepth = make([]int32, n)
-	b.uf = make(unionFind, n)
+	b.uf = make(disjoint.Sets, n)
 	b.local = make([]int32, n)
 	b.side = make([]int8, n)
 	if err := b.runWorkers(); err != nil {
@@ -203,7 +204,7 @@ type builder struct {
 	trip       []int32
 	clus       []int32
 	grp        []int32
-	uf         unionFind
+	uf         disjoint.Sets
 	local      []int32 // leaf → super-node index in its current set
 	side       []int8
 }
@@ -367,13 +368,13 @@ func (b *builder) hardUnions(tk ctask) {
 	}
 	for _, ti := range b.trip[tk.tlo:tk.thi] {
 		tr := b.trips[ti]
-		b.uf.union(tr.A, tr.B)
+		b.uf.Union(tr.A, tr.B)
 	}
 	for _, ci := range b.clus[tk.clo:tk.chi] {
 		cl := b.clusters[ci]
 		if len(cl) < len(set) {
 			for _, l := range cl[1:] {
-				b.uf.union(cl[0], l)
+				b.uf.Union(cl[0], l)
 			}
 		}
 	}
@@ -386,7 +387,7 @@ func (b *builder) superNodes(w *constructWorker, set []int32) int {
 	k := 0
 	w.first = w.first[:0]
 	for _, l := range set {
-		r := b.uf.find(l)
+		r := b.uf.Find(l)
 		if r == l {
 			b.local[l] = int32(k)
 			w.first = append(w.first, l)
@@ -428,10 +429,10 @@ func (b *builder) softUnions(w *constructWorker, tk ctask) bool {
 		if len(grp) >= covered {
 			continue // P is all the categorised items here: nothing to keep apart
 		}
-		root := b.uf.find(grp[0])
+		root := b.uf.Find(grp[0])
 		whole := true
 		for _, l := range grp[1:] {
-			if b.uf.find(l) != root {
+			if b.uf.Find(l) != root {
 				whole = false
 				break
 			}
@@ -447,7 +448,7 @@ func (b *builder) softUnions(w *constructWorker, tk ctask) bool {
 			continue
 		}
 		for _, l := range grp[1:] {
-			b.uf.union(grp[0], l)
+			b.uf.Union(grp[0], l)
 		}
 		joined = true
 	}

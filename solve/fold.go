@@ -6,6 +6,7 @@ import (
 	"slices"
 	"sort"
 
+	"github.com/ramify-tax/ramify/internal/disjoint"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -82,7 +83,7 @@ type folder struct {
 	pairs   []float64 // Σ over pairs of current children of |a|·|b|
 	alive   []bool
 	pinned  []bool
-	rep     []int32 // folded node → node it went into (union-find)
+	rep     disjoint.Sets // folded node → node it went into
 	tripsAt [][]int32
 	tripTop []int32 // triplet → binary lca(a,b,c)
 	keep    []bool  // exempt from the tightness rule
@@ -150,11 +151,8 @@ func newFolder(g *graph.CSR, t *Tree, c *Constraints, p foldParams) *folder {
 		pairs:   make([]float64, nodes),
 		alive:   make([]bool, nodes),
 		pinned:  pinned,
-		rep:     make([]int32, nodes),
+		rep:     disjoint.New(nodes),
 		tripsAt: make([][]int32, nodes),
-	}
-	for v := range f.rep {
-		f.rep[v] = int32(v)
 	}
 	for v := t.N; v < nodes; v++ {
 		if lay.parent[v] < 0 && int32(v) != t.Root {
@@ -205,14 +203,6 @@ func newFolder(g *graph.CSR, t *Tree, c *Constraints, p foldParams) *folder {
 	return f
 }
 
-func (f *folder) find(v int32) int32 {
-	for f.rep[v] != v {
-		f.rep[v] = f.rep[f.rep[v]]
-		v = f.rep[v]
-	}
-	return v
-}
-
 // psi is the mean similarity across v's children.
 func (f *folder) psi(v int32) float64 {
 	if f.pairs[v] <= 0 {
@@ -248,7 +238,7 @@ func (f *folder) legal(u int32) bool {
 		return false
 	}
 	for _, ti := range f.tripsAt[u] {
-		if f.find(f.tripTop[ti]) == v {
+		if f.rep.Find(f.tripTop[ti]) == v {
 			return false // lca(a,b) = u and c under v: u must stay
 		}
 	}

@@ -6,6 +6,8 @@ import (
 	"maps"
 	"math"
 	"slices"
+
+	"github.com/ramify-tax/ramify/internal/disjoint"
 )
 
 // Which items a broken record makes move.
@@ -85,34 +87,23 @@ func (r *repairer) brokenRecords() []brokenSet {
 	}
 	// Group records that share a placed item.
 	owner := map[int32]int{}
-	parent := make([]int, len(broken))
-	find := func(i int) int {
-		for parent[i] != i {
-			parent[i] = parent[parent[i]]
-			i = parent[i]
-		}
-		return i
-	}
-	for i := range parent {
-		parent[i] = i
-	}
+	sets := disjoint.New(len(broken))
 	for i, rs := range broken {
 		for _, x := range rs.items {
 			if gone(x) {
 				continue
 			}
 			if j, ok := owner[x]; ok {
-				a, b := find(i), find(j)
-				parent[max(a, b)] = min(a, b)
+				sets.Union(int32(i), int32(j))
 			} else {
 				owner[x] = i
 			}
 		}
 	}
 	var out []brokenSet
-	at := map[int]int{}
+	at := map[int32]int{}
 	for i, rs := range broken {
-		root := find(i)
+		root := sets.Find(int32(i))
 		j, ok := at[root]
 		if !ok {
 			j = len(out)

@@ -33,6 +33,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
+	"github.com/ramify-tax/ramify/internal/disjoint"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
@@ -222,27 +223,14 @@ func (in *Instance) buildGraph() {
 // bridges returns one edge between the smallest items of consecutive
 // components, in order of smallest item, so the graph is connected.
 func (in *Instance) bridges(edges []graph.Edge, weight func(i, j int) float64) []graph.Edge {
-	parent := make([]int32, in.N)
-	for i := range parent {
-		parent[i] = int32(i)
-	}
-	find := func(x int32) int32 {
-		for parent[x] != x {
-			parent[x] = parent[parent[x]]
-			x = parent[x]
-		}
-		return x
-	}
+	sets := disjoint.New(in.N) // a set's root is its smallest item
 	for _, e := range edges {
-		a, b := find(e.A), find(e.B)
-		if a != b {
-			parent[max(a, b)] = min(a, b) // the root is the smallest item
-		}
+		sets.Union(e.A, e.B)
 	}
 	var out []graph.Edge
 	prev := int32(-1)
 	for i := int32(0); int(i) < in.N; i++ {
-		if find(i) != i {
+		if sets.Find(i) != i {
 			continue
 		}
 		if prev >= 0 {
