@@ -229,7 +229,7 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 	compOf := make([]int32, n) // leaf → child index within the current set
 	firstOf := make([]int32, n)
 	var tmp []int32
-	var counts []int
+	var counts, tripCounts, clusCounts []int
 	var t *Tree
 	if wantTree {
 		t = NewTree(n)
@@ -281,28 +281,20 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 		for _, l := range set {
 			compOf[l] = firstOf[uf.Find(l)]
 		}
-		counts = stablePartition(set, compOf, int(nc), &tmp, counts)
+		counts = stablePartition(set, int(nc), func(l int32) int32 { return compOf[l] }, &tmp, counts)
 		// Constraints go to the child that holds them whole.
-		tripSeg := trip[tk.tlo:tk.thi]
-		keepT := 0
-		for _, ti := range tripSeg {
-			tr := p.trips[ti]
-			if compOf[tr.A] == compOf[tr.C] {
-				tripSeg[keepT] = ti
-				keepT++
+		tripCounts = stablePartition(trip[tk.tlo:tk.thi], int(nc), func(ti int32) int32 {
+			if tr := p.trips[ti]; compOf[tr.A] == compOf[tr.C] {
+				return compOf[tr.A]
 			}
-		}
-		tripCounts := partitionByKey(tripSeg[:keepT], func(ti int32) int32 { return compOf[p.trips[ti].A] }, int(nc), &tmp)
-		clusSeg := clus[tk.clo:tk.chi]
-		keepC := 0
-		for _, ci := range clusSeg {
-			cl := p.clusters[ci]
-			if len(cl) < counts[compOf[cl[0]]] {
-				clusSeg[keepC] = ci
-				keepC++
+			return -1
+		}, &tmp, tripCounts)
+		clusCounts = stablePartition(clus[tk.clo:tk.chi], int(nc), func(ci int32) int32 {
+			if cl := p.clusters[ci]; len(cl) < counts[compOf[cl[0]]] {
+				return compOf[cl[0]]
 			}
-		}
-		clusCounts := partitionByKey(clusSeg[:keepC], func(ci int32) int32 { return compOf[p.clusters[ci][0]] }, int(nc), &tmp)
+			return -1
+		}, &tmp, clusCounts)
 		lo, tlo, clo := tk.lo, tk.tlo, tk.clo
 		var kids []int32
 		var childTasks []buildTask
@@ -333,62 +325,6 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 		t.Root = root
 	}
 	return t, nil
-}
-
-// stablePartition reorders set by key[leaf] (0..k-1), keeping the order
-// within each key, and returns the count per key.
-func stablePartition(set []int32, key []int32, k int, tmp *[]int32, counts []int) []int {
-	if cap(counts) < k {
-		counts = make([]int, k)
-	}
-	counts = counts[:k]
-	for i := range counts {
-		counts[i] = 0
-	}
-	for _, l := range set {
-		counts[key[l]]++
-	}
-	if cap(*tmp) < len(set) {
-		*tmp = make([]int32, len(set))
-	}
-	buf := (*tmp)[:len(set)]
-	starts := make([]int, k)
-	s := 0
-	for i, c := range counts {
-		starts[i] = s
-		s += c
-	}
-	for _, l := range set {
-		buf[starts[key[l]]] = l
-		starts[key[l]]++
-	}
-	copy(set, buf)
-	return counts
-}
-
-// partitionByKey is stablePartition for items whose key is computed.
-func partitionByKey(items []int32, key func(int32) int32, k int, tmp *[]int32) []int {
-	counts := make([]int, k)
-	for _, it := range items {
-		counts[key(it)]++
-	}
-	if cap(*tmp) < len(items) {
-		*tmp = make([]int32, len(items))
-	}
-	buf := (*tmp)[:len(items)]
-	starts := make([]int, k)
-	s := 0
-	for i, c := range counts {
-		starts[i] = s
-		s += c
-	}
-	for _, it := range items {
-		kk := key(it)
-		buf[starts[kk]] = it
-		starts[kk]++
-	}
-	copy(items, buf)
-	return counts
 }
 
 func uniqueInts(xs []int) []int {

@@ -815,18 +815,7 @@ func (b *builder) apply(w *constructWorker, tk ctask) []ctask {
 			nl++
 		}
 	}
-	w.tmp = growInt32(w.tmp, len(set))
-	i, j := 0, nl
-	for _, l := range set {
-		if b.side[l] == 0 {
-			w.tmp[i] = l
-			i++
-		} else {
-			w.tmp[j] = l
-			j++
-		}
-	}
-	copy(set, w.tmp[:len(set)])
+	w.partition(set, func(l int32) int32 { return int32(b.side[l]) })
 	b.gapDepth[tk.lo+nl] = tk.depth
 
 	tripSeg := b.trip[tk.tlo:tk.thi]
@@ -842,36 +831,19 @@ func (b *builder) apply(w *constructWorker, tk ctask) []ctask {
 // partitionTriplets keeps the triplets whose three leaves fell on one side
 // (left ones first); a triplet whose c was cut off is now displayed.
 func (b *builder) partitionTriplets(w *constructWorker, seg []int32) [2]int {
-	var cnt [2]int
-	w.tmp = growInt32(w.tmp, len(seg))
-	for _, ti := range seg {
+	return w.partition(seg, func(ti int32) int32 {
 		tr := b.trips[ti]
 		if sd := b.side[tr.A]; sd == b.side[tr.C] {
-			cnt[sd]++
+			return int32(sd)
 		}
-	}
-	i, j := 0, cnt[0]
-	for _, ti := range seg {
-		tr := b.trips[ti]
-		if sd := b.side[tr.A]; sd == b.side[tr.C] {
-			if sd == 0 {
-				w.tmp[i] = ti
-				i++
-			} else {
-				w.tmp[j] = ti
-				j++
-			}
-		}
-	}
-	copy(seg, w.tmp[:cnt[0]+cnt[1]])
-	return cnt
+		return -1
+	})
 }
 
 // partitionGroups hands each previous category to the side that holds it
 // whole; a category that was cut here is given up.
 func (b *builder) partitionGroups(w *constructWorker, seg []int32) [2]int {
-	var cnt [2]int
-	sideOf := func(gi int32) int8 {
+	return w.partition(seg, func(gi int32) int32 {
 		grp := b.groups[gi]
 		sd := b.side[grp[0]]
 		for _, l := range grp[1:] {
@@ -879,62 +851,28 @@ func (b *builder) partitionGroups(w *constructWorker, seg []int32) [2]int {
 				return -1
 			}
 		}
-		return sd
-	}
-	w.tmp = growInt32(w.tmp, len(seg))
-	keep := w.tmp[:0]
-	var sides []int8
-	for _, gi := range seg {
-		if sd := sideOf(gi); sd >= 0 {
-			keep = append(keep, gi)
-			sides = append(sides, sd)
-			cnt[sd]++
-		}
-	}
-	i, j := 0, cnt[0]
-	out := make([]int32, cnt[0]+cnt[1])
-	for k, gi := range keep {
-		if sides[k] == 0 {
-			out[i] = gi
-			i++
-		} else {
-			out[j] = gi
-			j++
-		}
-	}
-	copy(seg, out)
-	return cnt
+		return int32(sd)
+	})
 }
 
 // partitionClusters keeps the clusters that are still proper subsets of
 // their side (a cluster equal to its side is now a node).
 func (b *builder) partitionClusters(w *constructWorker, seg []int32, nl, nr int) [2]int {
-	var cnt [2]int
 	size := [2]int{nl, nr}
-	keep := func(ci int32) (int8, bool) {
+	return w.partition(seg, func(ci int32) int32 {
 		cl := b.clusters[ci]
-		sd := b.side[cl[0]]
-		return sd, len(cl) < size[sd]
-	}
-	w.tmp = growInt32(w.tmp, len(seg))
-	for _, ci := range seg {
-		if sd, ok := keep(ci); ok {
-			cnt[sd]++
+		if sd := b.side[cl[0]]; len(cl) < size[sd] {
+			return int32(sd)
 		}
-	}
-	i, j := 0, cnt[0]
-	for _, ci := range seg {
-		if sd, ok := keep(ci); ok {
-			if sd == 0 {
-				w.tmp[i] = ci
-				i++
-			} else {
-				w.tmp[j] = ci
-				j++
-			}
-		}
-	}
-	copy(seg, w.tmp[:cnt[0]+cnt[1]])
+		return -1
+	})
+}
+
+// partition splits seg stably into its left (key 0) and right (key 1)
+// elements, dropping those whose key is negative, and counts each side.
+func (w *constructWorker) partition(seg []int32, key func(int32) int32) [2]int {
+	var cnt [2]int
+	stablePartition(seg, 2, key, &w.tmp, cnt[:])
 	return cnt
 }
 
