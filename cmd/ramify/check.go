@@ -32,14 +32,47 @@ one named *.TOML) are warnings; --strict makes them problems.
 check never writes a file. Like every command, it first finishes an
 absorb that was interrupted (its journal) and removes temporary files a
 killed run left behind.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["strict"] = fs.Bool("strict", false, "treat warnings (inputs that are not read) as problems")
-		},
-		run: runCheck,
+		bind: withOptions(func(fs *pflag.FlagSet, o *checkOptions) {
+			fs.BoolVar(&o.strict, "strict", false, "treat warnings (inputs that are not read) as problems")
+		}, runCheck),
 	})
 }
 
-func runCheck(e *env, args []string) error {
+type checkOptions struct {
+	strict bool
+}
+
+// checkReport is check's --json report; release's holds it too. A field
+// left nil was not reached: the check before it failed.
+type checkReport struct {
+	Categories  *int          `json:"categories,omitempty"`
+	Constraints recordCounts  `json:"constraints"`
+	Current     *bool         `json:"current,omitempty"`
+	Depth       *int          `json:"depth,omitempty"`
+	Items       int           `json:"items"`
+	RecordsGone *int          `json:"records_gone,omitempty"`
+	RecordsNew  *int          `json:"records_new,omitempty"`
+	Warnings    []problemJSON `json:"warnings,omitempty"`
+}
+
+// recordJSON is a constraint record named in a --json report.
+type recordJSON struct {
+	By   string `json:"by"`
+	File string `json:"file"`
+	Kind string `json:"kind"`
+	Line int    `json:"line"`
+	Note string `json:"note"`
+}
+
+func recordsJSON(recs []project.Record) []recordJSON {
+	var out []recordJSON
+	for _, r := range recs {
+		out = append(out, recordJSON{By: r.By, File: r.Pos.File, Kind: r.Kind, Line: r.Pos.Line, Note: r.Note})
+	}
+	return out
+}
+
+func runCheck(e *env, o *checkOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("check takes no arguments (got %q)", args[0])
 	}
@@ -47,10 +80,12 @@ func runCheck(e *env, args []string) error {
 	if len(ds) > 0 {
 		return ds
 	}
-	if *e.opt.extra["strict"].(*bool) && len(p.Warnings) > 0 {
+	if o.strict && len(p.Warnings) > 0 {
 		return p.Warnings
 	}
-	if _, err := checkRepository(e, p); err != nil {
+	rep := &checkReport{}
+	e.result = rep
+	if _, err := checkRepository(e, p, rep); err != nil {
 		return err
 	}
 	root := p.Outline.Root
@@ -61,17 +96,17 @@ func runCheck(e *env, args []string) error {
 
 // checkRepository runs every check of `ramify check` on a loaded project
 // and returns the regenerated solution (which equals the committed outline
-// when it passes). release runs it as its first gate.
-func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
-	e.report["items"] = len(p.Items)
+// when it passes), filling rep as far as it gets. release runs it as its
+// first gate.
+func checkRepository(e *env, p *project.Project, rep *checkReport) (*project.Solution, error) {
+	rep.Items = len(p.Items)
 	if len(p.Warnings) > 0 {
-		e.report["warnings"] = problemsJSON(p.Warnings.Capped())
+		rep.Warnings = problemsJSON(p.Warnings.Capped())
 		for _, w := range p.Warnings.Capped() {
 			e.notice("warning: %s", w.String())
 		}
 	}
-	counts := countRecords(p.Constraints)
-	e.report["constraints"] = counts
+	rep.Constraints = countRecords(p.Constraints)
 	rel := p.Settings.Taxonomy.File
 	if p.Outline == nil {
 		return nil, failf("%s does not exist yet; run `ramify solve` to write it", rel)
@@ -86,8 +121,8 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 		return nil, err
 	}
 	root := p.Outline.Root
-	e.report["categories"] = root.CountCategories()
-	e.report["depth"] = root.Depth()
+	categories, depth := root.CountCategories(), root.Depth()
+	rep.Categories, rep.Depth = &categories, &depth
 	if err := checkConstraints(e, p); err != nil {
 		return nil, err
 	}
@@ -100,9 +135,8 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 	// identifiers still bind by members); solve refreshes the block, and
 	// that alone is no reason to fail.
 	if !bytes.Equal(sol.Text, p.OutlineText) && (p.Outline.Structure == "" || !bytes.Equal(sol.Text, format.FormatOutlineRecords(root.Clone(), p.RecordKeys()))) {
-		e.report["current"] = false
 		gone, fresh := recordChanges(p.Outline.Records, p.RecordKeys())
-		e.report["records_gone"], e.report["records_new"] = gone, fresh
+		rep.Current, rep.RecordsGone, rep.RecordsNew = new(bool), &gone, &fresh
 		why := ""
 		if gone > 0 {
 			why += fmt.Sprintf("; it was solved under %s that no longer %s, so what %s held is let go", plural(gone, "record", "records"), pick(gone, "exists", "exist"), pick(gone, "it", "they"))
@@ -113,7 +147,8 @@ func checkRepository(e *env, p *project.Project) (*project.Solution, error) {
 		return nil, failf("%s is not what `ramify solve` writes now (%s%s); run `ramify solve` and commit the result",
 			rel, staleReason(root, p.OutlineText, sol.Root, sol.Text), why)
 	}
-	e.report["current"] = true
+	current := true
+	rep.Current = &current
 	return sol, nil
 }
 
@@ -131,15 +166,16 @@ func checkConstraints(e *env, p *project.Project) error {
 	}
 	rel := p.Settings.Taxonomy.File
 	lines := []string{fmt.Sprintf("%s breaks %s:", rel, plural(len(violated), "constraint record", "constraint records"))}
-	var recs []map[string]any
-	for _, i := range violated {
-		r := compiled.Records[i]
-		lines = append(lines, "  "+describeRecord(r))
-		recs = append(recs, map[string]any{"kind": r.Kind, "file": r.Pos.File, "line": r.Pos.Line, "by": r.By, "note": r.Note})
+	recs := make([]project.Record, len(violated))
+	for k, i := range violated {
+		recs[k] = compiled.Records[i]
+		lines = append(lines, "  "+describeRecord(recs[k]))
 	}
 	lines = append(lines, "run `ramify solve` to regenerate it under every record")
-	e.report["violated"] = recs
-	return &failure{lines: lines}
+	type violatedJSON struct {
+		Violated []recordJSON `json:"violated"`
+	}
+	return &failure{lines: lines, detail: violatedJSON{recordsJSON(recs)}}
 }
 
 // recordCounts counts constraint records by kind.

@@ -1,12 +1,15 @@
 package main
 
 import (
+	"bytes"
 	"encoding/json"
 	"errors"
 	"fmt"
 	"io"
+	"maps"
 	"os"
 	"path/filepath"
+	"reflect"
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/spf13/pflag"
@@ -33,6 +36,10 @@ type env struct {
 	stderr io.Writer
 	// report is printed as JSON on stdout when --json is given.
 	report map[string]any
+	// result is the command's own report, a struct with json tags (or a
+	// pointer to one), printed with --json in one object with what
+	// finish adds.
+	result any
 	// color is true when stdout is a terminal and NO_COLOR is unset.
 	color bool
 	// progress is true when stderr is a terminal and neither --quiet nor
@@ -85,6 +92,9 @@ func printLine(w io.Writer, text string) {
 // "bad input" (exit 2). Its lines are printed as they are.
 type failure struct {
 	lines []string
+	// detail, when set, is a struct with json tags whose fields go into
+	// the --json report: the records behind the failure.
+	detail any
 }
 
 func (f *failure) Error() string {
@@ -158,6 +168,7 @@ func (e *env) finish(c *command, err error) int {
 	var fl *failure
 	var ue *usageError
 	var ad *adviceDiags
+	var detail any
 	switch {
 	case err == nil:
 	case errors.As(err, &ad):
@@ -190,6 +201,7 @@ func (e *env) finish(c *command, err error) int {
 			printLine(e.stderr, l)
 		}
 		e.report["failure"] = fl.lines
+		detail = fl.detail
 	case errors.As(err, &ue):
 		code = exitUsage
 		printLine(e.stderr, "ramify "+c.name+": "+ue.msg)
@@ -203,13 +215,49 @@ func (e *env) finish(c *command, err error) int {
 	if e.opt.json {
 		e.report["ok"] = code == exitOK
 		e.report["command"] = c.name
-		enc := json.NewEncoder(e.stdout)
-		enc.SetIndent("", "  ")
-		enc.SetEscapeHTML(false)
-		if err := enc.Encode(e.report); err != nil {
+		if err := writeReport(e.stdout, e.result, detail, e.report); err != nil {
 			fmt.Fprintf(e.stderr, "ramify: writing the report: %v\n", err)
 			return exitInternal
 		}
 	}
 	return code
+}
+
+// writeReport prints the --json report: the fields of every part (a
+// struct with json tags, or a map) in one object, indented, with the keys
+// in sorted order — the order the report kept when it was one map, which
+// scripts may compare byte for byte. A later part's field replaces an
+// earlier one's; nil parts are skipped.
+func writeReport(w io.Writer, parts ...any) error {
+	fields := map[string]json.RawMessage{}
+	for _, part := range parts {
+		if part == nil || reflect.ValueOf(part).Kind() == reflect.Pointer && reflect.ValueOf(part).IsNil() {
+			continue
+		}
+		b, err := marshalJSON(part)
+		if err != nil {
+			return err
+		}
+		var these map[string]json.RawMessage
+		if err := json.Unmarshal(b, &these); err != nil {
+			return err
+		}
+		maps.Copy(fields, these)
+	}
+	enc := json.NewEncoder(w)
+	enc.SetIndent("", "  ")
+	enc.SetEscapeHTML(false)
+	return enc.Encode(fields)
+}
+
+// marshalJSON is json.Marshal without HTML escaping: "&" is common in
+// category names and reads better as it is.
+func marshalJSON(v any) ([]byte, error) {
+	var b bytes.Buffer
+	enc := json.NewEncoder(&b)
+	enc.SetEscapeHTML(false)
+	if err := enc.Encode(v); err != nil {
+		return nil, err
+	}
+	return b.Bytes(), nil
 }

@@ -15,15 +15,35 @@ import (
 	"github.com/spf13/pflag"
 )
 
-// command is one subcommand: its flags are added to a fresh FlagSet per
-// run, so tests can call run repeatedly in one process.
+// command is one subcommand: its flags are added to a fresh FlagSet and
+// bound to a fresh options value per run, so tests can call run
+// repeatedly in one process.
 type command struct {
 	name    string
 	summary string
 	usage   string // argument synopsis after the command name
 	help    string // longer help text, plain words
-	flags   func(fs *pflag.FlagSet, o *options)
-	run     func(e *env, args []string) error
+	// bind adds the command's own flags to fs, bound to the fields of a
+	// new options value, and returns the command's run with that value.
+	bind func(fs *pflag.FlagSet) runFunc
+	// flags and run are the form of a command whose flags are not bound
+	// to a struct of its own yet.
+	flags func(fs *pflag.FlagSet, o *options)
+	run   runFunc
+}
+
+// runFunc runs a command on its arguments.
+type runFunc func(e *env, args []string) error
+
+// withOptions makes a command's bind from its options struct O: flags
+// binds each flag to a field of o, and run gets o once they are parsed.
+// A mistyped field name fails to compile rather than at run time.
+func withOptions[O any](flags func(fs *pflag.FlagSet, o *O), run func(e *env, o *O, args []string) error) func(*pflag.FlagSet) runFunc {
+	return func(fs *pflag.FlagSet) runFunc {
+		o := new(O)
+		flags(fs, o)
+		return func(e *env, args []string) error { return run(e, o, args) }
+	}
 }
 
 var commands = map[string]*command{}
@@ -94,7 +114,7 @@ func run(args []string, stdout, stderr io.Writer) int {
 }
 
 func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
-	fs, o := commandFlags(c)
+	fs, o, run := commandFlags(c)
 	if err := fs.Parse(args); err != nil {
 		printLine(stderr, fmt.Sprintf("ramify %s: %v", c.name, err))
 		fmt.Fprintf(stderr, "run `ramify %s --help` for its options\n", c.name)
@@ -113,7 +133,7 @@ func runCommand(c *command, args []string, stdout, stderr io.Writer) int {
 			return e.finish(c, err)
 		}
 	}
-	err := runRecovering(c, e, fs.Args())
+	err := runRecovering(run, e, fs.Args())
 	return e.finish(c, err)
 }
 
@@ -127,18 +147,18 @@ func (ie *internalError) Error() string { return "internal error: " + ie.msg + "
 // runRecovering runs the command, turning a panic into an internalError.
 // The Go runtime's own out-of-memory stop cannot be caught; the budgets
 // checked before allocating keep inputs from reaching it.
-func runRecovering(c *command, e *env, args []string) (err error) {
+func runRecovering(run runFunc, e *env, args []string) (err error) {
 	defer func() {
 		if r := recover(); r != nil {
 			err = &internalError{msg: fmt.Sprint(r)}
 		}
 	}()
-	return c.run(e, args)
+	return run(e, args)
 }
 
 // commandFlags builds a command's flag set: the options every command
-// takes, then its own.
-func commandFlags(c *command) (*pflag.FlagSet, *options) {
+// takes, then its own, and the run that reads them.
+func commandFlags(c *command) (*pflag.FlagSet, *options, runFunc) {
 	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
 	fs.SetOutput(io.Discard)
 	fs.SortFlags = false
@@ -147,10 +167,14 @@ func commandFlags(c *command) (*pflag.FlagSet, *options) {
 	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
 	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
-	if c.flags != nil {
+	run := c.run
+	switch {
+	case c.bind != nil:
+		run = c.bind(fs)
+	case c.flags != nil:
 		c.flags(fs, o)
 	}
-	return fs, o
+	return fs, o, run
 }
 
 func printOverview(w io.Writer) {
@@ -186,7 +210,7 @@ Run "ramify help COMMAND" for a command's details.
 }
 
 func printCommandHelp(w io.Writer, c *command) {
-	fs, _ := commandFlags(c)
+	fs, _, _ := commandFlags(c)
 	fmt.Fprintf(w, "Usage: ramify %s [options]%s\n\n%s\n", c.name, prefixSpace(c.usage), c.summary)
 	if c.help != "" {
 		fmt.Fprintf(w, "\n%s\n", strings.TrimSpace(c.help))

@@ -186,7 +186,7 @@ func (m *outlineMerge) conflict(e *env, err error) error {
 		lines = append(lines, "  "+m.repoPath(strings.TrimPrefix(l, "  ")))
 	}
 	lines = append(lines, "change or remove one of them; dropping any one makes the rest agree.")
-	return &failure{lines: append(lines, m.advice()...)}
+	return &failure{lines: append(lines, m.advice()...), detail: fl.detail}
 }
 
 // conflictedInputs are the conflicted paths inside the taxonomy

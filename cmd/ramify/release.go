@@ -135,7 +135,9 @@ func runRelease(e *env, args []string) error {
 	}
 
 	// Gate 1: check.
-	sol, err := checkRepository(e, p)
+	checked := &checkReport{}
+	e.result = checked
+	sol, err := checkRepository(e, p, checked)
 	if err != nil {
 		return withGate("check", err)
 	}
@@ -295,7 +297,7 @@ func withGate(name string, err error) error {
 	}
 	if f != nil || errors.As(err, &f) {
 		lines := append([]string{"gate " + name + ": " + f.lines[0]}, f.lines[1:]...)
-		return &failure{lines: lines}
+		return &failure{lines: lines, detail: f.detail}
 	}
 	return err
 }

@@ -112,17 +112,28 @@ func solveError(e *env, err error) error {
 		return err
 	}
 	lines := []string{fmt.Sprintf("these %d constraint records cannot all hold:", len(ce.Records))}
-	var recs []map[string]any
+	var recs []conflictRecordJSON
 	for _, r := range ce.Records {
 		lines = append(lines, "  "+describeRecord(r))
-		recs = append(recs, map[string]any{
-			"kind": r.Kind, "file": r.Pos.File, "line": r.Pos.Line,
-			"by": r.By, "date": r.Date, "note": r.Note,
-		})
+		recs = append(recs, conflictRecordJSON{By: r.By, Date: r.Date, File: r.Pos.File, Kind: r.Kind, Line: r.Pos.Line, Note: r.Note})
 	}
 	lines = append(lines, "change or remove one of them; dropping any one makes the rest agree. Nothing was written.")
-	e.report["conflict"] = recs
-	return &failure{lines: lines}
+	return &failure{lines: lines, detail: conflictJSON{recs}}
+}
+
+// conflictJSON names a set of contradicting records in a --json report.
+type conflictJSON struct {
+	Conflict []conflictRecordJSON `json:"conflict"`
+}
+
+// conflictRecordJSON is one record of a contradicting set, with its date.
+type conflictRecordJSON struct {
+	By   string `json:"by"`
+	Date string `json:"date"`
+	File string `json:"file"`
+	Kind string `json:"kind"`
+	Line int    `json:"line"`
+	Note string `json:"note"`
 }
 
 func describeRecord(r project.Record) string {
