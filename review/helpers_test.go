@@ -1,11 +1,11 @@
 package review
 
 import (
-	"strconv"
 	"strings"
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/internal/brackets"
 	"github.com/ramify-tax/ramify/solve"
 )
 
@@ -14,40 +14,11 @@ import (
 func tree(t testing.TB, n int, s string) *solve.Tree {
 	t.Helper()
 	tr := solve.NewTree(n)
-	pos := 0
-	var parse func() int32
-	parse = func() int32 {
-		if s[pos] == '(' {
-			pos++
-			var kids []int32
-			for {
-				kids = append(kids, parse())
-				if s[pos] == ',' {
-					pos++
-					continue
-				}
-				if s[pos] != ')' {
-					t.Fatalf("tree %q: want ')' at %d", s, pos)
-				}
-				pos++
-				return tr.Add(kids...)
-			}
-		}
-		end := pos
-		for end < len(s) && s[end] >= '0' && s[end] <= '9' {
-			end++
-		}
-		v, err := strconv.Atoi(s[pos:end])
-		if err != nil || v >= n {
-			t.Fatalf("tree %q: bad leaf at %d", s, pos)
-		}
-		pos = end
-		return int32(v)
+	root, err := brackets.Parse(s, n, func(kids []int32) int32 { return tr.Add(kids...) })
+	if err != nil {
+		t.Fatal(err)
 	}
-	tr.Root = parse()
-	if pos != len(s) {
-		t.Fatalf("tree %q: trailing text at %d", s, pos)
-	}
+	tr.Root = root
 	return tr
 }
 

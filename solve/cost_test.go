@@ -3,9 +3,9 @@ package solve
 import (
 	"math"
 	"math/rand/v2"
-	"strconv"
 	"testing"
 
+	"github.com/ramify-tax/ramify/internal/brackets"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -96,36 +96,10 @@ func dgRandomGraph(tb testing.TB, seed uint64, n int, p float64) *graph.CSR {
 func dgNested(tb testing.TB, n int, s string) *Tree {
 	tb.Helper()
 	t := NewTree(n)
-	pos := 0
-	var parse func() int32
-	parse = func() int32 {
-		if s[pos] == '(' {
-			pos++
-			var kids []int32
-			for {
-				kids = append(kids, parse())
-				if s[pos] == ',' {
-					pos++
-					continue
-				}
-				if s[pos] != ')' {
-					tb.Fatalf("bad tree %q at %d", s, pos)
-				}
-				pos++
-				return t.Add(kids...)
-			}
-		}
-		start := pos
-		for pos < len(s) && s[pos] >= '0' && s[pos] <= '9' {
-			pos++
-		}
-		v, err := strconv.Atoi(s[start:pos])
-		if err != nil || v >= n {
-			tb.Fatalf("bad leaf in %q at %d", s, start)
-		}
-		return int32(v)
+	root, err := brackets.Parse(s, n, func(kids []int32) int32 { return t.Add(kids...) })
+	if err != nil {
+		tb.Fatal(err)
 	}
-	root := parse()
 	t.Root = root
 	return t
 }
