@@ -23,8 +23,8 @@ func stablePartition(seg []int32, k int, key func(int32) int32, scratch *[]int32
 			counts[kk]++
 		}
 	}
-	var small [8]int
-	starts := small[:0]
+	var small [8]int // room for the starts of a few groups without allocating
+	var starts []int
 	if k > len(small) {
 		starts = make([]int, k)
 	} else {
