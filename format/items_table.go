@@ -9,14 +9,6 @@ import (
 	"strings"
 )
 
-// ParseItemsTable reads items from a table with a header row: sep is '\t'
-// for .tsv (no quoting; a cell is what lies between tabs) and ',' for
-// .csv (RFC 4180 quoting). The header names the columns: id (required)
-// and any of label, tags (separated by ";") and text, in any order.
-func ParseItemsTable(file string, data []byte, sep byte) ([]Item, error) {
-	return parseItemsTable(file, data, sep, fileItems)
-}
-
 func parseItemsTable(file string, data []byte, sep byte, b Budget) ([]Item, error) {
 	text, ds := CleanText(file, data)
 	if len(ds) > 0 {

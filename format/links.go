@@ -34,39 +34,8 @@ func (t *LinkTable) Len() int { return len(t.A) }
 // Pos is where link k was written.
 func (t *LinkTable) Pos(k int) Pos { return Pos{t.File, int(t.Line[k]), 1} }
 
-// Links lists the table as one Link per row.
-func (t *LinkTable) Links() []Link {
-	out := make([]Link, t.Len())
-	for k := range out {
-		out[k] = Link{A: t.IDs[t.A[k]], B: t.IDs[t.B[k]], Weight: float64(t.Weight[k]), Pos: t.Pos(k)}
-	}
-	return out
-}
-
-// MaxLinks bounds the rows of a links file read on its own.
-const MaxLinks = 100_000_000
-
-var fileLinks = Budget{Left: MaxLinks, Over: "more than " + grouped(MaxLinks) + " links in one file"}
-
 // LinksHeader is the header row every links file starts with.
 const LinksHeader = "a\tb\tweight"
-
-// ParseLinks reads a links.tsv (see ParseLinkTable) as one Link per row.
-func ParseLinks(file string, data []byte) ([]Link, error) {
-	t, err := ParseLinkTable(file, data)
-	if err != nil {
-		return nil, err
-	}
-	return t.Links(), nil
-}
-
-// ParseLinkTable reads a links.tsv: the header "a<TAB>b<TAB>weight", then
-// one row per link with two different item ids and a finite weight above
-// 0, kept in single precision (so between 1.4e-45 and 3.4e38). A pair may
-// appear in both directions; the graph builder combines them.
-func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
-	return ParseLinkTableWithin(file, data, fileLinks)
-}
 
 // ParseLinkTableWithin is ParseLinkTable keeping at most b.Left links: the
 // row past them is reported and reading stops there.

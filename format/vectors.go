@@ -27,20 +27,6 @@ type Vectors struct {
 	RowPos []Pos
 }
 
-// Row returns the features of the i-th item (a copy, in float64, when the
-// rows are float32).
-func (v *Vectors) Row(i int) []float64 {
-	n := len(v.Features)
-	if v.Values32 != nil {
-		out := make([]float64, n)
-		for j, x := range v.Values32[i*n : (i+1)*n] {
-			out[j] = float64(x)
-		}
-		return out
-	}
-	return v.Values[i*n : (i+1)*n]
-}
-
 // MaxVectorBytes bounds the memory of the values of one vectors file:
 // 4 GiB, a million 1024-dimensional float32 embeddings (or half as many
 // float64 ones). A file is checked against it before its values are read.

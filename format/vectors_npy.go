@@ -2,7 +2,6 @@ package format
 
 import (
 	"bufio"
-	"bytes"
 	"io"
 	"math"
 	"strconv"
@@ -10,12 +9,6 @@ import (
 
 	"github.com/sbinet/npyio"
 )
-
-// ParseNPYVectors reads vectors from a NumPy .npy file held in memory; see
-// ReadNPYVectors.
-func ParseNPYVectors(file string, data []byte, idsFile string, ids []byte) (*Vectors, error) {
-	return ReadNPYVectors(file, bytes.NewReader(data), int64(len(data)), idsFile, ids)
-}
 
 // ReadNPYVectors reads vectors from a NumPy .npy file (a two-dimensional
 // float32 or float64 matrix in C order, one row per item, as numpy.save

@@ -1,7 +1,6 @@
 package format
 
 import (
-	"bytes"
 	"encoding/binary"
 	"errors"
 	"fmt"
@@ -16,12 +15,6 @@ import (
 // ParquetIDColumn is the column of a Parquet vectors file that names each
 // row's item, like the "id" header of vectors.tsv.
 const ParquetIDColumn = "id"
-
-// ParseParquetVectors reads Parquet vectors held in memory; see
-// ReadParquetVectors.
-func ParseParquetVectors(file string, data []byte, column string) (*Vectors, error) {
-	return ReadParquetVectors(file, bytes.NewReader(data), int64(len(data)), column)
-}
 
 // ReadParquetVectors reads vectors from a Parquet file of size bytes: a
 // string column "id" naming each row's item and a list column of float or

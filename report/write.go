@@ -44,20 +44,6 @@ func (pg *Page) WriteHTML(w io.Writer) error {
 	return bw.Flush()
 }
 
-// JSON is the data the page embeds, as one document {"meta": ...,
-// "items": ...}, for tests and scripts.
-func (pg *Page) JSON() []byte {
-	var b strings.Builder
-	bw := bufio.NewWriter(&b)
-	bw.WriteString(`{"meta":`)
-	pg.writeMeta(&jsonWriter{w: bw})
-	bw.WriteString(",\n\"items\":")
-	pg.writeItems(&jsonWriter{w: bw})
-	bw.WriteString("}\n")
-	bw.Flush()
-	return []byte(b.String())
-}
-
 // The data is written compactly, categories and items as arrays rather
 // than objects since they are most of the bytes, in two documents: the
 // items, which the page parses only after it has shown the top level,

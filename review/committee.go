@@ -1,8 +1,6 @@
 package review
 
 import (
-	"errors"
-	"fmt"
 	"math/rand/v2"
 	"sync"
 
@@ -36,35 +34,6 @@ type Committee struct {
 	// were folded from, in seed order.
 	Trees, Binary []*solve.Tree
 	index, binary []*leafIndex
-}
-
-// BuildCommittee solves size trees, each on a copy of g whose every edge
-// weight is multiplied by an independent Exp(1) draw — the Bayesian
-// bootstrap of the edges. (Poisson(1) counts, the classical bootstrap,
-// would drop a third of the edges and tear a k-nearest-neighbour graph
-// apart; exponential weights keep every edge and vary its strength.)
-// Every tree honours c, with the limits of opt; opt.Prior and
-// opt.Stability are ignored, so that support measures the data and the
-// decisions, not the pull of the previous version. Tree b draws its
-// weights, and seeds its solve, from seed and b alone. opt.Progress, if
-// set, is told how many trees are done (see solveMembers).
-func BuildCommittee(g *graph.CSR, c *solve.Constraints, opt solve.Options, size int, seed uint64) (*Committee, error) {
-	if g == nil || g.N == 0 {
-		return nil, errors.New("review: the committee needs a non-empty graph")
-	}
-	if size < 2 {
-		return nil, fmt.Errorf("review: a committee needs at least 2 trees, not %d", size)
-	}
-	progress := opt.Progress
-	opt.Prior, opt.Stability, opt.Progress = nil, 0, nil
-	edges := g.Edges()
-	trees, binary, err := solveMembers(size, progress, func(b int) (*solve.Tree, *solve.Tree, error) {
-		return solveReplicate(g.N, edges, c, opt, replicateSeed(seed, b))
-	})
-	if err != nil {
-		return nil, err
-	}
-	return newCommittee(g.N, trees, binary), nil
 }
 
 // solveMembers solves the committee's size members on committeeWorkers
@@ -106,21 +75,6 @@ func solveMembers(size int, progress func(stage string, done, total int), solveO
 		}
 	}
 	return trees, binary, nil
-}
-
-// NewCommittee wraps trees that were built elsewhere (tests, or a caller
-// with its own perturbation); every tree must be over n leaves. Support is
-// then measured on the same trees.
-func NewCommittee(n int, trees []*solve.Tree) (*Committee, error) {
-	if len(trees) == 0 {
-		return nil, errors.New("review: a committee needs trees")
-	}
-	for i, t := range trees {
-		if t == nil || t.N != n {
-			return nil, fmt.Errorf("review: committee tree %d is not over %d items", i, n)
-		}
-	}
-	return newCommittee(n, trees, trees), nil
 }
 
 func newCommittee(n int, trees, binary []*solve.Tree) *Committee {

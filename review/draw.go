@@ -151,21 +151,6 @@ type drawer struct {
 	size int
 }
 
-// Doubt is what a triplet of items is worth reviewing in tree t: the share
-// of committee trees that arrange it otherwise than t does, times the
-// share of all items in the category of t where the three meet (a wrong
-// triplet high up the tree drags many others with it). A committee tree
-// that resolves a triplet t leaves unresolved, or the other way round,
-// counts a quarter: that is a finer or coarser grouping, not a
-// contradiction. A packet's score is the mean doubt of its triplets.
-func (c *Committee) Doubt(t *solve.Tree, items []int32) float64 {
-	if len(items) < 3 {
-		return 0
-	}
-	d := &drawer{t: t, c: c, tx: newLeafIndex(t)}
-	return d.meanDoubt(items)
-}
-
 // refinementWeight is what a star-versus-resolved difference counts for
 // in Doubt, against 1 for a contradiction.
 const refinementWeight = 0.25

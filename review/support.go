@@ -150,26 +150,6 @@ func internalNodes(t *solve.Tree) []int32 {
 	return out
 }
 
-// Support is the share of committee trees whose binary hierarchy holds the
-// given items as a cluster, up to NearMatch (see Assessment.Support).
-func (c *Committee) Support(items []int32) float64 {
-	held := 0
-	pos := make([]int32, 0, len(items))
-	for _, ix := range c.binary {
-		pos = pos[:0]
-		for _, x := range items {
-			if ix.pos[x] >= 0 {
-				pos = append(pos, ix.pos[x])
-			}
-		}
-		slices.Sort(pos)
-		if len(pos) == len(items) && ix.holds(pos) {
-			held++
-		}
-	}
-	return float64(held) / float64(len(c.binary))
-}
-
 // ItemUncertainty is the committee's per-item uncertainty about tree t:
 // how far the committee would move each item (Assessment.Unsettled).
 // Review packets start from the items that score highest.

@@ -35,21 +35,6 @@ func VoteEntropy(votes []int) float64 {
 	return h + 0 // no negative zero
 }
 
-// MajorityDisagreement is the share of votes that do not go to the most
-// popular class, 1 − max/B (L. C. Freeman's variation ratio, Elementary
-// Applied Statistics, 1965); 0 for no votes.
-func MajorityDisagreement(votes []int) float64 {
-	total, best := 0, 0
-	for _, v := range votes {
-		total += v
-		best = max(best, v)
-	}
-	if total == 0 {
-		return 0
-	}
-	return 1 - float64(best)/float64(total)
-}
-
 // Disagreement is the committee's vote entropy averaged over the triplets
 // of items. Votes on the whole restricted tree would not rank packets: a
 // packet of 8 items has 135135 binary shapes alone, so B committee trees
