@@ -260,7 +260,7 @@ func onlyRecords(c *Constraints, keep []int) *Constraints {
 
 func TestConsistentAgreesWithExactOracle(t *testing.T) {
 	// Consistency decided by BUILD against the constrained subset DP of
-	// exact.go (OptimalConstrained's ok, an independent implementation of
+	// export_test.go (OptimalConstrained's ok, an independent implementation of
 	// the Aho-graph condition), on random small constraint sets; and on
 	// every inconsistent set the conflict returned is minimal: inconsistent on
 	// its own, consistent after dropping any one record.

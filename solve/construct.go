@@ -971,7 +971,7 @@ func (a *ahoMasks) components(set uint32, buf []uint32) []uint32 {
 }
 
 // subsetDP is the exact Dasgupta optimum over subsets of at most 16 atoms
-// with masses (the subset DP of OptimalCost, exact.go):
+// with masses (the subset DP of OptimalCost, export_test.go):
 // best[A] = min over admissible splits A = B ∪ C
 // of best[B] + best[C] + m(A)·w(B, C), where B contains A's lowest atom and
 // is a union of Aho components of A when constraints are given.

@@ -9,8 +9,9 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Test helpers of cost.go, exact.go and linkage.go carry the prefix dg so
-// they cannot collide with other test files of the package.
+// Test helpers of cost.go, linkage.go and the exact oracle (export_test.go)
+// carry the prefix dg so they cannot collide with other test files of the
+// package.
 
 // dgGraph builds a CSR from edges, failing the test on error.
 func dgGraph(tb testing.TB, n int, edges []graph.Edge) *graph.CSR {
@@ -59,7 +60,7 @@ func dgStar(tb testing.TB, n int) *graph.CSR {
 
 // dgTwoTriangles is the triangles {0,1,2}, {3,4,5} with the bridge 2-3,
 // unit weights: a small graph of our own whose optimum (22, by the exact
-// DP of exact.go) is known.
+// DP of export_test.go) is known.
 func dgTwoTriangles(tb testing.TB) *graph.CSR {
 	return dgGraph(tb, 6, []graph.Edge{
 		{A: 0, B: 1, W: 1}, {A: 0, B: 2, W: 1}, {A: 1, B: 2, W: 1},

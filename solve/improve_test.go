@@ -7,7 +7,7 @@ import (
 )
 
 // twoTrianglesOpt is ((0,(1,2)),(3,(4,5))), the optimum (cost 22) of the
-// two-triangle graph by the exact DP of exact.go.
+// two-triangle graph by the exact DP of export_test.go.
 func twoTrianglesOpt() (*Tree, int32, int32) {
 	t := NewTree(6)
 	p := t.Add(0, t.Add(1, 2))

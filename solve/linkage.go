@@ -4,8 +4,6 @@ import (
 	"math"
 	"sort"
 
-	"gonum.org/v1/gonum/stat"
-
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -30,100 +28,6 @@ import (
 type linkMerge struct {
 	a, b  int32
 	value float64
-}
-
-// AverageLinkageDist clusters n items by average linkage on the
-// dissimilarity dist(i, j) (called once for each i < j; a NaN counts as
-// +Inf). The cluster distance is the mean pairwise dissimilarity, kept by
-// the Lance–Williams update d(k, x∪y) = (n_x·d(k,x) + n_y·d(k,y))/(n_x+n_y).
-// Height[v] is the merge distance, as in scipy; UPGMA's ultrametric node
-// height is half of it. The condensed matrix needs n(n−1)/2 float64s.
-//
-// The chain follows scipy's nn_chain step for step: a cluster lives in the
-// slot of the larger of its two parents' slots; the search starts at the
-// element below the top of the chain and only a strictly smaller distance,
-// scanning slots upwards, replaces it. That tie rule is not optional (the
-// element below wins a tie, then the smallest slot; without it the chain
-// can cycle), and it
-// makes the merges equal to scipy's on the same doubles.
-func AverageLinkageDist(n int, dist func(i, j int) float64) *Tree {
-	if n <= 1 {
-		return NewTree(max(n, 0))
-	}
-	d := make([]float64, n*(n-1)/2)
-	k := 0
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			v := dist(i, j)
-			if math.IsNaN(v) {
-				v = math.Inf(1)
-			}
-			d[k] = v
-			k++
-		}
-	}
-	at := func(i, j int) int { // condensed index, i ≠ j
-		if i > j {
-			i, j = j, i
-		}
-		return n*i - i*(i+1)/2 + j - i - 1
-	}
-	size := make([]int, n) // 0 marks a dropped slot
-	for i := range size {
-		size[i] = 1
-	}
-	merges := make([]linkMerge, 0, n-1)
-	chain := make([]int, 0, n)
-	for len(merges) < n-1 {
-		if len(chain) == 0 {
-			for i := range size {
-				if size[i] > 0 {
-					chain = append(chain, i)
-					break
-				}
-			}
-		}
-		var x, y int
-		var best float64
-		for {
-			x = chain[len(chain)-1]
-			y, best = -1, math.Inf(1)
-			if len(chain) > 1 {
-				y = chain[len(chain)-2]
-				best = d[at(x, y)]
-			}
-			for i := 0; i < n; i++ {
-				if size[i] == 0 || i == x {
-					continue
-				}
-				if v := d[at(x, i)]; y < 0 || v < best {
-					y, best = i, v
-				}
-			}
-			if len(chain) > 1 && y == chain[len(chain)-2] {
-				break
-			}
-			chain = append(chain, y)
-		}
-		chain = chain[:len(chain)-2]
-		if x > y {
-			x, y = y, x
-		}
-		nx, ny := size[x], size[y]
-		merges = append(merges, linkMerge{int32(x), int32(y), best})
-		size[x], size[y] = 0, nx+ny
-		fx, fy, fxy := float64(nx), float64(ny), float64(nx+ny)
-		for i := 0; i < n; i++ {
-			if size[i] == 0 || i == y {
-				continue
-			}
-			// Explicit conversions keep each product rounded (no FMA), as
-			// in scipy's (size_x*d_xi + size_y*d_yi)/(size_x+size_y).
-			d[at(i, y)] = (float64(fx*d[at(i, x)]) + float64(fy*d[at(i, y)])) / fxy
-		}
-	}
-	sort.SliceStable(merges, func(i, j int) bool { return merges[i].value < merges[j].value })
-	return linkageTree(n, merges)
 }
 
 // linkageTree turns sorted merges into a Tree with scipy's numbering: it
@@ -157,91 +61,6 @@ func linkageTree(n int, merges []linkMerge) *Tree {
 		t.Height = append(t.Height, m.value)
 	}
 	return t
-}
-
-// LinkageMatrix returns t in scipy's linkage-matrix convention, one row
-// (left, right, height, size) per internal node in order of node id, with
-// internal nodes renumbered N, N+1, ... in that order and left < right.
-// Trees from AverageLinkageDist and AverageLinkageGraph keep their ids, so
-// their rows use scipy's numbering. It returns nil unless t is binary, every
-// node is reachable from the root and every child has a smaller id than
-// its parent.
-func LinkageMatrix(t *Tree) [][4]float64 {
-	if costCheckTree(t) != nil || len(t.PostOrder()) != t.NumNodes() || t.NumNodes() != 2*t.N-1 {
-		return nil
-	}
-	id := make([]float64, t.NumNodes())
-	for v := 0; v < t.N; v++ {
-		id[v] = float64(v)
-	}
-	size := t.Sizes()
-	rows := make([][4]float64, 0, t.N-1)
-	for v := t.N; v < t.NumNodes(); v++ {
-		kids := t.Kids[v]
-		if len(kids) != 2 || int(kids[0]) >= v || int(kids[1]) >= v {
-			return nil
-		}
-		h := 0.0
-		if v < len(t.Height) {
-			h = t.Height[v]
-		}
-		l, r := id[kids[0]], id[kids[1]]
-		if l > r {
-			l, r = r, l
-		}
-		id[v] = float64(t.N + len(rows))
-		rows = append(rows, [4]float64{l, r, h, float64(size[v])})
-	}
-	return rows
-}
-
-// CopheneticCorrelation is the Pearson correlation (gonum stat.Correlation)
-// between the cophenetic values Height[lca(i,j)] and dist(i,j) over all
-// pairs i < j (Sokal & Rohlf's measure of how well a dendrogram keeps the
-// input dissimilarities). It needs O(n²) memory; NaN when either vector is
-// constant, the tree is malformed or has fewer than two leaves.
-func CopheneticCorrelation(t *Tree, dist func(i, j int) float64) float64 {
-	if costCheckTree(t) != nil || t.N < 2 || len(t.Height) < t.NumNodes() {
-		return math.NaN()
-	}
-	n := t.N
-	pair := func(i, j int32) int {
-		if i > j {
-			i, j = j, i
-		}
-		return n*int(i) - int(i)*(int(i)+1)/2 + int(j) - int(i) - 1
-	}
-	coph := make([]float64, n*(n-1)/2)
-	filled := 0
-	leaves := make([][]int32, t.NumNodes())
-	for _, v := range t.PostOrder() {
-		if t.IsLeaf(v) {
-			leaves[v] = []int32{v}
-			continue
-		}
-		var acc []int32
-		for _, c := range t.Kids[v] {
-			for _, a := range acc {
-				for _, b := range leaves[c] {
-					coph[pair(a, b)] = t.Height[v]
-					filled++
-				}
-			}
-			acc = append(acc, leaves[c]...)
-			leaves[c] = nil
-		}
-		leaves[v] = acc
-	}
-	if filled != len(coph) {
-		return math.NaN()
-	}
-	d := make([]float64, len(coph))
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			d[pair(int32(i), int32(j))] = dist(i, j)
-		}
-	}
-	return stat.Correlation(coph, d, nil)
 }
 
 // AverageLinkageGraph clusters the vertices of a sparse similarity graph

@@ -185,7 +185,7 @@ func TestSolvePathCosts(t *testing.T) {
 
 func TestSolveNearOptimalOnSmallGraphs(t *testing.T) {
 	// The project's quality target: within 5% of the exact optimum on
-	// random graphs with n ≤ 10; the oracle is the subset DP of exact.go.
+	// random graphs with n ≤ 10; the oracle is the subset DP of export_test.go.
 	// The default pipeline finishes such sets by its own exact DP; the
 	// spectral-only run shows what the Fiedler sweep plus rotations reach
 	// without it.
@@ -226,7 +226,7 @@ func TestSolveNearOptimalOnSmallGraphs(t *testing.T) {
 
 func TestSolveFindsPlantedOptimum(t *testing.T) {
 	// Planted instances (solve/planted) with n ≤ 10: the exact optimum
-	// (exact.go) is found, by default and on the spectral path.
+	// (export_test.go) is found, by default and on the spectral path.
 	for seed := uint64(1); seed <= 30; seed++ {
 		n := 6 + int(seed%5)
 		in := planted.Generate(seed, n, 2, 2)
@@ -319,7 +319,7 @@ func drawConstraints(r *rand.Rand, h *solve.Tree, triplets, clusters int) *solve
 func TestSolveConstrainedNearOptimal(t *testing.T) {
 	// Random consistent constraints on random graphs with n ≤ 10: both
 	// trees satisfy all of them, and the binary tree's cost is compared
-	// with the constrained optimum of exact.go (OptimalConstrained).
+	// with the constrained optimum of export_test.go (OptimalConstrained).
 	r := rand.New(rand.NewPCG(9, 9))
 	sum, sumS, worstS := 0.0, 0.0, 0.0
 	const trials = 150

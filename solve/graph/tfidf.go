@@ -64,27 +64,6 @@ type SparseVector struct {
 	Value []float64
 }
 
-// Cosine is the dot product of two L2-normalised vectors, summed in
-// increasing term order. An empty (zero) vector has cosine 0 with
-// everything, never NaN.
-func (a SparseVector) Cosine(b SparseVector) float64 {
-	return sparseDot(a.Index, a.Value, b.Index, b.Value)
-}
-
-// TFIDF weighs tokenised documents under w and L2-normalises each row.
-// terms is the sorted vocabulary; term id t is terms[t]. Terms of weight 0
-// (textbook idf of a term in every document) are left out of the vectors,
-// so a document made only of such terms is the zero vector.
-func TFIDF(docs [][]string, w Weighting) (terms []string, vecs []SparseVector) {
-	terms, rows := weighDocs(docs, w, 0)
-	vecs = make([]SparseVector, rows.n)
-	for i := range vecs {
-		idx, val := rows.row(i)
-		vecs[i] = SparseVector{Index: idx, Value: val}
-	}
-	return terms, vecs
-}
-
 // weighDocs is TFIDF on the internal row store. Terms found in more than
 // maxDocFreq documents are treated as stopwords and left out entirely
 // (maxDocFreq ≤ 0: no cap); see commonTermCap.
