@@ -83,32 +83,39 @@ type lcaBuckets struct {
 func bucketEdges(g *graph.CSR, t *Tree, lay *layout) lcaBuckets {
 	nodes := t.NumNodes()
 	b := lcaBuckets{make([]float64, nodes), make([]float64, nodes), make([]float64, nodes)}
+	lay.forEdges(g, func(p, q, v int32, wt float64) {
+		b.cross[v] += wt
+		if len(t.Kids[v]) != 2 {
+			return
+		}
+		P, Q := t.Kids[v][0], t.Kids[v][1]
+		if !t.IsLeaf(P) && p < lay.hi[t.Kids[P][0]] {
+			b.leftP[v] += wt
+		}
+		if !t.IsLeaf(Q) && q < lay.hi[t.Kids[Q][0]] {
+			b.leftQ[v] += wt
+		}
+	})
+	return b
+}
+
+// forEdges calls f once for every edge of g, in the order of its lower
+// end, with the leaf positions p ≤ q of its ends, their lowest common
+// ancestor v and the edge's weight.
+func (l *layout) forEdges(g *graph.CSR, f func(p, q, v int32, w float64)) {
 	for u := 0; u < g.N; u++ {
 		ts, ws := g.Neighbors(u)
 		for k, x := range ts {
 			if int(x) <= u {
 				continue
 			}
-			p, q := lay.pos[u], lay.pos[x]
+			p, q := l.pos[u], l.pos[x]
 			if p > q {
 				p, q = q, p
 			}
-			v := lay.lcaPos(p, q)
-			wt := ws[k]
-			b.cross[v] += wt
-			if len(t.Kids[v]) != 2 {
-				continue
-			}
-			P, Q := t.Kids[v][0], t.Kids[v][1]
-			if !t.IsLeaf(P) && p < lay.hi[t.Kids[P][0]] {
-				b.leftP[v] += wt
-			}
-			if !t.IsLeaf(Q) && q < lay.hi[t.Kids[Q][0]] {
-				b.leftQ[v] += wt
-			}
+			f(p, q, l.lcaPos(p, q), ws[k])
 		}
 	}
-	return b
 }
 
 // constraintPins marks the nodes no move may break: pinned[v] when L(v) is
@@ -347,22 +354,11 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 	start := make([]int32, nodes+1)
 	var raw []posEdge
 	var lcaOf []int32
-	for u := 0; u < g.N; u++ {
-		ts, ws := g.Neighbors(u)
-		for k, x := range ts {
-			if int(x) <= u {
-				continue
-			}
-			p, q := lay.pos[u], lay.pos[x]
-			if p > q {
-				p, q = q, p
-			}
-			a := lay.lcaPos(p, q)
-			raw = append(raw, posEdge{p, q, ws[k]})
-			lcaOf = append(lcaOf, a)
-			start[a+1]++
-		}
-	}
+	lay.forEdges(g, func(p, q, a int32, w float64) {
+		raw = append(raw, posEdge{p, q, w})
+		lcaOf = append(lcaOf, a)
+		start[a+1]++
+	})
 	for v := 0; v < nodes; v++ {
 		start[v+1] += start[v]
 	}
