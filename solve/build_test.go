@@ -94,27 +94,6 @@ func TestBuildExamples(t *testing.T) {
 	}
 }
 
-// randomBinaryTree joins random pairs of subtrees until one is left.
-func randomBinaryTree(r *rand.Rand, n int) *Tree {
-	t := NewTree(n)
-	pool := make([]int32, n)
-	for i := range pool {
-		pool[i] = int32(i)
-	}
-	for len(pool) > 1 {
-		i := r.IntN(len(pool))
-		a := pool[i]
-		pool[i] = pool[len(pool)-1]
-		pool = pool[:len(pool)-1]
-		j := r.IntN(len(pool))
-		pool[j] = t.Add(a, pool[j])
-	}
-	if n > 0 {
-		t.Root = pool[0]
-	}
-	return t
-}
-
 // naiveDepthLCA finds lowest common ancestors by walking parents; the
 // tests use it instead of the package's layout to stay independent.
 type naiveLCA struct {
@@ -200,7 +179,7 @@ func TestBuildIdentityProperty(t *testing.T) {
 		if trial >= 50 {
 			n = 3 + r.IntN(14)
 		}
-		tr := randomBinaryTree(r, n)
+		tr := RandomBinaryTree(r, n)
 		c := &Constraints{Triplets: allTriplets(tr)}
 		got, ok := Build(n, c)
 		if !ok {
@@ -269,7 +248,7 @@ func TestConsistentAgreesWithExactOracle(t *testing.T) {
 	for trial := 0; trial < 400; trial++ {
 		n := 4 + r.IntN(5)
 		c := randomConstraints(r, n, 1+r.IntN(7), r.IntN(3))
-		g := completeGraph(t, n)
+		g := dgClique(t, n)
 		_, _, okExact := OptimalConstrained(g, c)
 		ok, recs := Consistent(n, c)
 		if ok != okExact {
@@ -317,7 +296,7 @@ func TestConsistentLargeMinimalConflict(t *testing.T) {
 	if testing.Short() {
 		n = 5000
 	}
-	hidden := randomBinaryTree(r, n)
+	hidden := RandomBinaryTree(r, n)
 	l := newNaiveLCA(hidden)
 	c := &Constraints{}
 	for len(c.Triplets) < 3000 {
@@ -354,7 +333,7 @@ func TestConsistentLargeMinimalConflict(t *testing.T) {
 func BenchmarkConsistent(b *testing.B) {
 	r := rand.New(rand.NewPCG(1, 1))
 	n := 100000
-	hidden := randomBinaryTree(r, n)
+	hidden := RandomBinaryTree(r, n)
 	c := hiddenConstraints(r, hidden, 4000, 1000)
 	for name, cs := range map[string]*Constraints{"consistent": c, "conflict": withContradiction(c)} {
 		b.Run(name, func(b *testing.B) {

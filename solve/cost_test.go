@@ -133,25 +133,6 @@ func dgBalanced(n int) *Tree {
 	return t
 }
 
-// dgRandomBinaryTree joins random pairs of current roots until one is left.
-func dgRandomBinaryTree(r *rand.Rand, n int) *Tree {
-	t := NewTree(n)
-	roots := make([]int32, n)
-	for i := range roots {
-		roots[i] = int32(i)
-	}
-	for len(roots) > 1 {
-		i := r.IntN(len(roots))
-		a := roots[i]
-		roots[i] = roots[len(roots)-1]
-		roots = roots[:len(roots)-1]
-		j := r.IntN(len(roots))
-		roots[j] = t.Add(a, roots[j])
-	}
-	t.Root = roots[0]
-	return t
-}
-
 // dgNaiveCost computes the cost from the definition: for each pair with an
 // edge, find the smallest node containing both by scanning leaf sets.
 func dgNaiveCost(g *graph.CSR, t *Tree) float64 {
@@ -224,7 +205,7 @@ func TestCostCliqueEveryTree(t *testing.T) {
 		g := dgClique(t, n)
 		want := float64(n*n*n-n) / 3
 		for k := 0; k < 5; k++ {
-			if got := Cost(g, dgRandomBinaryTree(r, n)); got != want {
+			if got := Cost(g, RandomBinaryTree(r, n)); got != want {
 				t.Fatalf("n=%d: cost %v, want %v", n, got, want)
 			}
 		}
@@ -239,7 +220,7 @@ func TestCostMatchesDefinition(t *testing.T) {
 	for trial := 0; trial < 40; trial++ {
 		n := 2 + r.IntN(30)
 		g := dgRandomGraph(t, uint64(trial), n, 0.3)
-		tr := dgRandomBinaryTree(r, n)
+		tr := RandomBinaryTree(r, n)
 		if trial%2 == 1 {
 			tr = dgContractRandom(r, tr)
 		}

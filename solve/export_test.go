@@ -3,6 +3,7 @@ package solve
 import (
 	"math"
 	"math/bits"
+	"math/rand/v2"
 	"sort"
 
 	"gonum.org/v1/gonum/mat"
@@ -630,4 +631,26 @@ func (d *oracleDP) ahoComponents(s uint32, out []uint32) []uint32 {
 		left &^= comp
 	}
 	return out
+}
+
+// RandomBinaryTree joins random pairs of subtrees until one is left; the
+// tests of this package and of solve_test draw their hidden trees with it.
+func RandomBinaryTree(r *rand.Rand, n int) *Tree {
+	t := NewTree(n)
+	pool := make([]int32, n)
+	for i := range pool {
+		pool[i] = int32(i)
+	}
+	for len(pool) > 1 {
+		i := r.IntN(len(pool))
+		a := pool[i]
+		pool[i] = pool[len(pool)-1]
+		pool = pool[:len(pool)-1]
+		j := r.IntN(len(pool))
+		pool[j] = t.Add(a, pool[j])
+	}
+	if n > 0 {
+		t.Root = pool[0]
+	}
+	return t
 }

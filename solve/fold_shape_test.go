@@ -26,7 +26,7 @@ func multiway(n int, spec []any) *Tree {
 func shaped(t *testing.T, n int, spec []any, c *Constraints, p foldParams) string {
 	t.Helper()
 	tr := multiway(n, spec)
-	g := completeGraph(t, n)
+	g := dgClique(t, n)
 	f := newFolder(g, tr, c, p)
 	f.foldChains()
 	return newick(f.result())
@@ -92,7 +92,7 @@ func TestFoldChains(t *testing.T) {
 			t.Errorf("%s: foldChains gives %s, want %s", c.name, got, c.want)
 		}
 		tr := multiway(c.n, c.spec)
-		f := newFolder(completeGraph(t, c.n), tr, c.c, c.p)
+		f := newFolder(dgClique(t, c.n), tr, c.c, c.p)
 		f.foldChains()
 		if c.c != nil {
 			if bad := Satisfies(f.result(), c.c); len(bad) > 0 {
@@ -109,7 +109,7 @@ func TestFoldChainsKeepsTriplets(t *testing.T) {
 	spec := []any{[]any{[]any{0, 1, 2, 3, 4, 5}, []any{6, 7, 8, 9, 10}, []any{11, 12, 13, 14, 15}, 16}, []any{17, 18, 19}}
 	c := &Constraints{Triplets: []Triplet{trip(0, 6, 17, 0), trip(1, 2, 6, 1)}}
 	tr := multiway(20, spec)
-	f := newFolder(completeGraph(t, 20), tr, c, foldParams{maxChildren: 3})
+	f := newFolder(dgClique(t, 20), tr, c, foldParams{maxChildren: 3})
 	f.foldChains()
 	out := f.result()
 	if bad := Satisfies(out, c); len(bad) > 0 {

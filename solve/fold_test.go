@@ -14,7 +14,7 @@ func noProgress(string, int, int) {}
 func TestFoldCollapseTwoTriangles(t *testing.T) {
 	// Contracting (0,(1,2)) into the root of the two-triangle optimum
 	// costs Δ = (6−3)·2 = 6, so the cost goes from 22 to 28 (by hand).
-	g := twoTriangles(t)
+	g := dgTwoTriangles(t)
 	tr, p, _ := twoTrianglesOpt()
 	f := newFolder(g, tr, nil, foldParams{})
 	f.contract(p)
@@ -47,7 +47,7 @@ func TestFoldUncollapsible(t *testing.T) {
 	// lca(a,b) of a triplet ab|c with c in parent∖node. Here (a,b) is
 	// smaller than MinSize 3 and as loose as its parent, so only a
 	// constraint keeps it.
-	g := completeGraph(t, 4)
+	g := dgClique(t, 4)
 	tr, _, _ := chainTree()
 	cases := []struct {
 		name string
@@ -84,7 +84,7 @@ func blockGraph(t testing.TB, groups, k int, in, out float64) *graph.CSR {
 			es = append(es, graph.Edge{A: int32(i), B: int32(j), W: w})
 		}
 	}
-	return mustGraph(t, n, es)
+	return dgGraph(t, n, es)
 }
 
 func TestFoldTightnessRule(t *testing.T) {
@@ -142,7 +142,7 @@ func TestFoldLimits(t *testing.T) {
 	for trial := 0; trial < 60; trial++ {
 		n := 20 + r.IntN(300)
 		g := randomGraph(t, uint64(500+trial), n, 5*n)
-		hidden := randomBinaryTree(r, n)
+		hidden := RandomBinaryTree(r, n)
 		var c *Constraints
 		if trial%2 == 1 {
 			c = hiddenConstraints(r, hidden, r.IntN(n), r.IntN(5))

@@ -40,7 +40,7 @@ func TestRotationTwoTriangles(t *testing.T) {
 	// By hand: on two triangles with OPT ((0,(1,2)),(3,(4,5))) = 22,
 	// ((0,(3,(4,5))),(1,2)) has Δ = 3·2 − 2·0 = +6 (cost 28) and
 	// (((1,2),(3,(4,5))),0) has Δ = 3·2 − 1·1 = +5 (cost 27).
-	g := twoTriangles(t)
+	g := dgTwoTriangles(t)
 	tr, p, _ := twoTrianglesOpt()
 	if c := Cost(g, tr); c != 22 {
 		t.Fatalf("cost %g, want 22", c)
@@ -75,7 +75,7 @@ func TestRotationDeltasAreExact(t *testing.T) {
 	for trial := 0; trial < 40; trial++ {
 		n := 5 + r.IntN(30)
 		g := randomGraph(t, uint64(trial), n, 3*n)
-		tr := randomBinaryTree(r, n)
+		tr := RandomBinaryTree(r, n)
 		base := Cost(g, tr)
 		lay := newLayout(tr)
 		b := bucketEdges(g, tr, lay)
@@ -137,7 +137,7 @@ func TestImproveKeepsConstraintsAndNeverWorsens(t *testing.T) {
 	for trial := 0; trial < 30; trial++ {
 		n := 8 + r.IntN(60)
 		g := randomGraph(t, uint64(100+trial), n, 4*n)
-		tr := randomBinaryTree(r, n)
+		tr := RandomBinaryTree(r, n)
 		c := hiddenConstraints(r, tr, r.IntN(2*n), r.IntN(4))
 		before := Cost(g, tr)
 		improveRotations(g, tr, c, nil, 1000, 0, func(string, int, int) {})

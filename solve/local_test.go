@@ -70,7 +70,7 @@ func TestRepairKeepsEveryRecord(t *testing.T) {
 		r := rand.New(rand.NewPCG(uint64(trial), 99))
 		n := 6 + r.IntN(40)
 		g := dgRandomGraph(t, uint64(trial), n, 0.25)
-		hidden := randomBinaryTree(r, n)
+		hidden := RandomBinaryTree(r, n)
 		all := allTriplets(hidden)
 		c := &Constraints{}
 		for i := range 1 + r.IntN(6) {
@@ -246,7 +246,7 @@ func TestRepairMendsAShapeInPlace(t *testing.T) {
 					t.Fatal(err)
 				}
 				prev := first.Taxonomy
-				hidden := randomBinaryTree(r, n)
+				hidden := RandomBinaryTree(r, n)
 				all := allTriplets(hidden)
 				c := &Constraints{}
 				touched := map[int32]bool{} // items some packet named

@@ -238,26 +238,6 @@ func TestSolveFindsPlantedOptimum(t *testing.T) {
 	}
 }
 
-// hiddenTree joins random pairs of subtrees; constraints drawn from it are
-// consistent.
-func hiddenTree(r *rand.Rand, n int) *solve.Tree {
-	t := solve.NewTree(n)
-	pool := make([]int32, n)
-	for i := range pool {
-		pool[i] = int32(i)
-	}
-	for len(pool) > 1 {
-		i := r.IntN(len(pool))
-		a := pool[i]
-		pool[i] = pool[len(pool)-1]
-		pool = pool[:len(pool)-1]
-		j := r.IntN(len(pool))
-		pool[j] = t.Add(a, pool[j])
-	}
-	t.Root = pool[0]
-	return t
-}
-
 // drawConstraints samples triplets (some records holding several, as a
 // shape does) and clusters displayed by h.
 func drawConstraints(r *rand.Rand, h *solve.Tree, triplets, clusters int) *solve.Constraints {
@@ -326,7 +306,7 @@ func TestSolveConstrainedNearOptimal(t *testing.T) {
 	for trial := 0; trial < trials; trial++ {
 		n := 4 + trial%7
 		g := randomWeighted(t, uint64(1000+trial), n, 0.6)
-		c := drawConstraints(r, hiddenTree(r, n), r.IntN(2*n), r.IntN(3))
+		c := drawConstraints(r, solve.RandomBinaryTree(r, n), r.IntN(2*n), r.IntN(3))
 		opt, _, ok := solve.OptimalConstrained(g, c)
 		if !ok {
 			t.Fatalf("trial %d: oracle calls drawn constraints inconsistent", trial)
@@ -370,7 +350,7 @@ func TestSolveSatisfiesConstraintsAtScale(t *testing.T) {
 	r := rand.New(rand.NewPCG(10, 10))
 	for trial, n := range []int{50, 120, 200, 350, 500, 500} {
 		g := sparseRandom(t, uint64(trial), n, 8)
-		c := drawConstraints(r, hiddenTree(r, n), n, 10)
+		c := drawConstraints(r, solve.RandomBinaryTree(r, n), n, 10)
 		res := mustSolve(t, g, c, solve.Options{MinSize: 3, MaxChildren: 8, MaxDepth: 4, Seed: uint64(trial)})
 		for name, tr := range map[string]*solve.Tree{"binary": res.Binary, "taxonomy": res.Taxonomy} {
 			if bad := solve.Satisfies(tr, c); len(bad) > 0 {

@@ -17,62 +17,6 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// Small graphs used by the spectral tests (unit weights).
-
-func mustGraph(t testing.TB, n int, edges []graph.Edge) *graph.CSR {
-	t.Helper()
-	g, err := graph.FromEdges(n, edges)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return g
-}
-
-func pathGraph(t testing.TB, n int) *graph.CSR {
-	var es []graph.Edge
-	for i := 0; i+1 < n; i++ {
-		es = append(es, graph.Edge{A: int32(i), B: int32(i + 1), W: 1})
-	}
-	return mustGraph(t, n, es)
-}
-
-func cycleGraph(t testing.TB, n int) *graph.CSR {
-	var es []graph.Edge
-	for i := 0; i < n; i++ {
-		es = append(es, graph.Edge{A: int32(i), B: int32((i + 1) % n), W: 1})
-	}
-	return mustGraph(t, n, es)
-}
-
-// starGraph has centre 0 joined to 1..n-1.
-func starGraph(t testing.TB, n int) *graph.CSR {
-	var es []graph.Edge
-	for i := 1; i < n; i++ {
-		es = append(es, graph.Edge{A: 0, B: int32(i), W: 1})
-	}
-	return mustGraph(t, n, es)
-}
-
-func completeGraph(t testing.TB, n int) *graph.CSR {
-	var es []graph.Edge
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			es = append(es, graph.Edge{A: int32(i), B: int32(j), W: 1})
-		}
-	}
-	return mustGraph(t, n, es)
-}
-
-// twoTriangles is {0,1,2} and {3,4,5} joined by the bridge 2–3, a small
-// graph of our own whose spectrum and best cut are worked out below.
-func twoTriangles(t testing.TB) *graph.CSR {
-	return mustGraph(t, 6, []graph.Edge{
-		{A: 0, B: 1, W: 1}, {A: 0, B: 2, W: 1}, {A: 1, B: 2, W: 1},
-		{A: 3, B: 4, W: 1}, {A: 3, B: 5, W: 1}, {A: 4, B: 5, W: 1},
-		{A: 2, B: 3, W: 1},
-	})
-}
-
 func sortedCopy(x []float64) []float64 {
 	y := append([]float64(nil), x...)
 	sort.Float64s(y)
@@ -104,16 +48,16 @@ func TestLaplacianClosedForms(t *testing.T) {
 	var cases []tc
 	for _, n := range []int{5, 10, 17} {
 		n := n
-		cases = append(cases, tc{"P" + strconv.Itoa(n), pathGraph(t, n),
+		cases = append(cases, tc{"P" + strconv.Itoa(n), dgPath(t, n),
 			func(k int) float64 { return 2 - 2*math.Cos(math.Pi*float64(k)/float64(n)) },
 			func(k int) float64 { return 1 - math.Cos(math.Pi*float64(k)/float64(n-1)) }})
-		cases = append(cases, tc{"C" + strconv.Itoa(n), cycleGraph(t, n),
+		cases = append(cases, tc{"C" + strconv.Itoa(n), dgCycle(t, n),
 			func(k int) float64 { return 2 - 2*math.Cos(2*math.Pi*float64(k)/float64(n)) },
 			func(k int) float64 { return 1 - math.Cos(2*math.Pi*float64(k)/float64(n)) }})
-		cases = append(cases, tc{"K" + strconv.Itoa(n), completeGraph(t, n),
+		cases = append(cases, tc{"K" + strconv.Itoa(n), dgClique(t, n),
 			func(k int) float64 { return map[bool]float64{true: 0, false: float64(n)}[k == 0] },
 			func(k int) float64 { return map[bool]float64{true: 0, false: float64(n) / float64(n-1)}[k == 0] }})
-		cases = append(cases, tc{"S" + strconv.Itoa(n), starGraph(t, n),
+		cases = append(cases, tc{"S" + strconv.Itoa(n), dgStar(t, n),
 			func(k int) float64 {
 				switch k {
 				case 0:
@@ -145,7 +89,7 @@ func TestLaplacianClosedForms(t *testing.T) {
 	}
 	// Two triangles and a bridge, L = 0, (5−√17)/2, 3, 3, 3, (5+√17)/2:
 	// the roots of its characteristic polynomial, worked by hand.
-	closeSlices(t, "two triangles L", LaplacianEigenvalues(twoTriangles(t), false),
+	closeSlices(t, "two triangles L", LaplacianEigenvalues(dgTwoTriangles(t), false),
 		[]float64{0, (5 - math.Sqrt(17)) / 2, 3, 3, 3, (5 + math.Sqrt(17)) / 2}, 1e-9)
 }
 
@@ -180,8 +124,8 @@ func TestLaplacianMatchesNumpy(t *testing.T) {
 	// K6 (testdata/spectral/laplacian_spectra.json).
 	ref := loadReference(t)
 	graphs := map[string]*graph.CSR{
-		"P10": pathGraph(t, 10), "C10": cycleGraph(t, 10),
-		"S10": starGraph(t, 10), "K6": completeGraph(t, 6),
+		"P10": dgPath(t, 10), "C10": dgCycle(t, 10),
+		"S10": dgStar(t, 10), "K6": dgClique(t, 6),
 	}
 	for name, g := range graphs {
 		want, ok := ref.Graphs[name]
@@ -219,7 +163,7 @@ func TestFiedlerP10MatchesNumpy(t *testing.T) {
 	for i := range ones {
 		ones[i] = 1
 	}
-	lambda, x := Fiedler(pathGraph(t, 10), ones, 1)
+	lambda, x := Fiedler(dgPath(t, 10), ones, 1)
 	if math.Abs(lambda-ref.Fiedler.Eigenvalue) > 1e-12 {
 		t.Errorf("λ₂ = %.15g, want %.15g", lambda, ref.Fiedler.Eigenvalue)
 	}
@@ -242,16 +186,16 @@ func TestFiedlerNormalisedValues(t *testing.T) {
 		want float64
 		tol  float64
 	}{
-		{"P5", pathGraph(t, 5), 0.292893, 1e-6},
-		{"C6", cycleGraph(t, 6), 0.5, 1e-12},
-		{"K5", completeGraph(t, 5), 1.25, 1e-12},
-		{"S6", starGraph(t, 6), 1, 1e-12},
-		{"two triangles", twoTriangles(t), 0.204666, 1e-6},
-		{"P60", pathGraph(t, 60), 1 - math.Cos(math.Pi/59), 1e-9},
-		{"C40", cycleGraph(t, 40), 1 - math.Cos(2*math.Pi/40), 1e-9},
-		{"K50", completeGraph(t, 50), 50.0 / 49, 1e-9},
-		{"S40", starGraph(t, 40), 1, 1e-9},
-		{"P200", pathGraph(t, 200), 1 - math.Cos(math.Pi/199), 1e-9},
+		{"P5", dgPath(t, 5), 0.292893, 1e-6},
+		{"C6", dgCycle(t, 6), 0.5, 1e-12},
+		{"K5", dgClique(t, 5), 1.25, 1e-12},
+		{"S6", dgStar(t, 6), 1, 1e-12},
+		{"two triangles", dgTwoTriangles(t), 0.204666, 1e-6},
+		{"P60", dgPath(t, 60), 1 - math.Cos(math.Pi/59), 1e-9},
+		{"C40", dgCycle(t, 40), 1 - math.Cos(2*math.Pi/40), 1e-9},
+		{"K50", dgClique(t, 50), 50.0 / 49, 1e-9},
+		{"S40", dgStar(t, 40), 1, 1e-9},
+		{"P200", dgPath(t, 200), 1 - math.Cos(math.Pi/199), 1e-9},
 	}
 	for _, c := range cases {
 		lambda, x := Fiedler(c.g, nil, 7)
@@ -284,7 +228,7 @@ func randomGraph(t testing.TB, seed uint64, n, extra int) *graph.CSR {
 		a, b := r.IntN(n), r.IntN(n)
 		es = append(es, graph.Edge{A: int32(a), B: int32(b), W: 0.1 + 2*r.Float64()})
 	}
-	return mustGraph(t, n, es)
+	return dgGraph(t, n, es)
 }
 
 // denseGeneralised solves L x = λ B x densely with gonum's mat.EigenSym on
@@ -349,7 +293,7 @@ func TestLanczosMatchesDenseWithMasses(t *testing.T) {
 func TestFiedlerDisconnectedHasNoNaN(t *testing.T) {
 	// Two components and an isolated vertex: λ₂ = 0 (multiplicity of 0 =
 	// number of components; Chung 1997, ch. 1) and a finite vector.
-	g := mustGraph(t, 6, []graph.Edge{{A: 0, B: 1, W: 1}, {A: 1, B: 2, W: 2}, {A: 3, B: 4, W: 1}})
+	g := dgGraph(t, 6, []graph.Edge{{A: 0, B: 1, W: 1}, {A: 1, B: 2, W: 2}, {A: 3, B: 4, W: 1}})
 	for _, m := range [][]float64{nil, {1, 1, 1, 1, 1, 1}} {
 		lambda, x := Fiedler(g, m, 1)
 		if lambda != 0 {
@@ -389,8 +333,8 @@ func TestSweepCuts(t *testing.T) {
 		want []int32
 		psi  float64
 	}{
-		{"two triangles", twoTriangles(t), []int32{0, 1, 2}, 1.0 / 9},
-		{"P6", pathGraph(t, 6), []int32{0, 1, 2}, 1.0 / 9},
+		{"two triangles", dgTwoTriangles(t), []int32{0, 1, 2}, 1.0 / 9},
+		{"P6", dgPath(t, 6), []int32{0, 1, 2}, 1.0 / 9},
 	}
 	for _, c := range cases {
 		_, x := Fiedler(c.g, nil, 1)
@@ -408,7 +352,7 @@ func TestSweepCuts(t *testing.T) {
 	// With masses the sweep scores w(A,B)/(m(A)·m(B)): a path 0–1–2 with
 	// mass 10 on vertex 0 and order x = (0, 1, 2) has prefix scores
 	// 1/(10·2) and 1/(11·1); the first is smaller.
-	g := pathGraph(t, 3)
+	g := dgPath(t, 3)
 	_, k, psi := SweepCut(g, []float64{0, 1, 2}, []float64{10, 1, 1})
 	if k != 1 || math.Abs(psi-1.0/20) > 1e-15 {
 		t.Errorf("mass sweep: k = %d ψ = %g, want 1 and 1/20", k, psi)
@@ -416,11 +360,11 @@ func TestSweepCuts(t *testing.T) {
 	// Ties go to the smallest k: on P4 with x = (0,1,2,3) prefixes score
 	// 1/3, 1/4, 1/3 → k = 2; on a 4-cycle in order 0,1,2,3 they score
 	// 2/3, 2/4, 2/3 → k = 2, and with equal x the order falls back on ids.
-	_, k, _ = SweepCut(pathGraph(t, 4), []float64{0, 1, 2, 3}, nil)
+	_, k, _ = SweepCut(dgPath(t, 4), []float64{0, 1, 2, 3}, nil)
 	if k != 2 {
 		t.Errorf("P4 sweep k = %d, want 2", k)
 	}
-	order, _, _ := SweepCut(cycleGraph(t, 4), []float64{1, 1, 1, 1}, nil)
+	order, _, _ := SweepCut(dgCycle(t, 4), []float64{1, 1, 1, 1}, nil)
 	if !equalInt32(order, []int32{0, 1, 2, 3}) {
 		t.Errorf("ties: order %v, want by id", order)
 	}
@@ -496,7 +440,7 @@ func TestDenseEigenFailureIsAnError(t *testing.T) {
 	factorizeSym = func(*mat.EigenSym, mat.Symmetric, bool) bool { calls++; return false }
 	// 15 items: more than the exact DP takes, few enough for the dense
 	// eigensolver.
-	res, err := Solve(pathGraph(t, 15), nil, Options{})
+	res, err := Solve(dgPath(t, 15), nil, Options{})
 	if !errors.Is(err, errNoConvergence) || res != nil {
 		t.Fatalf("Solve = %v, %v; want errNoConvergence", res, err)
 	}
@@ -507,7 +451,7 @@ func TestDenseEigenFailureIsAnError(t *testing.T) {
 		t.Errorf("error %q, want %q", err, want)
 	}
 	factorizeSym = saved
-	if _, err := Solve(pathGraph(t, 15), nil, Options{}); err != nil {
+	if _, err := Solve(dgPath(t, 15), nil, Options{}); err != nil {
 		t.Fatalf("with the real eigensolver: %v", err)
 	}
 }
