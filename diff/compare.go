@@ -189,6 +189,23 @@ func parts(a int, t, u *flatTree, shares []catShare, match []int) (pieces []int,
 	return pieces, covered
 }
 
+// brokenUp returns the sorted paths of the categories of u that together
+// hold most of category a of t (see parts), marking each in piece; ok is
+// false unless there are two or more. From old to new that is a split,
+// from new to old a merge.
+func brokenUp(a int, t, u *flatTree, shares []catShare, match []int, piece []bool) (paths []Path, ok bool) {
+	pieces, covered := parts(a, t, u, shares, match)
+	if len(pieces) < 2 || !mostly(covered, int64(len(t.members[a]))) {
+		return nil, false
+	}
+	for _, x := range pieces {
+		paths = append(paths, u.path[x])
+		piece[x] = true
+	}
+	slices.SortFunc(paths, comparePaths)
+	return paths, true
+}
+
 func (c *comparison) splitsAndMerges() ([]Split, []Merge) {
 	splits, merges := []Split{}, []Merge{}
 	c.splitOf = make([]bool, len(c.old.cats))
@@ -202,32 +219,16 @@ func (c *comparison) splitsAndMerges() ([]Split, []Merge) {
 			x := c.overlap.edges[e]
 			shares = append(shares, catShare{int(x.col) + 1, x.inter})
 		}
-		pieces, covered := parts(a, c.old, c.new, shares, c.matchNew)
-		if len(pieces) < 2 || !mostly(covered, int64(len(c.old.members[a]))) {
-			continue
+		if into, ok := brokenUp(a, c.old, c.new, shares, c.matchNew, c.pieceNew); ok {
+			c.splitOf[a] = true
+			splits = append(splits, Split{From: c.old.path[a], Into: into})
 		}
-		s := Split{From: c.old.path[a]}
-		for _, x := range pieces {
-			s.Into = append(s.Into, c.new.path[x])
-			c.pieceNew[x] = true
-		}
-		c.splitOf[a] = true
-		slices.SortFunc(s.Into, comparePaths)
-		splits = append(splits, s)
 	}
 	for x := 1; x < len(c.new.cats); x++ {
-		pieces, covered := parts(x, c.new, c.old, c.byNew[x], c.matchOld)
-		if len(pieces) < 2 || !mostly(covered, int64(len(c.new.members[x]))) {
-			continue
+		if from, ok := brokenUp(x, c.new, c.old, c.byNew[x], c.matchOld, c.pieceOld); ok {
+			c.mergeOf[x] = true
+			merges = append(merges, Merge{From: from, Into: c.new.path[x]})
 		}
-		m := Merge{Into: c.new.path[x]}
-		for _, a := range pieces {
-			m.From = append(m.From, c.old.path[a])
-			c.pieceOld[a] = true
-		}
-		c.mergeOf[x] = true
-		slices.SortFunc(m.From, comparePaths)
-		merges = append(merges, m)
 	}
 	slices.SortFunc(splits, func(a, b Split) int { return comparePaths(a.From, b.From) })
 	slices.SortFunc(merges, func(a, b Merge) int { return comparePaths(a.Into, b.Into) })
