@@ -88,25 +88,9 @@ type dgScipyRow struct {
 
 func dgReadLinkage(tb testing.TB, name string) []dgScipyRow {
 	tb.Helper()
-	f, err := os.Open(filepath.Join(dgRefDir, name))
-	if err != nil {
-		tb.Fatal(err)
-	}
-	defer f.Close()
-	recs, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		tb.Fatal(err)
-	}
 	var rows []dgScipyRow
-	for _, rec := range recs[1:] {
-		l, _ := strconv.Atoi(rec[2])
-		r, _ := strconv.Atoi(rec[3])
-		h, err := strconv.ParseFloat(rec[4], 64)
-		if err != nil {
-			tb.Fatal(err)
-		}
-		s, _ := strconv.Atoi(rec[5])
-		rows = append(rows, dgScipyRow{l, r, h, s})
+	for _, r := range dgReadCSV(tb, name, []int{2, 3, 4, 5}) {
+		rows = append(rows, dgScipyRow{int(r[0]), int(r[1]), r[2], int(r[3])})
 	}
 	return rows
 }

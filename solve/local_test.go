@@ -130,7 +130,7 @@ func TestRepairWithoutChangeKeepsTheTree(t *testing.T) {
 	if rep.Placed != 0 {
 		t.Errorf("Repair placed %d items, want 0", rep.Placed)
 	}
-	if a, b := leafHomes(res.Taxonomy), leafHomes(got); !mapsEqual(a, b) {
+	if a, b := leafHomes(res.Taxonomy), leafHomes(got); !maps.Equal(a, b) {
 		t.Errorf("Repair without change moved items")
 	}
 }
@@ -205,18 +205,6 @@ func stripNamed(home string, named map[int32]bool) string {
 		}
 	}
 	return string(out)
-}
-
-func mapsEqual(a, b map[int32]string) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for k, v := range a {
-		if b[k] != v {
-			return false
-		}
-	}
-	return true
 }
 
 // A reviewer's packet answer (a shape over a few items, here the hidden

@@ -2,6 +2,7 @@ package main
 
 import (
 	"bytes"
+	"maps"
 	"os"
 	"path/filepath"
 	"strings"
@@ -115,7 +116,7 @@ func TestBadInput(t *testing.T) {
 				if !strings.HasPrefix(first, tc.want) {
 					t.Errorf("%s: first problem\n  %s\nwant prefix\n  %s", cmd, clipText(first), tc.want)
 				}
-				if after := snapshot(t, dir); !sameFiles(before, after) {
+				if after := snapshot(t, dir); !maps.Equal(before, after) {
 					t.Errorf("%s changed files on bad input", cmd)
 				}
 			}
@@ -126,18 +127,6 @@ func TestBadInput(t *testing.T) {
 // badInputCommands are the commands each broken repository is run
 // through; every one must refuse it the same way.
 var badInputCommands = []string{"check"}
-
-func sameFiles(a, b map[string]string) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for k, v := range a {
-		if b[k] != v {
-			return false
-		}
-	}
-	return true
-}
 
 func clipText(s string) string {
 	if len(s) > 600 {

@@ -39,18 +39,7 @@ func TestCSVRoundTripLossless(t *testing.T) {
 	items[0].Tags = []string{"hand", "wood"}
 	items[2].Tags = []string{"über", "a b"}
 	concept.Carry(o.Root)
-	var b bytes.Buffer
-	if err := export.CSV(&b, o.Root, items); err != nil {
-		t.Fatal(err)
-	}
-	root, back, ds := parseImportCSV("export.csv", b.Bytes())
-	if len(ds) > 0 {
-		t.Fatalf("reading the export back: %v\n%s", ds, b.String())
-	}
-	root.Sort()
-	if got, want := string(format.FormatOutline(root)), string(format.FormatOutline(o.Root.Clone())); got != want {
-		t.Errorf("tree read back (-want +got):\n%s", cmp.Diff(want, got))
-	}
+	back := csvRoundTrip(t, o.Root, items)
 	type plain struct {
 		ID, Label, Text string
 		Tags            []string
@@ -83,18 +72,7 @@ func TestCSVRoundTripFormulaCells(t *testing.T) {
 		{ID: "saw-3", Label: "''@two quotes", Text: "-"},
 		{ID: "saw-4", Label: "+", Text: "ordinary"},
 	}
-	var b bytes.Buffer
-	if err := export.CSV(&b, o.Root, items); err != nil {
-		t.Fatal(err)
-	}
-	root, back, ds := parseImportCSV("export.csv", b.Bytes())
-	if len(ds) > 0 {
-		t.Fatalf("reading the export back: %v\n%s", ds, b.String())
-	}
-	root.Sort()
-	if got, want := string(format.FormatOutline(root)), string(format.FormatOutline(o.Root.Clone())); got != want {
-		t.Errorf("tree read back (-want +got):\n%s", cmp.Diff(want, got))
-	}
+	back := csvRoundTrip(t, o.Root, items)
 	for i, it := range back {
 		w := items[i]
 		if it.ID != w.ID || it.Label != w.Label || it.Text != w.Text || !cmp.Equal(it.Tags, w.Tags, cmpopts.EquateEmpty()) {
@@ -104,8 +82,28 @@ func TestCSVRoundTripFormulaCells(t *testing.T) {
 
 	// A bad category name behind a guard quote: the column is that of
 	// the name in the file, counting the quote.
-	_, _, ds = parseImportCSV("bad.csv", []byte("id,path\nsaw-1,'-Sale > ~\n"))
+	_, _, ds := parseImportCSV("bad.csv", []byte("id,path\nsaw-1,'-Sale > ~\n"))
 	if len(ds) != 1 || ds[0].Pos.Line != 2 || ds[0].Pos.Col != 16 {
 		t.Errorf("problems %v; want one at bad.csv:2:16, the \"~\"", ds)
 	}
+}
+
+// csvRoundTrip exports root and items as CSV, reads the file back as
+// `init --from` does, checks that the tree is the same and returns the
+// items read.
+func csvRoundTrip(t *testing.T, root *format.Category, items []format.Item) []format.Item {
+	t.Helper()
+	var b bytes.Buffer
+	if err := export.CSV(&b, root, items); err != nil {
+		t.Fatal(err)
+	}
+	back, backItems, ds := parseImportCSV("export.csv", b.Bytes())
+	if len(ds) > 0 {
+		t.Fatalf("reading the export back: %v\n%s", ds, b.String())
+	}
+	back.Sort()
+	if got, want := string(format.FormatOutline(back)), string(format.FormatOutline(root.Clone())); got != want {
+		t.Errorf("tree read back (-want +got):\n%s", cmp.Diff(want, got))
+	}
+	return backItems
 }
