@@ -83,7 +83,10 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 		}
 		// Cosine on z-scored features is the project's chosen vector
 		// similarity; the Gaussian kernel with local scaling stays
-		// available in solve/graph.
+		// available in solve/graph. Random far partners beside the
+		// neighbours keep the coarse geometry of the points (see
+		// graph.DefaultFarPartners).
+		b.FarPartners = graph.DefaultFarPartners
 		if p.Vectors.Values32 != nil {
 			return graph.VectorRows(b, p.Vectors.Values32, rows, n, dim, graph.Cosine)
 		}

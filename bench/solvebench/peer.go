@@ -111,7 +111,7 @@ func measurePeerOne(n int, seed uint64) (string, error) {
 	inst := planted.Generate(seed, n, 4, levelsFor(n))
 	values := flatten(inst.Vectors)
 	start := time.Now()
-	g, err := graph.Builder{K: 15, Seed: graph.DefaultSeed}.Vectors(values, n, planted.Dim, graph.Cosine)
+	g, err := graph.Builder{K: 15, Seed: graph.DefaultSeed, FarPartners: graph.DefaultFarPartners}.Vectors(values, n, planted.Dim, graph.Cosine)
 	if err != nil {
 		return "", err
 	}

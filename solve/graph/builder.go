@@ -48,6 +48,10 @@ type Builder struct {
 	TextWeighting Weighting
 	// KeepPlurals turns off the light plural stemming in Text.
 	KeepPlurals bool
+	// FarPartners, for cosine vectors with K > 0, is how many items drawn
+	// at random each item is also compared with (see
+	// DefaultFarPartners); 0 keeps the neighbours alone.
+	FarPartners int
 }
 
 // checkK validates k for n items.

@@ -77,7 +77,11 @@ func VectorRows[T Float](b Builder, values []T, rows []int32, n, dim int, kind V
 	r := &denseRows[T]{n: n, d: d, x: x, gaussian: kind == Gaussian}
 	if kind == Cosine {
 		normalizeRows(x, n, d)
-		return symmetrize(denseLists(b, r, effectiveK(b.K, n)), cosineWeight), nil
+		lists := denseLists(b, r, effectiveK(b.K, n))
+		if b.K > 0 {
+			lists = withFarPartners(lists, r, b.FarPartners, b.Seed)
+		}
+		return symmetrize(lists, cosineWeight), nil
 	}
 	return gaussianGraph(b, r), nil
 }
