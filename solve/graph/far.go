@@ -32,28 +32,26 @@ const DefaultFarPartners = 5
 // streamFar is the random stream of the far partners.
 const streamFar = 0x666172 // "far"
 
-// withFarPartners returns lists with up to far random partners added to
-// every row: items other than the row's own and not already listed in it,
-// scored by s, each drawn from a stream fixed by seed and visited in row
-// order, so the graph is the same for any GOMAXPROCS. With far ≤ 0 or
-// too few items it returns lists unchanged.
-func withFarPartners(lists *neighborLists, s interface{ score(i, j int) float64 }, far int, seed uint64) *neighborLists {
+// farPartners lists, for every row of lists, up to far random partners:
+// items other than the row's own and not already listed in it (nor drawn
+// before), scored by s, each drawn from a stream fixed by seed and visited
+// in row order, so the graph is the same for any GOMAXPROCS. They are a
+// list set of their own, which symmetrize reads beside the neighbours, so
+// the neighbour lists are never copied. With far ≤ 0 or fewer than three
+// items it returns nil.
+func farPartners(lists *neighborLists, s interface{ score(i, j int) float64 }, far int, seed uint64) *neighborLists {
 	n := lists.n
 	if far <= 0 || n < 3 {
-		return lists
+		return nil
 	}
 	rng := rand.New(rand.NewPCG(seed, streamFar))
-	out := &neighborLists{n: n, off: make([]int64, n+1)}
-	out.ids = make([]int32, 0, len(lists.ids)+n*far)
-	out.sims = make([]float64, 0, len(lists.ids)+n*far)
+	out := &neighborLists{n: n, off: make([]int64, n+1), ids: make([]int32, 0, n*far), sims: make([]float64, 0, n*far)}
 	for i := 0; i < n; i++ {
-		ids, sims := lists.row(i)
+		near, _ := lists.row(i)
 		start := len(out.ids)
-		out.ids = append(out.ids, ids...)
-		out.sims = append(out.sims, sims...)
 		for range far {
 			j := int32(rng.IntN(n))
-			if int(j) == i || slices.Contains(out.ids[start:], j) {
+			if int(j) == i || slices.Contains(near, j) || slices.Contains(out.ids[start:], j) {
 				continue
 			}
 			out.ids = append(out.ids, j)

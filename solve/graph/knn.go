@@ -38,7 +38,7 @@ func (b Builder) sparseGraph(rows *sparseRows) (*CSR, error) {
 	} else {
 		lists = exactSparse(rows, k, nil)
 	}
-	return symmetrize(lists, cosineWeight), nil
+	return symmetrize(cosineWeight, lists), nil
 }
 
 // cosineWeight keeps positive cosines as edge weights; the rest are not

@@ -93,7 +93,8 @@ func computeBlocks[S any](n int, items []int32, newState func() S, fill blockFil
 	return l
 }
 
-// symmetrize turns directed neighbour lists (no id repeated within a row)
+// symmetrize turns directed neighbour lists (no id repeated within a row,
+// nor across the sets for one row; row i is the rows i of all the sets)
 // into the union-kNN graph: i and j are joined when j is in i's list or i
 // is in j's. weight maps a listed score to the edge weight; entries whose
 // weight is not positive, and self-entries, are dropped. Because scores are
@@ -101,21 +102,27 @@ func computeBlocks[S any](n int, items []int32, newState func() S, fill blockFil
 // weight both ways; the larger is kept anyway so the graph stays symmetric
 // even if a caller's weight function is not.
 // Cost and memory are linear in the number of list entries.
-func symmetrize(l *neighborLists, weight func(i int, j int32, score float64) float64) *CSR {
-	n := l.n
+func symmetrize(weight func(i int, j int32, score float64) float64, sets ...*neighborLists) *CSR {
+	n := sets[0].n
+	entries := 0
+	for _, l := range sets {
+		entries += len(l.ids)
+	}
 	fOff := make([]int64, n+1)
-	fT := make([]int32, 0, len(l.ids))
-	fW := make([]float64, 0, len(l.ids))
+	fT := make([]int32, 0, entries)
+	fW := make([]float64, 0, entries)
 	for i := 0; i < n; i++ {
-		ids, sims := l.row(i)
 		start := len(fT)
-		for p, j := range ids {
-			if int(j) == i {
-				continue
-			}
-			if w := weight(i, j, sims[p]); w > 0 {
-				fT = append(fT, j)
-				fW = append(fW, w)
+		for _, l := range sets {
+			ids, sims := l.row(i)
+			for p, j := range ids {
+				if int(j) == i {
+					continue
+				}
+				if w := weight(i, j, sims[p]); w > 0 {
+					fT = append(fT, j)
+					fW = append(fW, w)
+				}
 			}
 		}
 		sortByTarget(fT[start:], fW[start:])

@@ -79,9 +79,11 @@ func VectorRows[T Float](b Builder, values []T, rows []int32, n, dim int, kind V
 		normalizeRows(x, n, d)
 		lists := denseLists(b, r, effectiveK(b.K, n))
 		if b.K > 0 {
-			lists = withFarPartners(lists, r, b.FarPartners, b.Seed)
+			if far := farPartners(lists, r, b.FarPartners, b.Seed); far != nil {
+				return symmetrize(cosineWeight, lists, far), nil
+			}
 		}
-		return symmetrize(lists, cosineWeight), nil
+		return symmetrize(cosineWeight, lists), nil
 	}
 	return gaussianGraph(b, r), nil
 }
@@ -100,9 +102,9 @@ func gaussianGraph[T Float](b Builder, r *denseRows[T]) *CSR {
 		edgeLists = truncateRows(scaleLists, k)
 	}
 	sigma := localScales(scaleLists, edgeLists, rank)
-	return symmetrize(edgeLists, func(i int, j int32, score float64) float64 {
+	return symmetrize(func(i int, j int32, score float64) float64 {
 		return gaussianWeight(-score, sigma[i], sigma[j])
-	})
+	}, edgeLists)
 }
 
 // gaussianWeight is exp(−d²/(σ_i σ_j)), and 1 for identical points.
