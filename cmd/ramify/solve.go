@@ -42,26 +42,66 @@ a baseline to compare with, which ignores the constraints. solve lists the
 records it breaks and writes it only elsewhere (--out FILE) or, with
 --replace, over the taxonomy. --out FILE works with either method and
 leaves the taxonomy alone.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["method"] = fs.String("method", "constrained", "how to build the tree: constrained or average")
-			o.extra["dry-run"] = fs.Bool("dry-run", false, "report what would change without writing the outline")
-			o.extra["out"] = fs.String("out", "", "write the tree to this `FILE` in the repository and leave the taxonomy alone")
-			o.extra["replace"] = fs.Bool("replace", false, "with --method average: replace the taxonomy even though the baseline breaks records")
-			o.extra["rebuild"] = fs.Bool("rebuild", false, "solve from scratch instead of changing only what the new inputs force")
-		},
-		run: runSolve,
+		bind: withOptions(func(fs *pflag.FlagSet, o *solveOptions) {
+			fs.StringVar(&o.method, "method", "constrained", "how to build the tree: constrained or average")
+			fs.BoolVar(&o.dryRun, "dry-run", false, "report what would change without writing the outline")
+			fs.StringVar(&o.out, "out", "", "write the tree to this `FILE` in the repository and leave the taxonomy alone")
+			fs.BoolVar(&o.replace, "replace", false, "with --method average: replace the taxonomy even though the baseline breaks records")
+			fs.BoolVar(&o.rebuild, "rebuild", false, "solve from scratch instead of changing only what the new inputs force")
+		}, runSolve),
 	})
 }
 
-func runSolve(e *env, args []string) error {
+type solveOptions struct {
+	method  string
+	dryRun  bool
+	out     string
+	replace bool
+	rebuild bool
+}
+
+// solveReport is solve's --json report, filled once the tree is solved.
+type solveReport struct {
+	Added           *int               `json:"added,omitempty"` // with a previous outline
+	Categories      int                `json:"categories"`
+	Constraints     solveConstraints   `json:"constraints"`
+	Cost            float64            `json:"cost"`
+	Depth           int                `json:"depth"`
+	Edges           int                `json:"edges"`
+	Items           int                `json:"items"`
+	Joined          int                `json:"joined"`
+	Mode            string             `json:"mode"`
+	Moved           []string           `json:"moved"`
+	MovedCategories []categoryMoveJSON `json:"moved_categories"`
+	Out             string             `json:"out,omitempty"`
+	Placed          int                `json:"placed"`
+	RebuildReason   string             `json:"rebuild_reason,omitempty"`
+	Removed         *int               `json:"removed,omitempty"` // with a previous outline
+	Seconds         float64            `json:"seconds"`
+	Written         *bool              `json:"written,omitempty"` // nil when solve stopped before writing
+}
+
+// solveConstraints counts the records by kind, as check prints them; the
+// triplets the solver works with (shapes stand for many) apart.
+type solveConstraints struct {
+	Groups         int `json:"groups"`
+	Records        int `json:"records"`
+	Satisfied      int `json:"satisfied"`
+	Shapes         int `json:"shapes"`
+	SolverTriplets int `json:"solver_triplets"`
+	Triplets       int `json:"triplets"`
+	Violated       int `json:"violated"`
+}
+
+func runSolve(e *env, o *solveOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("solve takes no arguments (got %q)", args[0])
 	}
-	method := project.Method(*e.opt.extra["method"].(*string))
+	method := project.Method(o.method)
 	if method != project.MethodConstrained && method != project.MethodAverage {
 		return usagef("--method must be constrained or average, not %q", method)
 	}
-	dryRun := *e.opt.extra["dry-run"].(*bool)
+	dryRun := o.dryRun
 	p, ds := project.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
@@ -73,7 +113,7 @@ func runSolve(e *env, args []string) error {
 	if err := checkGroupNames(p); err != nil {
 		return err
 	}
-	sol, err := p.RegenerateWith(project.RegenOptions{Method: method, Rebuild: *e.opt.extra["rebuild"].(*bool), Progress: e.progressFunc()})
+	sol, err := p.RegenerateWith(project.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc()})
 	e.endProgress()
 	if err != nil {
 		return solveError(e, err)
@@ -82,8 +122,9 @@ func runSolve(e *env, args []string) error {
 	if p.Outline != nil {
 		prev = p.Outline.Root
 	}
-	fillSolveReport(e, p, sol, prev)
-	if handled, err := solveElsewhere(e, p, sol, method, dryRun); handled {
+	rep := solveReportOf(p, sol, prev)
+	e.result = rep
+	if handled, err := solveElsewhere(e, o, rep, p, sol); handled {
 		return err
 	}
 	changed := !bytes.Equal(sol.Text, p.OutlineText)
@@ -92,8 +133,9 @@ func runSolve(e *env, args []string) error {
 			return err
 		}
 	}
-	e.report["written"] = changed && !dryRun
-	printSolveReport(e, p, sol)
+	written := changed && !dryRun
+	rep.Written = &written
+	printSolveReport(e, rep, p, sol)
 	switch {
 	case !changed:
 		e.say("%s is up to date", rel)
@@ -158,58 +200,55 @@ func quoteNote(n string) string {
 	return `"` + n + `"`
 }
 
-func fillSolveReport(e *env, p *project.Project, sol *project.Solution, prev *format.Category) {
+func solveReportOf(p *project.Project, sol *project.Solution, prev *format.Category) *solveReport {
 	total := len(sol.Compiled.Records)
 	violated := len(sol.Violated)
-	e.report["items"] = len(p.Items)
-	e.report["categories"] = sol.Root.CountCategories()
-	e.report["depth"] = sol.Root.Depth()
-	e.report["cost"] = roundSig(sol.Cost, 10)
-	e.report["edges"] = sol.Graph.NumEdges()
-	// Counts of records by kind, as check prints them; the triplets the
-	// solver works with (shapes stand for many) are counted apart.
 	counts := countRecords(p.Constraints)
-	e.report["constraints"] = map[string]any{
-		"records":         total,
-		"triplets":        counts.Triplets,
-		"groups":          counts.Groups,
-		"shapes":          counts.Shapes,
-		"solver_triplets": sol.Compiled.Triplets,
-		"satisfied":       total - violated,
-		"violated":        violated,
+	rep := &solveReport{
+		Items:      len(p.Items),
+		Categories: sol.Root.CountCategories(),
+		Depth:      sol.Root.Depth(),
+		Cost:       roundSig(sol.Cost, 10),
+		Edges:      sol.Graph.NumEdges(),
+		Constraints: solveConstraints{
+			Records:        total,
+			Triplets:       counts.Triplets,
+			Groups:         counts.Groups,
+			Shapes:         counts.Shapes,
+			SolverTriplets: sol.Compiled.Triplets,
+			Satisfied:      total - violated,
+			Violated:       violated,
+		},
+		Moved:           []string{},
+		MovedCategories: []categoryMoveJSON{},
+		Mode:            sol.Mode,
+		RebuildReason:   sol.Reason,
+		Placed:          sol.Placed,
+		Joined:          sol.Joined,
+		Seconds:         roundSig(sol.Seconds, 3),
 	}
-	moved, movedCats := []string{}, []categoryMoveJSON{}
 	if prev != nil {
-		rep := diff.CompareChanges(prev, sol.Root)
-		moved, movedCats = movesReport(rep)
-		e.report["added"] = len(rep.Added)
-		e.report["removed"] = len(rep.Removed)
+		changes := diff.CompareChanges(prev, sol.Root)
+		rep.Moved, rep.MovedCategories = movesReport(changes)
+		added, removed := len(changes.Added), len(changes.Removed)
+		rep.Added, rep.Removed = &added, &removed
 	}
-	e.report["moved"] = moved
-	e.report["moved_categories"] = movedCats
-	e.report["mode"] = sol.Mode
-	if sol.Reason != "" {
-		e.report["rebuild_reason"] = sol.Reason
-	}
-	e.report["placed"] = sol.Placed
-	e.report["joined"] = sol.Joined
-	e.report["seconds"] = roundSig(sol.Seconds, 3)
+	return rep
 }
 
-func printSolveReport(e *env, p *project.Project, sol *project.Solution) {
-	r := e.report
-	e.say("%s in %s, depth %d", plural(len(p.Items), "item", "items"), plural(r["categories"].(int), "category", "categories"), r["depth"])
+func printSolveReport(e *env, r *solveReport, p *project.Project, sol *project.Solution) {
+	e.say("%s in %s, depth %d", plural(len(p.Items), "item", "items"), plural(r.Categories, "category", "categories"), r.Depth)
 	e.say("  cost         %s  (Dasgupta, on a graph of %d edges)", formatCost(sol.Cost), sol.Graph.NumEdges())
-	c := r["constraints"].(map[string]any)
-	if c["records"].(int) == 0 {
+	c := r.Constraints
+	if c.Records == 0 {
 		e.say("  constraints  none recorded")
-	} else if c["violated"].(int) == 0 {
+	} else if c.Violated == 0 {
 		e.say("  constraints  %s, all holding", describeRecords(countRecords(p.Constraints)))
 	} else {
-		e.say("  constraints  %d of %s broken (the average-linkage baseline ignores them)", c["violated"], plural(c["records"].(int), "record", "records"))
+		e.say("  constraints  %d of %s broken (the average-linkage baseline ignores them)", c.Violated, plural(c.Records, "record", "records"))
 	}
 	if p.Outline != nil {
-		e.say("  moved        %s since the previous outline", describeMoves(len(r["moved"].([]string)), r["moved_categories"].([]categoryMoveJSON)))
+		e.say("  moved        %s since the previous outline", describeMoves(len(r.Moved), r.MovedCategories))
 	}
 	switch sol.Mode {
 	case project.ModeRebuild:

@@ -11,9 +11,8 @@ import (
 // replaces the taxonomy only with --replace, and solve says what it
 // breaks either way. handled is true when solve is done (written to
 // --out, or refused).
-func solveElsewhere(e *env, p *project.Project, sol *project.Solution, method project.Method, dryRun bool) (handled bool, err error) {
-	out := *e.opt.extra["out"].(*string)
-	replace := *e.opt.extra["replace"].(*bool)
+func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *project.Project, sol *project.Solution) (handled bool, err error) {
+	method, out, replace, dryRun := project.Method(o.method), o.out, o.replace, o.dryRun
 	rel := p.Settings.Taxonomy.File
 	broken := len(sol.Violated)
 	total := len(sol.Compiled.Records)
@@ -41,9 +40,9 @@ func solveElsewhere(e *env, p *project.Project, sol *project.Solution, method pr
 		if err != nil {
 			return true, usagef("--out: %v", err)
 		}
-		e.report["out"] = out
-		e.report["written"] = !dryRun
-		printSolveReport(e, p, sol)
+		written := !dryRun
+		rep.Out, rep.Written = out, &written
+		printSolveReport(e, rep, p, sol)
 		if dryRun {
 			e.say("would write %s (dry run: nothing written); %s is left alone", out, rel)
 			return true, nil
@@ -55,7 +54,7 @@ func solveElsewhere(e *env, p *project.Project, sol *project.Solution, method pr
 		return true, nil
 	}
 	if method == project.MethodAverage && broken > 0 && !replace && !dryRun {
-		e.report["written"] = false
+		rep.Written = new(bool)
 		return true, usagef("--method average would replace %s with a tree that breaks %d of %s; write it elsewhere with --out FILE, or pass --replace to replace the taxonomy anyway",
 			rel, broken, plural(total, "record", "records"))
 	}
