@@ -47,21 +47,31 @@ parent, its nearest sibling, the records it carries out and, with
 Finding what decides needs a solve per record and what happens without
 records one more; above 5,000 items (20,000 for the second) they are
 skipped unless --solve is given; --no-solve skips them always.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["support"] = fs.Bool("support", false, "show committee support (solves the committee)")
-			o.extra["solve"] = fs.Bool("solve", false, "solve without records even for a large taxonomy")
-			o.extra["no-solve"] = fs.Bool("no-solve", false, "do not solve without records")
-		},
-		run: runExplain,
+		bind: withOptions(func(fs *pflag.FlagSet, o *explainOptions) {
+			fs.BoolVar(&o.support, "support", false, "show committee support (solves the committee)")
+			fs.BoolVar(&o.solve, "solve", false, "solve without records even for a large taxonomy")
+			fs.BoolVar(&o.noSolve, "no-solve", false, "do not solve without records")
+		}, runExplain),
 	})
 }
 
-func runExplain(e *env, args []string) error {
+type explainOptions struct {
+	support bool
+	solve   bool // solve without records at any size
+	noSolve bool // never solve without records
+}
+
+// explainReport is explain's --json report: one *explain.Item or
+// *explain.Category per argument, in their order.
+type explainReport struct {
+	Explained []any `json:"explained"`
+}
+
+func runExplain(e *env, o *explainOptions, args []string) error {
 	if len(args) == 0 {
 		return usagef("name at least one item, or a category ending in /")
 	}
-	forceSolve, noSolve := *e.opt.extra["solve"].(*bool), *e.opt.extra["no-solve"].(*bool)
-	if forceSolve && noSolve {
+	if o.solve && o.noSolve {
 		return usagef("--solve and --no-solve ask for opposite things; give one")
 	}
 	p, ds := project.Load(e.dir())
@@ -89,59 +99,9 @@ func runExplain(e *env, args []string) error {
 		}
 		cats, catPaths = append(cats, nil), append(catPaths, nil)
 	}
-	progress := e.progressFunc()
-	if progress != nil {
-		progress("similarity graph", 0, 1)
-	}
-	g, err := p.Graph(project.Seed)
+	in, err := explainInput(e, o, p)
 	if err != nil {
 		return err
-	}
-	sources, err := p.SourceGraphs(project.Seed)
-	if err != nil {
-		return err
-	}
-	in := explain.Input{Project: p, Graph: g, Sources: sources, Records: binding.New(p.Constraints)}
-	if *e.opt.extra["support"].(*bool) {
-		structure, err := currentTaxonomy(p, "ask for support")
-		if err != nil {
-			return err
-		}
-		if in.Support, _, err = categorySupport(e, p, structure); err != nil {
-			return err
-		}
-	}
-	n := len(p.Items)
-	if !noSolve && (forceSolve || n <= explainFreeLimit) {
-		if progress != nil {
-			progress("solving without records", 0, 1)
-		}
-		q := unpulled(p)
-		q.Constraints = nil
-		sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
-		if err != nil {
-			return err
-		}
-		in.Free = sol.Root
-	}
-	if !noSolve && (forceSolve || n <= explainDecideLimit) {
-		cache := map[int]*format.Category{}
-		in.Without = func(r int) (*format.Category, error) {
-			if t, ok := cache[r]; ok {
-				return t, nil
-			}
-			if progress != nil {
-				progress("solving without each record", len(cache), len(in.Records.Records))
-			}
-			q := unpulled(p)
-			q.Constraints = withoutRecord(p.Constraints, r)
-			sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
-			if err != nil {
-				return nil, err
-			}
-			cache[r] = sol.Root
-			return sol.Root, nil
-		}
 	}
 	var reports []any
 	for i, a := range args {
@@ -154,7 +114,7 @@ func runExplain(e *env, args []string) error {
 		if err != nil {
 			return err
 		}
-		if len(in.Records.ForItem(a)) > explainMaxDecide && !forceSolve {
+		if len(in.Records.ForItem(a)) > explainMaxDecide && !o.solve {
 			item, err = explain.ExplainItem(noDecide(in), a)
 			if err != nil {
 				return err
@@ -163,7 +123,7 @@ func runExplain(e *env, args []string) error {
 		reports = append(reports, item)
 	}
 	e.endProgress()
-	e.report["explained"] = reports
+	e.result = &explainReport{Explained: reports}
 	for i, r := range reports {
 		if i > 0 {
 			e.say("")
@@ -176,6 +136,73 @@ func runExplain(e *env, args []string) error {
 		}
 	}
 	return nil
+}
+
+// explainInput gathers what explaining needs: the similarity graphs, the
+// records, with --support the committee's support, and (unless the
+// taxonomy is too large or --no-solve) the tree solved without records
+// and a solver of the tree without each record.
+func explainInput(e *env, o *explainOptions, p *project.Project) (explain.Input, error) {
+	progress := e.progressFunc()
+	if progress != nil {
+		progress("similarity graph", 0, 1)
+	}
+	g, err := p.Graph(project.Seed)
+	if err != nil {
+		return explain.Input{}, err
+	}
+	sources, err := p.SourceGraphs(project.Seed)
+	if err != nil {
+		return explain.Input{}, err
+	}
+	in := explain.Input{Project: p, Graph: g, Sources: sources, Records: binding.New(p.Constraints)}
+	if o.support {
+		structure, err := currentTaxonomy(p, "ask for support")
+		if err != nil {
+			return explain.Input{}, err
+		}
+		if in.Support, _, err = categorySupport(e, p, structure); err != nil {
+			return explain.Input{}, err
+		}
+	}
+	n := len(p.Items)
+	if !o.noSolve && (o.solve || n <= explainFreeLimit) {
+		if progress != nil {
+			progress("solving without records", 0, 1)
+		}
+		q := unpulled(p)
+		q.Constraints = nil
+		sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
+		if err != nil {
+			return explain.Input{}, err
+		}
+		in.Free = sol.Root
+	}
+	if !o.noSolve && (o.solve || n <= explainDecideLimit) {
+		in.Without = solverWithout(p, len(in.Records.Records), progress)
+	}
+	return in, nil
+}
+
+// solverWithout solves the taxonomy without record r, once per record.
+func solverWithout(p *project.Project, records int, progress func(stage string, done, total int)) func(r int) (*format.Category, error) {
+	cache := map[int]*format.Category{}
+	return func(r int) (*format.Category, error) {
+		if t, ok := cache[r]; ok {
+			return t, nil
+		}
+		if progress != nil {
+			progress("solving without each record", len(cache), records)
+		}
+		q := unpulled(p)
+		q.Constraints = withoutRecord(p.Constraints, r)
+		sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
+		if err != nil {
+			return nil, err
+		}
+		cache[r] = sol.Root
+		return sol.Root, nil
+	}
 }
 
 // unpulled is the project with stability off: solved again, it gives the

@@ -40,25 +40,38 @@ input files are never overwritten.
 Exports are of what is committed: export fails (exit status 1) when there
 is no taxonomy.outline yet, or when it was reshaped by hand and the edits
 are not yet absorbed. It does not run solve.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["format"] = fs.String("format", "", "`form` of the export: skos, newick, json or csv (required)")
-			o.extra["out"] = fs.String("out", "", "write to `FILE` inside the repository instead of stdout")
-			o.extra["version"] = fs.String("version", "", "skos: the scheme's owl:versionInfo (default: the tree's structure hash)")
-			o.extra["title"] = fs.String("title", export.DefaultTitle, "skos: the scheme's title")
-			o.extra["lang"] = fs.String("lang", export.DefaultLanguage, "skos: the language `tag` of labels and definitions")
-		},
-		run: runExport,
+		bind: withOptions(func(fs *pflag.FlagSet, o *exportOptions) {
+			fs.StringVar(&o.format, "format", "", "`form` of the export: skos, newick, json or csv (required)")
+			fs.StringVar(&o.out, "out", "", "write to `FILE` inside the repository instead of stdout")
+			fs.StringVar(&o.version, "version", "", "skos: the scheme's owl:versionInfo (default: the tree's structure hash)")
+			fs.StringVar(&o.title, "title", export.DefaultTitle, "skos: the scheme's title")
+			fs.StringVar(&o.lang, "lang", export.DefaultLanguage, "skos: the language `tag` of labels and definitions")
+		}, runExport),
 	})
 }
 
 var exportFormats = []string{"skos", "newick", "json", "csv"}
 
-func runExport(e *env, args []string) error {
+type exportOptions struct {
+	format, out          string
+	version, title, lang string // skos only
+}
+
+// exportReport is export's --json report.
+type exportReport struct {
+	Bytes      int    `json:"bytes"`
+	Categories int    `json:"categories"`
+	Format     string `json:"format"`
+	Items      int    `json:"items"`
+	Out        string `json:"out,omitempty"`     // once written there
+	Version    string `json:"version,omitempty"` // skos only
+}
+
+func runExport(e *env, o *exportOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("export takes no arguments (got %q); choose the form with --format", args[0])
 	}
-	form := *e.opt.extra["format"].(*string)
-	out := *e.opt.extra["out"].(*string)
+	form, out := o.format, o.out
 	if form == "" {
 		return usagef("--format is required: one of %s", strings.Join(exportFormats, ", "))
 	}
@@ -105,18 +118,19 @@ func runExport(e *env, args []string) error {
 	root := p.Outline.Root
 	var b bytes.Buffer
 	var err error
+	version := ""
 	switch form {
 	case "skos":
 		opt := export.SKOSOptions{
 			BaseIRI:  p.Settings.Release.BaseIRI,
-			Title:    *e.opt.extra["title"].(*string),
-			Version:  *e.opt.extra["version"].(*string),
-			Language: *e.opt.extra["lang"].(*string),
+			Title:    o.title,
+			Version:  o.version,
+			Language: o.lang,
 		}
 		if opt.Version == "" {
 			opt.Version = format.StructureHash(root)
 		}
-		e.report["version"] = opt.Version
+		version = opt.Version
 		err = export.SKOS(&b, root, p.Items, opt)
 	case "newick":
 		err = export.Newick(&b, root, export.NewickOptions{})
@@ -126,12 +140,14 @@ func runExport(e *env, args []string) error {
 		err = export.CSV(&b, root, p.Items)
 	}
 	if err != nil {
+		// The report names the version asked for, nothing of an export.
+		e.result = struct {
+			Version string `json:"version,omitempty"`
+		}{version}
 		return err
 	}
-	e.report["format"] = form
-	e.report["items"] = root.Size()
-	e.report["categories"] = root.CountCategories()
-	e.report["bytes"] = b.Len()
+	rep := &exportReport{Format: form, Items: root.Size(), Categories: root.CountCategories(), Bytes: b.Len(), Version: version}
+	e.result = rep
 	if target == "" {
 		_, err := e.stdout.Write(b.Bytes())
 		return err
@@ -142,7 +158,7 @@ func runExport(e *env, args []string) error {
 	if err := format.WriteFileAtomic(target, b.Bytes(), 0o644); err != nil {
 		return err
 	}
-	e.report["out"] = filepath.ToSlash(filepath.Clean(out))
+	rep.Out = filepath.ToSlash(filepath.Clean(out))
 	e.say("wrote %s (%s, %s in %s)", filepath.ToSlash(filepath.Clean(out)), form,
 		plural(root.Size(), "item", "items"), plural(root.CountCategories(), "category", "categories"))
 	return nil
