@@ -51,17 +51,32 @@ The page is written atomically to report.html in the repository, or to
 --out. It works in light and dark mode by the system setting and from
 the keyboard: / jumps to the search, the arrow keys move through the
 tree, Enter opens and closes a row.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["out"] = fs.String("out", "", "write the page to `FILE` (default report.html in the repository)")
-			o.extra["since"] = fs.String("since", "", "show changes since `REV` (a git revision, REV:PATH or an outline file)")
-			o.extra["support"] = fs.Bool("support", false, "compute each category's committee support (solves the committee)")
-			o.extra["title"] = fs.String("title", "", "the page's `title` (default: the repository folder's name)")
-		},
-		run: runReport,
+		bind: withOptions(func(fs *pflag.FlagSet, o *reportOptions) {
+			fs.StringVar(&o.out, "out", "", "write the page to `FILE` (default report.html in the repository)")
+			fs.StringVar(&o.since, "since", "", "show changes since `REV` (a git revision, REV:PATH or an outline file)")
+			fs.BoolVar(&o.support, "support", false, "compute each category's committee support (solves the committee)")
+			fs.StringVar(&o.title, "title", "", "the page's `title` (default: the repository folder's name)")
+		}, runReport),
 	})
 }
 
-func runReport(e *env, args []string) error {
+type reportOptions struct {
+	out, since, title string
+	support           bool
+}
+
+// reportPageJSON is report's --json report, once the page is written.
+type reportPageJSON struct {
+	Bytes      int    `json:"bytes"`
+	Categories int    `json:"categories"`
+	Items      int    `json:"items"`
+	Moved      *int   `json:"moved,omitempty"` // with a base to compare with
+	Out        string `json:"out"`
+	Since      string `json:"since"`
+	Support    bool   `json:"support"`
+}
+
+func runReport(e *env, o *reportOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("report takes no arguments (got %q)", args[0])
 	}
@@ -72,44 +87,9 @@ func runReport(e *env, args []string) error {
 	if p.Outline == nil {
 		return failf("%s does not exist yet; run `ramify solve` first, then report", p.Settings.Taxonomy.File)
 	}
-	structure := format.StructureHash(p.Outline.Root)
-	in := report.Input{
-		Title:     reportTitle(e, p),
-		Root:      p.Outline.Root,
-		Structure: structure,
-		Items:     p.Items,
-		Index:     p.Index,
-		Records:   binding.New(p.Constraints),
-		Gate:      report.Gate{MinAudits: p.Settings.Release.MinAudits, MaxRejectRate: p.Settings.Release.MaxRejectRate},
-	}
-	open, ds := readPackets(p.Dir, review.OpenDir)
-	done, dds := readPackets(p.Dir, review.DoneDir)
-	if ds = append(ds, dds...); len(ds) > 0 {
-		return ds
-	}
-	for _, a := range open {
-		pk := a.Packet
-		in.Open = append(in.Open, report.OpenPacket{File: a.File, Reason: pk.Reason, Drawn: pk.Drawn, Verdict: pk.Verdict, Current: pk.From == structure, Items: a.Items()})
-	}
-	packets := make([]*format.Packet, len(done))
-	for i, a := range done {
-		packets[i] = a.Packet
-	}
-	audits := review.SummarizeAudits(packets, p.Outline.Root)
-	in.Audits = &audits
-
-	if err := reportBase(e, p, &in); err != nil {
+	in, err := reportInput(e, o, p)
+	if err != nil {
 		return err
-	}
-	if *e.opt.extra["support"].(*bool) {
-		if _, err := currentTaxonomy(p, "ask for support"); err != nil {
-			return err
-		}
-		support, trees, err := categorySupport(e, p, structure)
-		if err != nil {
-			return err
-		}
-		in.Support, in.Trees = support, trees
 	}
 	progress := e.progressFunc()
 	if progress != nil {
@@ -120,26 +100,23 @@ func runReport(e *env, args []string) error {
 	if err := page.WriteHTML(&buf); err != nil {
 		return err
 	}
-	out := *e.opt.extra["out"].(*string)
+	out := o.out
 	shownOut := out
 	if out == "" {
 		out = filepath.Join(p.Dir, defaultReportFile)
 		shownOut = defaultReportFile
 	}
-	err := format.WriteFileAtomic(out, buf.Bytes(), 0o644)
+	err = format.WriteFileAtomic(out, buf.Bytes(), 0o644)
 	e.endProgress()
 	if err != nil {
 		return err
 	}
-	e.report["out"] = shownOut
-	e.report["bytes"] = buf.Len()
-	e.report["items"] = len(page.Items)
-	e.report["categories"] = len(page.Cats) - 1
-	e.report["since"] = in.Base
-	e.report["support"] = in.Support != nil
+	rep := &reportPageJSON{Out: shownOut, Bytes: buf.Len(), Items: len(page.Items), Categories: len(page.Cats) - 1, Since: in.Base, Support: in.Support != nil}
 	if in.Changes != nil {
-		e.report["moved"] = len(in.Changes.Moved)
+		moved := len(in.Changes.Moved)
+		rep.Moved = &moved
 	}
+	e.result = rep
 	e.say("wrote %s: %s in %s, %s", shownOut, plural(len(page.Items), "item", "items"), plural(len(page.Cats)-1, "category", "categories"), sizeText(buf.Len()))
 	if in.Base != "" {
 		e.say("changes since %s: %s moved, %d added, %d removed", in.Base, plural(len(in.Changes.Moved), "item", "items"), len(in.Changes.Added), len(in.Changes.Removed))
@@ -152,8 +129,54 @@ func runReport(e *env, args []string) error {
 	return nil
 }
 
-func reportTitle(e *env, p *project.Project) string {
-	if t := *e.opt.extra["title"].(*string); t != "" {
+// reportInput gathers what the page shows: the tree and its records, the
+// review state, the changes since the base and, with --support, the
+// committee's support.
+func reportInput(e *env, o *reportOptions, p *project.Project) (report.Input, error) {
+	structure := format.StructureHash(p.Outline.Root)
+	in := report.Input{
+		Title:     reportTitle(o, p),
+		Root:      p.Outline.Root,
+		Structure: structure,
+		Items:     p.Items,
+		Index:     p.Index,
+		Records:   binding.New(p.Constraints),
+		Gate:      report.Gate{MinAudits: p.Settings.Release.MinAudits, MaxRejectRate: p.Settings.Release.MaxRejectRate},
+	}
+	open, ds := readPackets(p.Dir, review.OpenDir)
+	done, dds := readPackets(p.Dir, review.DoneDir)
+	if ds = append(ds, dds...); len(ds) > 0 {
+		return in, ds
+	}
+	for _, a := range open {
+		pk := a.Packet
+		in.Open = append(in.Open, report.OpenPacket{File: a.File, Reason: pk.Reason, Drawn: pk.Drawn, Verdict: pk.Verdict, Current: pk.From == structure, Items: a.Items()})
+	}
+	packets := make([]*format.Packet, len(done))
+	for i, a := range done {
+		packets[i] = a.Packet
+	}
+	audits := review.SummarizeAudits(packets, p.Outline.Root)
+	in.Audits = &audits
+
+	if err := reportBase(p, o.since, &in); err != nil {
+		return in, err
+	}
+	if o.support {
+		if _, err := currentTaxonomy(p, "ask for support"); err != nil {
+			return in, err
+		}
+		support, trees, err := categorySupport(e, p, structure)
+		if err != nil {
+			return in, err
+		}
+		in.Support, in.Trees = support, trees
+	}
+	return in, nil
+}
+
+func reportTitle(o *reportOptions, p *project.Project) string {
+	if t := o.title; t != "" {
 		return t
 	}
 	abs, err := filepath.Abs(p.Dir)
@@ -176,8 +199,7 @@ func sizeText(n int) string {
 // reportBase finds the version to show changes against and diffs it with
 // the current outline. No base (no git, no earlier version) is not an
 // error; the page then says why it shows no changes.
-func reportBase(e *env, p *project.Project, in *report.Input) error {
-	since := *e.opt.extra["since"].(*string)
+func reportBase(p *project.Project, since string, in *report.Input) error {
 	var side *diffSide
 	if since != "" {
 		s, err := loadDiffSide(p.Dir, since)
