@@ -42,13 +42,51 @@ The reviewer is the packet's "reviewer:" line, else --by, else git's
 user.name. Any malformed packet, unknown item or contradiction with the
 recorded constraints is reported with its file and line, and then
 nothing is written.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["by"] = fs.String("by", "", "who made the decisions (default: each packet's reviewer, else git config user.name)")
-			o.extra["base"] = fs.String("base", "", "the outline ramify last wrote, for hand edits outside git (a file in the repository)")
-			addDateFlag(fs, o, "the date the decisions are recorded on")
-		},
-		run: runAbsorb,
+		bind: withOptions(func(fs *pflag.FlagSet, o *absorbOptions) {
+			fs.StringVar(&o.by, "by", "", "who made the decisions (default: each packet's reviewer, else git config user.name)")
+			fs.StringVar(&o.base, "base", "", "the outline ramify last wrote, for hand edits outside git (a file in the repository)")
+			addDateFlag(fs, &o.date, "the date the decisions are recorded on")
+		}, runAbsorb),
 	})
+}
+
+type absorbOptions struct {
+	by   string
+	base string // the outline ramify last wrote, for a hand edit outside git
+	date string
+}
+
+// absorbReport is absorb's --json report, once everything is written.
+type absorbReport struct {
+	Absorbed []absorbedJSON `json:"absorbed"`
+	Edit     *editJSON      `json:"edit"` // nil: no hand edit
+	// EditAgainst are the earlier records the hand edit goes against.
+	EditAgainst []recordJSON `json:"edit_against,omitempty"`
+	Pending     int          `json:"pending"`
+}
+
+// editJSON is a hand edit of the outline in absorb's report.
+type editJSON struct {
+	Base            string        `json:"base"`
+	Constraints     string        `json:"constraints"` // "" when nothing needed pinning
+	From            string        `json:"from"`
+	Moved           []moveJSON    `json:"moved"`
+	MovedCategories []catMoveJSON `json:"moved_categories"`
+	To              string        `json:"to"`
+}
+
+type moveJSON struct {
+	Item string `json:"item"`
+	From string `json:"from"`
+	To   string `json:"to"`
+	Pins int    `json:"pins"`
+}
+
+type catMoveJSON struct {
+	From  string   `json:"from"`
+	To    string   `json:"to"`
+	Items []string `json:"items"`
+	Shape bool     `json:"shape"`
 }
 
 // absorbWrite is one file absorb writes (or, with remove, deletes).
@@ -67,11 +105,11 @@ type absorbedJSON struct {
 	Constraint string `json:"constraint,omitempty"`
 }
 
-func runAbsorb(e *env, args []string) error {
+func runAbsorb(e *env, o *absorbOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("absorb takes no arguments (got %q)", args[0])
 	}
-	date, err := reviewDate(e)
+	date, err := reviewDate(o.date)
 	if err != nil {
 		return err
 	}
@@ -83,13 +121,13 @@ func runAbsorb(e *env, args []string) error {
 	if len(ds) > 0 {
 		return ds
 	}
-	names := &reviewerNames{dir: p.Dir, flag: *e.opt.extra["by"].(*string)}
+	names := &reviewerNames{dir: p.Dir, flag: o.by}
 	plan, err := planAnswers(p, open, names, date)
 	if err != nil {
 		return err
 	}
 	writes, added, absorbed := plan.writes, plan.added, plan.absorbed
-	edit, err := absorbHandEdit(e, p, names, date)
+	edit, err := absorbHandEdit(e, p, o.base, names, date)
 	if err != nil {
 		return err
 	}
@@ -137,8 +175,8 @@ func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) e
 }
 
 func reportAbsorb(e *env, p *project.Project, absorbed []absorbedJSON, edit *handEdit, pending int) {
-	e.report["absorbed"] = absorbed
-	e.report["pending"] = pending
+	rep := &absorbReport{Absorbed: absorbed, Pending: pending}
+	e.result = rep
 	for _, a := range absorbed {
 		switch {
 		case a.Constraint != "":
@@ -148,9 +186,7 @@ func reportAbsorb(e *env, p *project.Project, absorbed []absorbedJSON, edit *han
 		}
 	}
 	if edit != nil {
-		reportHandEdit(e, p, edit)
-	} else {
-		e.report["edit"] = nil
+		reportHandEdit(e, rep, p, edit)
 	}
 	if pending > 0 {
 		e.say("%s still pending in %s", plural(pending, "packet", "packets"), review.OpenDir)

@@ -36,10 +36,10 @@ type handEdit struct {
 
 // absorbHandEdit records a hand edit of the outline, or returns nil when
 // there is none.
-func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date string) (*handEdit, error) {
+func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewerNames, date string) (*handEdit, error) {
 	if p.Outline == nil || !p.Outline.Edited() {
-		if base := *e.opt.extra["base"].(*string); base != "" {
-			e.notice("--base %s is not needed: %s was not reshaped by hand", base, p.Settings.Taxonomy.File)
+		if baseFile != "" {
+			e.notice("--base %s is not needed: %s was not reshaped by hand", baseFile, p.Settings.Taxonomy.File)
 		}
 		return nil, nil
 	}
@@ -48,7 +48,7 @@ func absorbHandEdit(e *env, p *project.Project, names *reviewerNames, date strin
 	}
 	rel := p.Settings.Taxonomy.File
 	edited := p.Outline.Root
-	base, where, err := findBaseOutline(e, p)
+	base, where, err := findBaseOutline(p, baseFile)
 	if err != nil {
 		return nil, err
 	}
@@ -187,11 +187,11 @@ func pathOrTop(p string) string {
 
 // findBaseOutline finds the tree ramify last wrote: the one whose shape
 // has the structure hash in the edited outline's header. It comes from
-// --base, or from git.
-func findBaseOutline(e *env, p *project.Project) (*format.Category, string, error) {
+// --base (base), or from git.
+func findBaseOutline(p *project.Project, base string) (*format.Category, string, error) {
 	rel := p.Settings.Taxonomy.File
 	want := p.Outline.Structure
-	if base := *e.opt.extra["base"].(*string); base != "" {
+	if base != "" {
 		if msg := format.CheckRepoPath(base); msg != "" {
 			return nil, "", usagef("--base: %s", msg)
 		}
@@ -274,23 +274,11 @@ func gitUserName(dir string) string {
 	return strings.TrimSpace(string(out))
 }
 
-func reportHandEdit(e *env, p *project.Project, h *handEdit) {
+func reportHandEdit(e *env, rep *absorbReport, p *project.Project, h *handEdit) {
 	rel := p.Settings.Taxonomy.File
-	type moveJSON struct {
-		Item string `json:"item"`
-		From string `json:"from"`
-		To   string `json:"to"`
-		Pins int    `json:"pins"`
-	}
 	moves := []moveJSON{}
 	for _, m := range h.moves {
 		moves = append(moves, moveJSON{m.Item, m.From, m.To, len(m.Pins)})
-	}
-	type catMoveJSON struct {
-		From  string   `json:"from"`
-		To    string   `json:"to"`
-		Items []string `json:"items"`
-		Shape bool     `json:"shape"`
 	}
 	catMoves := []catMoveJSON{}
 	for _, m := range h.catMoves {
@@ -300,7 +288,7 @@ func reportHandEdit(e *env, p *project.Project, h *handEdit) {
 	if h.file != nil {
 		file = h.file.File
 	}
-	e.report["edit"] = map[string]any{"base": h.base, "from": h.from, "to": h.to, "moved": moves, "moved_categories": catMoves, "constraints": file}
+	rep.Edit = &editJSON{Base: h.base, From: h.from, To: h.to, Moved: moves, MovedCategories: catMoves, Constraints: file}
 	var parts []string
 	if len(catMoves) > 0 {
 		parts = append(parts, plural(len(catMoves), "category", "categories"))
@@ -334,11 +322,7 @@ func reportHandEdit(e *env, p *project.Project, h *handEdit) {
 			e.notice("  %s", describeRecord(r))
 		}
 		e.notice("the next solve honours both, which can reshape the tree around the edit; remove a record above if the edit replaces it")
-		var recs []map[string]any
-		for _, r := range h.overridden {
-			recs = append(recs, map[string]any{"kind": r.Kind, "file": r.Pos.File, "line": r.Pos.Line, "by": r.By, "note": r.Note})
-		}
-		e.report["edit_against"] = recs
+		rep.EditAgainst = recordsJSON(h.overridden)
 	}
 	e.say("rewrote %s with the edit and a fresh structure line", rel)
 }

@@ -77,24 +77,35 @@ DATE-HASH.outline, the hash taken over the packet's items and the
 structure it was drawn from.
 
 Each packet says how to answer it; then run "ramify absorb".`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["count"] = fs.Int("count", defaultDrawCount, "how many packets to write")
-			o.extra["size"] = fs.Int("size", 0, "items per packet (default review.size in ramify.toml)")
-			addDateFlag(fs, o, "the date the packets are drawn on")
-		},
-		run: runReviewDraw,
+		bind: withOptions(func(fs *pflag.FlagSet, o *drawOptions) {
+			fs.IntVar(&o.count, "count", defaultDrawCount, "how many packets to write")
+			fs.IntVar(&o.size, "size", 0, "items per packet (default review.size in ramify.toml)")
+			addDateFlag(fs, &o.date, "the date the packets are drawn on")
+		}, runReviewDraw),
 	})
 }
 
-func runReviewDraw(e *env, args []string) error {
+type drawOptions struct {
+	count, size int
+	date        string
+}
+
+// drawReport is review draw's --json report, once the packets are written.
+type drawReport struct {
+	Packets   []drawnJSON `json:"packets"`
+	Structure string      `json:"structure"`
+	Written   int         `json:"written"`
+}
+
+func runReviewDraw(e *env, o *drawOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("review draw takes no arguments (got %q)", args[0])
 	}
-	count := *e.opt.extra["count"].(*int)
+	count := o.count
 	if count < 1 || count > maxDrawCount {
 		return usagef("--count must be between 1 and %d, not %d", maxDrawCount, count)
 	}
-	date, err := reviewDate(e)
+	date, err := reviewDate(o.date)
 	if err != nil {
 		return err
 	}
@@ -102,7 +113,7 @@ func runReviewDraw(e *env, args []string) error {
 	if len(ds) > 0 {
 		return ds
 	}
-	size := *e.opt.extra["size"].(*int)
+	size := o.size
 	if size == 0 {
 		size = p.Settings.Review.Size
 	}
@@ -124,10 +135,39 @@ func runReviewDraw(e *env, args []string) error {
 	if ds = append(ds, dds...); len(ds) > 0 {
 		return ds
 	}
+	avoid, redraw, skipAudit := drawHistory(p, open, done, structure)
+	committee, err := reviewCommittee(e, p, structure)
+	if err != nil {
+		return err
+	}
+	tree, _ := review.CategoryTree(p.Outline.Root, p.Index, len(p.Items))
+	assessment := committee.Assess(tree)
+	drafts := review.Draw(tree, committee, assessment, review.DrawOptions{
+		Count:      count,
+		Size:       size,
+		AuditShare: p.Settings.Review.AuditShare,
+		Seed:       review.Seed(structure),
+		Avoid:      avoid,
+		Redraw:     redraw,
+		SkipAudit:  skipAudit,
+	})
+	// A packet is known by its hash (items and structure), whatever the
+	// date in its file name.
+	existing := map[string]string{}
+	for _, a := range append(append([]*review.Answer(nil), open...), done...) {
+		existing[review.PacketHash(a.Packet.From, a.Items())] = a.File
+	}
+	return writeDrafts(e, p, committee, drafts, existing, structure, date, count)
+}
+
+// drawHistory is what the packets already drawn and answered mean for a
+// new draw: the items not to put in uncertain packets again, the stale
+// audits to draw again first, and which audit sets were answered already.
+func drawHistory(p *project.Project, open, done []*review.Answer, structure string) (avoid []bool, redraw [][]int32, skipAudit func([]int32) bool) {
 	// Open packets of this version are part of the stream being drawn again
 	// (they come back and are left as they are); everything else that is
 	// waiting or was answered on this version is not asked again.
-	avoid := make([]bool, len(p.Items))
+	avoid = make([]bool, len(p.Items))
 	mark := func(a *review.Answer) {
 		for _, id := range a.Items() {
 			if i, ok := p.Index[id]; ok {
@@ -157,14 +197,13 @@ func runReviewDraw(e *env, args []string) error {
 		}
 	}
 	summary := review.SummarizeAudits(donePackets, p.Outline.Root)
-	var redraw [][]int32
 	for _, set := range summary.Stale {
 		if items, ok := itemIndices(p, set); ok {
 			redraw = append(redraw, items)
 		}
 	}
 	ids := p.ItemIDs()
-	skipAudit := func(items []int32) bool {
+	skipAudit = func(items []int32) bool {
 		names := make([]string, len(items))
 		for i, x := range items {
 			names[i] = ids[x]
@@ -172,28 +211,7 @@ func runReviewDraw(e *env, args []string) error {
 		slices.Sort(names)
 		return audited[strings.Join(names, "\x00")]
 	}
-	committee, err := reviewCommittee(e, p, structure)
-	if err != nil {
-		return err
-	}
-	tree, _ := review.CategoryTree(p.Outline.Root, p.Index, len(p.Items))
-	assessment := committee.Assess(tree)
-	drafts := review.Draw(tree, committee, assessment, review.DrawOptions{
-		Count:      count,
-		Size:       size,
-		AuditShare: p.Settings.Review.AuditShare,
-		Seed:       review.Seed(structure),
-		Avoid:      avoid,
-		Redraw:     redraw,
-		SkipAudit:  skipAudit,
-	})
-	// A packet is known by its hash (items and structure), whatever the
-	// date in its file name.
-	existing := map[string]string{}
-	for _, a := range append(append([]*review.Answer(nil), open...), done...) {
-		existing[review.PacketHash(a.Packet.From, a.Items())] = a.File
-	}
-	return writeDrafts(e, p, committee, drafts, existing, structure, date, count)
+	return avoid, redraw, skipAudit
 }
 
 // itemIndices maps item ids to indices, sorted; false when an item is no
@@ -276,9 +294,7 @@ func writeDrafts(e *env, p *project.Project, committee *review.Committee, drafts
 	if report == nil {
 		report = []drawnJSON{}
 	}
-	e.report["structure"] = structure
-	e.report["packets"] = report
-	e.report["written"] = wrote
+	e.result = &drawReport{Structure: structure, Packets: report, Written: wrote}
 	if uncertain := countReason(drafts, format.ReasonUncertain); uncertain < asked-review.AuditCount(asked, p.Settings.Review.AuditShare) {
 		e.say("the committee agrees with the rest of the tree: %s drawn", plural(uncertain, "uncertain packet", "uncertain packets"))
 	}

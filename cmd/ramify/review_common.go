@@ -21,13 +21,13 @@ import (
 const reviewDateEnv = "RAMIFY_DATE"
 
 // addDateFlag adds --date to a command that stamps files with a date.
-func addDateFlag(fs *pflag.FlagSet, o *options, what string) {
-	o.extra["date"] = fs.String("date", "", what+" (YYYY-MM-DD; default today, UTC, or $"+reviewDateEnv+")")
+func addDateFlag(fs *pflag.FlagSet, date *string, what string) {
+	fs.StringVar(date, "date", "", what+" (YYYY-MM-DD; default today, UTC, or $"+reviewDateEnv+")")
 }
 
-// reviewDate is the --date flag, else $RAMIFY_DATE, else today in UTC.
-func reviewDate(e *env) (string, error) {
-	d := *e.opt.extra["date"].(*string)
+// reviewDate is the --date flag's value d, else $RAMIFY_DATE, else today
+// in UTC.
+func reviewDate(d string) (string, error) {
 	source := "--date"
 	if d == "" {
 		d = os.Getenv(reviewDateEnv)

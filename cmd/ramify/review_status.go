@@ -47,11 +47,41 @@ reviews/done/ (the audit log) say about the current taxonomy:
              records do not fix that category firmly: a good place for a
              reviewer to look. It is not the probability that the
              category is right.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["top"] = fs.Int("top", defaultStatusTop, "how many of the least supported categories to list (0: none, and no committee is solved)")
-		},
-		run: runReviewStatus,
+		bind: withOptions(func(fs *pflag.FlagSet, o *statusOptions) {
+			fs.IntVar(&o.top, "top", defaultStatusTop, "how many of the least supported categories to list (0: none, and no committee is solved)")
+		}, runReviewStatus),
 	})
+}
+
+type statusOptions struct {
+	top int // how many of the least supported categories to list
+}
+
+// statusReport is review status's --json report.
+type statusReport struct {
+	Audits *auditsJSON `json:"audits"` // nil: no taxonomy yet
+	// LeastSupported is nil when --top 0 asked for no committee or the
+	// committee could not be solved; a pointer, so that an empty list
+	// still shows.
+	LeastSupported *[]supportJSON `json:"least_supported,omitempty"`
+	Open           []openJSON     `json:"open"`
+	Structure      string         `json:"structure"`
+}
+
+// auditsJSON is the audit tally of the current version.
+type auditsJSON struct {
+	Accepted        int       `json:"accepted"`
+	Answered        int       `json:"answered"`
+	Carried         int       `json:"carried"`
+	Interval        []float64 `json:"interval"`
+	Level           float64   `json:"level"`
+	MoreCleanNeeded int       `json:"more_clean_needed"`
+	Older           int       `json:"older"`
+	RejectRate      float64   `json:"reject_rate"`
+	Rejected        int       `json:"rejected"`
+	Structure       string    `json:"structure"`
+	Uncertain       int       `json:"uncertain"`
+	UncertainFix    int       `json:"uncertain_fix"`
 }
 
 type openJSON struct {
@@ -71,11 +101,11 @@ type supportJSON struct {
 	Support  float64  `json:"support"`
 }
 
-func runReviewStatus(e *env, args []string) error {
+func runReviewStatus(e *env, o *statusOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("review status takes no arguments (got %q)", args[0])
 	}
-	top := *e.opt.extra["top"].(*int)
+	top := o.top
 	if top < 0 {
 		return usagef("--top must be 0 or more, not %d", top)
 	}
@@ -92,21 +122,22 @@ func runReviewStatus(e *env, args []string) error {
 	if p.Outline != nil {
 		structure = format.StructureHash(p.Outline.Root)
 	}
-	e.report["structure"] = structure
-	reportOpen(e, open, structure)
-	reportAudits(e, p, done, structure)
+	rep := &statusReport{Structure: structure}
+	e.result = rep
+	rep.Open = reportOpen(e, open, structure)
+	rep.Audits = reportAudits(e, p, done, structure)
 	if top == 0 {
 		return nil
 	}
 	if _, err := currentTaxonomy(p, "ask for support"); err != nil {
 		e.notice("support: %v", err)
-		e.report["least_supported"] = []supportJSON{}
+		rep.LeastSupported = &[]supportJSON{}
 		return nil
 	}
-	return reportSupport(e, p, structure, top)
+	return reportSupport(e, rep, p, structure, top)
 }
 
-func reportOpen(e *env, open []*review.Answer, structure string) {
+func reportOpen(e *env, open []*review.Answer, structure string) []openJSON {
 	list := []openJSON{}
 	pending := 0
 	for _, a := range open {
@@ -116,7 +147,6 @@ func reportOpen(e *env, open []*review.Answer, structure string) {
 			pending++
 		}
 	}
-	e.report["open"] = list
 	e.say("open packets: %d (%d waiting for a verdict, %d answered and not yet absorbed)", len(open), pending, len(open)-pending)
 	for _, o := range list {
 		note := ""
@@ -125,35 +155,35 @@ func reportOpen(e *env, open []*review.Answer, structure string) {
 		}
 		e.say("  %s  %-9s %-7s %s%s", o.File, o.Reason, o.Verdict, o.Drawn, note)
 	}
+	return list
 }
 
-func reportAudits(e *env, p *project.Project, done []*review.Answer, structure string) {
+func reportAudits(e *env, p *project.Project, done []*review.Answer, structure string) *auditsJSON {
 	packets := make([]*format.Packet, len(done))
 	for i, a := range done {
 		packets[i] = a.Packet
 	}
 	if structure == "" {
 		e.say("audits: there is no taxonomy yet; run `ramify solve`")
-		e.report["audits"] = nil
-		return
+		return nil
 	}
 	s := review.SummarizeAudits(packets, p.Outline.Root)
-	e.report["audits"] = map[string]any{
-		"structure":     s.Structure,
-		"answered":      s.Audits,
-		"rejected":      s.Rejected,
-		"accepted":      s.Audits - s.Rejected,
-		"reject_rate":   roundSig(s.Rate, 6),
-		"interval":      []float64{roundSig(s.Lo, 6), roundSig(s.Hi, 6)},
-		"level":         review.AuditLevel,
-		"older":         s.Older,
-		"carried":       s.Carried,
-		"uncertain":     s.Uncertain,
-		"uncertain_fix": s.UncertainFixed,
-	}
 	r := p.Settings.Release
 	more := s.MoreCleanAudits(r.MaxRejectRate, r.MinAudits)
-	e.report["audits"].(map[string]any)["more_clean_needed"] = more
+	tally := &auditsJSON{
+		Structure:       s.Structure,
+		Answered:        s.Audits,
+		Rejected:        s.Rejected,
+		Accepted:        s.Audits - s.Rejected,
+		RejectRate:      roundSig(s.Rate, 6),
+		Interval:        []float64{roundSig(s.Lo, 6), roundSig(s.Hi, 6)},
+		Level:           review.AuditLevel,
+		Older:           s.Older,
+		Carried:         s.Carried,
+		Uncertain:       s.Uncertain,
+		UncertainFix:    s.UncertainFixed,
+		MoreCleanNeeded: more,
+	}
 	if s.Audits == 0 {
 		e.say("audits on this version (%s): none answered yet; draw some with `ramify review draw`", structure)
 	} else {
@@ -177,9 +207,10 @@ func reportAudits(e *env, p *project.Project, done []*review.Answer, structure s
 	if s.Uncertain > 0 {
 		e.say("uncertain packets answered: %d (%d fixed); never part of the estimate", s.Uncertain, s.UncertainFixed)
 	}
+	return tally
 }
 
-func reportSupport(e *env, p *project.Project, structure string, top int) error {
+func reportSupport(e *env, rep *statusReport, p *project.Project, structure string, top int) error {
 	committee, err := reviewCommittee(e, p, structure)
 	if err != nil {
 		return err
@@ -216,6 +247,6 @@ func reportSupport(e *env, p *project.Project, structure string, top int) error 
 		list = append(list, supportJSON{r.path, r.items, roundSig(r.support, 4)})
 		e.say("  %4.0f%%  %s  (%s)", 100*r.support, strings.Join(r.path, " / "), plural(r.items, "item", "items"))
 	}
-	e.report["least_supported"] = list
+	rep.LeastSupported = &list
 	return nil
 }
