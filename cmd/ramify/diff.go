@@ -2,8 +2,6 @@ package main
 
 import (
 	"bufio"
-	"bytes"
-	"encoding/json"
 	"errors"
 	"io/fs"
 	"os"
@@ -56,12 +54,26 @@ line-level view of the two files under the report.
 
 A diff is a report, not a check: the exit status is 0 whether or not the
 versions differ, and 2 when a version cannot be read.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["format"] = fs.String("format", "text", "report `form`: text, markdown or json")
-			o.extra["lines"] = fs.Bool("lines", false, "add a line-level view of the two outline files")
-		},
-		run: runDiff,
+		bind: withOptions(func(fs *pflag.FlagSet, o *diffOptions) {
+			fs.StringVar(&o.format, "format", "text", "report `form`: text, markdown or json")
+			fs.BoolVar(&o.lines, "lines", false, "add a line-level view of the two outline files")
+		}, runDiff),
 	})
+}
+
+type diffOptions struct {
+	format string
+	lines  bool
+}
+
+// diffJSON is diff's --json report: the diff's own fields (added,
+// removed, moved, renamed, split, merged, created, dissolved, metrics)
+// at the top, next to the names of the two versions.
+type diffJSON struct {
+	*diff.Report
+	Lines *string `json:"lines,omitempty"` // with --lines
+	New   string  `json:"new"`
+	Old   string  `json:"old"`
 }
 
 // diffFormats are the forms of the report.
@@ -74,11 +86,11 @@ type diffSide struct {
 	data []byte
 }
 
-func runDiff(e *env, args []string) error {
+func runDiff(e *env, o *diffOptions, args []string) error {
 	if len(args) == 0 || len(args) > 2 {
 		return usagef("diff takes one or two versions (OLD [NEW]), got %d arguments", len(args))
 	}
-	form, err := diffFormat(e)
+	form, err := diffFormat(e, o.format)
 	if err != nil {
 		return err
 	}
@@ -101,17 +113,13 @@ func runDiff(e *env, args []string) error {
 		return ds
 	}
 	rep := diff.Compare(oldTree, newTree)
-	lines, withLines := "", *e.opt.extra["lines"].(*bool)
+	lines, withLines := "", o.lines
+	result := &diffJSON{Report: rep, Old: old.name, New: new.name}
 	if withLines {
 		lines = diff.LineDiff(lineViewText(old.data), lineViewText(new.data))
+		result.Lines = &lines
 	}
-	if err := fillDiffReport(e, rep); err != nil {
-		return err
-	}
-	e.report["old"], e.report["new"] = old.name, new.name
-	if withLines {
-		e.report["lines"] = lines
-	}
+	e.result = result
 	if e.opt.json || e.opt.quiet {
 		return nil
 	}
@@ -134,8 +142,7 @@ func runDiff(e *env, args []string) error {
 }
 
 // diffFormat is the form chosen by --format and --json.
-func diffFormat(e *env) (string, error) {
-	form := *e.opt.extra["format"].(*string)
+func diffFormat(e *env, form string) (string, error) {
 	if !contains(diffFormats, form) {
 		return "", usagef("--format must be text, markdown or json, not %q", form)
 	}
@@ -154,27 +161,6 @@ func diffFormat(e *env) (string, error) {
 // contains reports whether list holds s (other commands use it too).
 func contains(list []string, s string) bool {
 	return slices.Contains(list, s)
-}
-
-// fillDiffReport puts the report's fields at the top of the --json
-// report, so that `diff --json` prints one document holding the diff
-// (added, removed, moved, renamed, split, merged, created, dissolved,
-// metrics) next to "ok" and "command".
-func fillDiffReport(e *env, rep *diff.Report) error {
-	var b bytes.Buffer
-	enc := json.NewEncoder(&b)
-	enc.SetEscapeHTML(false) // "&" is common in category names
-	if err := enc.Encode(rep); err != nil {
-		return err
-	}
-	var fields map[string]json.RawMessage
-	if err := json.Unmarshal(b.Bytes(), &fields); err != nil {
-		return err
-	}
-	for k, v := range fields {
-		e.report[k] = v
-	}
-	return nil
 }
 
 // loadDiffSide reads one version named on the command line: a file, a

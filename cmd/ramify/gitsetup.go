@@ -64,7 +64,9 @@ func runGitSetup(e *env, args []string) error {
 	if err != nil {
 		return err
 	}
-	e.report["changed"] = nonNil(changes)
+	e.result = &struct {
+		Changed []string `json:"changed"`
+	}{nonNil(changes)}
 	if len(changes) == 0 {
 		e.say("git is already set up for ramify: nothing changed")
 		return nil
