@@ -9,6 +9,7 @@ package explain
 import (
 	"fmt"
 	"math"
+	"slices"
 	"sort"
 	"strings"
 
@@ -107,7 +108,7 @@ func ExplainItem(in Input, id string) (*Item, error) {
 			if err != nil {
 				return nil, err
 			}
-			moved := !samePath(format.Paths(alt)[id], paths[id])
+			moved := !slices.Equal(format.Paths(alt)[id], paths[id])
 			x.Decides = &moved
 		}
 		out.Records = append(out.Records, x)
@@ -179,18 +180,6 @@ func sourceName(s format.Source) string {
 		return s.Kind + " (" + s.File + ")"
 	}
 	return s.Kind
-}
-
-func samePath(a, b []string) bool {
-	if len(a) != len(b) {
-		return false
-	}
-	for i := range a {
-		if a[i] != b[i] {
-			return false
-		}
-	}
-	return true
 }
 
 func nonNil(s []string) []string {

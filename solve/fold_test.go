@@ -191,7 +191,7 @@ func TestFoldLimits(t *testing.T) {
 			// constraint or the fan-out limit.
 			par := parents[v]
 			tooWide := p.maxChildren > 0 && len(out.Kids[par])-1+kids > p.maxChildren
-			cp := copyKids(out)
+			cp := copyTree(out)
 			var merged []int32
 			for _, k := range cp.Kids[par] {
 				if k == int32(v) {

@@ -16,16 +16,6 @@ func twoTrianglesOpt() (*Tree, int32, int32) {
 	return t, p, q
 }
 
-func copyKids(t *Tree) *Tree {
-	out := NewTree(t.N)
-	out.Kids = make([][]int32, len(t.Kids))
-	for i, k := range t.Kids {
-		out.Kids[i] = append([]int32(nil), k...)
-	}
-	out.Root = t.Root
-	return out
-}
-
 // rotate applies a rotation in place as rotationPass does.
 func rotate(t *Tree, v, u, keep, promote int32) {
 	y := t.Kids[v][0]
@@ -56,7 +46,7 @@ func TestRotationTwoTriangles(t *testing.T) {
 		if d := r.loss - r.gain; d != want[i].delta || r.promote != want[i].promote {
 			t.Errorf("rotation %d: Δ = %g promoting %d, want %g promoting %d", i, d, r.promote, want[i].delta, want[i].promote)
 		}
-		cp := copyKids(tr)
+		cp := copyTree(tr)
 		rotate(cp, cp.Root, p, r.keep, r.promote)
 		if c := Cost(g, cp); c != want[i].cost {
 			t.Errorf("rotation %d: cost after %g, want %g", i, c, want[i].cost)
@@ -85,7 +75,7 @@ func TestRotationDeltasAreExact(t *testing.T) {
 					continue
 				}
 				for _, rot := range rotationsAt(tr, lay, &b, v, u) {
-					cp := copyKids(tr)
+					cp := copyTree(tr)
 					rotate(cp, v, u, rot.keep, rot.promote)
 					got := Cost(g, cp) - base
 					if d := rot.loss - rot.gain; math.Abs(got-d) > 1e-9*base {
