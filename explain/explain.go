@@ -94,7 +94,7 @@ func ExplainItem(in Input, id string) (*Item, error) {
 	p := in.Project
 	idx, ok := p.Index[id]
 	if !ok {
-		return nil, fmt.Errorf("no item %q%s", id, suggest(p, id))
+		return nil, fmt.Errorf("no item %q%s", id, p.SuggestItem(id))
 	}
 	root := p.Outline.Root
 	paths := format.Paths(root)
@@ -190,20 +190,6 @@ func nonNil(s []string) []string {
 }
 
 func round4(x float64) float64 { return math.Round(x*1e4) / 1e4 }
-
-func suggest(p *project.Project, id string) string {
-	if len(p.Items) > 20000 {
-		return ""
-	}
-	ids := make([]string, len(p.Items))
-	for i, it := range p.Items {
-		ids[i] = it.ID
-	}
-	if s := format.Suggest(id, ids); s != "" {
-		return fmt.Sprintf("; did you mean %q?", s)
-	}
-	return ""
-}
 
 // PathText joins a path as the text report shows it.
 func PathText(path []string) string { return binding.PathText(path) }

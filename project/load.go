@@ -486,7 +486,7 @@ func (p *Project) checkRefs(cf *format.ConstraintFile) format.Diags {
 					ds.Add(r.Pos, "")
 					continue
 				}
-				ds.Add(r.Pos, "unknown item %q%s", r.ID, p.suggestItem(r.ID))
+				ds.Add(r.Pos, "unknown item %q%s", r.ID, p.SuggestItem(r.ID))
 			}
 		}
 	}
@@ -502,17 +502,14 @@ func (p *Project) checkRefs(cf *format.ConstraintFile) format.Diags {
 	return ds
 }
 
-// suggestItem offers a did-you-mean for a mistyped item id, only for small
-// repositories where scanning every id is cheap.
-func (p *Project) suggestItem(id string) string {
+// SuggestItem offers a did-you-mean for a mistyped item id ("; did you
+// mean "x"?", or ""), only for small repositories where scanning every id
+// is cheap.
+func (p *Project) SuggestItem(id string) string {
 	if len(p.Items) > 20000 {
 		return ""
 	}
-	ids := make([]string, len(p.Items))
-	for i, it := range p.Items {
-		ids[i] = it.ID
-	}
-	if s := format.Suggest(id, ids); s != "" {
+	if s := format.Suggest(id, p.ItemIDs()); s != "" {
 		return "; did you mean " + `"` + s + `"?`
 	}
 	return ""
@@ -566,7 +563,7 @@ func (p *Project) OutlineMembership() format.Diags {
 					ds.Add(at, "")
 					continue
 				}
-				ds.Add(at, "item %q is not in the items files%s", id, p.suggestItem(id))
+				ds.Add(at, "item %q is not in the items files%s", id, p.SuggestItem(id))
 			}
 		}
 		return true
