@@ -13,22 +13,12 @@ import (
 // carry the prefix dg so they cannot collide with other test files of the
 // package.
 
-// dgGraph builds a CSR from edges, failing the test on error.
-func dgGraph(tb testing.TB, n int, edges []graph.Edge) *graph.CSR {
-	tb.Helper()
-	g, err := graph.FromEdges(n, edges)
-	if err != nil {
-		tb.Fatal(err)
-	}
-	return g
-}
-
 func dgPath(tb testing.TB, n int) *graph.CSR {
 	var e []graph.Edge
 	for i := 0; i+1 < n; i++ {
 		e = append(e, graph.Edge{A: int32(i), B: int32(i + 1), W: 1})
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 func dgCycle(tb testing.TB, n int) *graph.CSR {
@@ -36,7 +26,7 @@ func dgCycle(tb testing.TB, n int) *graph.CSR {
 	for i := 0; i+1 < n; i++ {
 		e = append(e, graph.Edge{A: int32(i), B: int32(i + 1), W: 1})
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 func dgClique(tb testing.TB, n int) *graph.CSR {
@@ -46,7 +36,7 @@ func dgClique(tb testing.TB, n int) *graph.CSR {
 			e = append(e, graph.Edge{A: int32(i), B: int32(j), W: 1})
 		}
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 // dgStar is K_{1,n-1} with centre 0.
@@ -55,14 +45,14 @@ func dgStar(tb testing.TB, n int) *graph.CSR {
 	for i := 1; i < n; i++ {
 		e = append(e, graph.Edge{A: 0, B: int32(i), W: 1})
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 // dgTwoTriangles is the triangles {0,1,2}, {3,4,5} with the bridge 2-3,
 // unit weights: a small graph of our own whose optimum (22, by the exact
 // DP of export_test.go) is known.
 func dgTwoTriangles(tb testing.TB) *graph.CSR {
-	return dgGraph(tb, 6, []graph.Edge{
+	return MustGraph(tb, 6, []graph.Edge{
 		{A: 0, B: 1, W: 1}, {A: 0, B: 2, W: 1}, {A: 1, B: 2, W: 1},
 		{A: 3, B: 4, W: 1}, {A: 3, B: 5, W: 1}, {A: 4, B: 5, W: 1},
 		{A: 2, B: 3, W: 1},
@@ -72,7 +62,7 @@ func dgTwoTriangles(tb testing.TB) *graph.CSR {
 // dgFourNodes is a 4-node example of our own, w01=3, w23=2, w12=1, w03=0.5
 // (optimum 16 by the exact DP).
 func dgFourNodes(tb testing.TB) *graph.CSR {
-	return dgGraph(tb, 4, []graph.Edge{
+	return MustGraph(tb, 4, []graph.Edge{
 		{A: 0, B: 1, W: 3}, {A: 2, B: 3, W: 2}, {A: 1, B: 2, W: 1}, {A: 0, B: 3, W: 0.5},
 	})
 }
@@ -89,7 +79,7 @@ func dgRandomGraph(tb testing.TB, seed uint64, n int, p float64) *graph.CSR {
 			}
 		}
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 // dgNested parses a nested-parenthesis tree over leaves 0..n-1, such as
@@ -185,8 +175,8 @@ func TestCostHandBuiltTrees(t *testing.T) {
 		{"four nodes opt", dgFourNodes(t), dgNested(t, 4, "((0,1),(2,3))"), 16},
 		{"clique5 star tree", dgClique(t, 5), dgNested(t, 5, "(0,1,2,3,4)"), 50}, // 5·C(5,2), by definition
 		{"clique6 caterpillar", dgClique(t, 6), dgCaterpillar(6), 70},            // (n³-n)/3
-		{"single leaf", dgGraph(t, 1, nil), NewTree(1), 0},
-		{"no edges", dgGraph(t, 3, nil), dgCaterpillar(3), 0},
+		{"single leaf", MustGraph(t, 1, nil), NewTree(1), 0},
+		{"no edges", MustGraph(t, 3, nil), dgCaterpillar(3), 0},
 	}
 	for _, c := range cases {
 		if got := Cost(c.g, c.t); got != c.want {
@@ -289,7 +279,7 @@ func TestCostMalformedGivesNaN(t *testing.T) {
 		t.Errorf("corrupt graph: cost %v, want NaN", c)
 	}
 	// An isolated vertex outside the tree is harmless.
-	g4 := dgGraph(t, 4, []graph.Edge{{A: 0, B: 1, W: 2}})
+	g4 := MustGraph(t, 4, []graph.Edge{{A: 0, B: 1, W: 2}})
 	tr := NewTree(3)
 	tr.Root = tr.Add(0, 1, 2)
 	if c := Cost(g4, tr); c != 6 {

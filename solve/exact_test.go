@@ -245,7 +245,7 @@ func TestOptimalCostDisconnected(t *testing.T) {
 		{A: 1, B: 4, W: 1}, {A: 4, B: 7, W: 3}, {A: 7, B: 1, W: 1}, {A: 1, B: 8, W: 2}, // {1,4,7,8}
 		{A: 2, B: 5, W: 4}, // {2,5}
 	}
-	g := dgGraph(t, 9, edges)
+	g := MustGraph(t, 9, edges)
 	opt, tr := OptimalCost(g)
 	cross, err := CrossWeights(g, tr)
 	if err != nil {
@@ -267,7 +267,7 @@ func TestOptimalCostDisconnected(t *testing.T) {
 				sub = append(sub, graph.Edge{A: a, B: idx[e.B], W: e.W})
 			}
 		}
-		c, _ := OptimalCost(dgGraph(t, len(p), sub))
+		c, _ := OptimalCost(MustGraph(t, len(p), sub))
 		sum += c
 	}
 	if opt != sum {
@@ -279,10 +279,10 @@ func TestOptimalCostLimits(t *testing.T) {
 	if c, tr := OptimalCost(nil); !math.IsNaN(c) || tr != nil {
 		t.Errorf("nil graph: %v %v", c, tr)
 	}
-	if c, tr := OptimalCost(dgGraph(t, MaxExactItems+1, nil)); !math.IsNaN(c) || tr != nil {
+	if c, tr := OptimalCost(MustGraph(t, MaxExactItems+1, nil)); !math.IsNaN(c) || tr != nil {
 		t.Errorf("too large: %v %v", c, tr)
 	}
-	if c, tr := OptimalCost(dgGraph(t, 1, nil)); c != 0 || tr == nil || tr.Root != 0 {
+	if c, tr := OptimalCost(MustGraph(t, 1, nil)); c != 0 || tr == nil || tr.Root != 0 {
 		t.Errorf("one vertex: %v %v", c, tr)
 	}
 }

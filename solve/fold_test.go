@@ -84,7 +84,7 @@ func blockGraph(t testing.TB, groups, k int, in, out float64) *graph.CSR {
 			es = append(es, graph.Edge{A: int32(i), B: int32(j), W: w})
 		}
 	}
-	return dgGraph(t, n, es)
+	return MustGraph(t, n, es)
 }
 
 func TestFoldTightnessRule(t *testing.T) {
@@ -141,7 +141,7 @@ func TestFoldLimits(t *testing.T) {
 	r := rand.New(rand.NewPCG(8, 1))
 	for trial := 0; trial < 60; trial++ {
 		n := 20 + r.IntN(300)
-		g := randomGraph(t, uint64(500+trial), n, 5*n)
+		g := RandomGraph(t, uint64(500+trial), 11, n, 5*n)
 		hidden := RandomBinaryTree(r, n)
 		var c *Constraints
 		if trial%2 == 1 {

@@ -64,7 +64,7 @@ func TestRotationDeltasAreExact(t *testing.T) {
 	r := rand.New(rand.NewPCG(2, 9))
 	for trial := 0; trial < 40; trial++ {
 		n := 5 + r.IntN(30)
-		g := randomGraph(t, uint64(trial), n, 3*n)
+		g := RandomGraph(t, uint64(trial), 11, n, 3*n)
 		tr := RandomBinaryTree(r, n)
 		base := Cost(g, tr)
 		lay := newLayout(tr)
@@ -126,7 +126,7 @@ func TestImproveKeepsConstraintsAndNeverWorsens(t *testing.T) {
 	r := rand.New(rand.NewPCG(4, 4))
 	for trial := 0; trial < 30; trial++ {
 		n := 8 + r.IntN(60)
-		g := randomGraph(t, uint64(100+trial), n, 4*n)
+		g := RandomGraph(t, uint64(100+trial), 11, n, 4*n)
 		tr := RandomBinaryTree(r, n)
 		c := hiddenConstraints(r, tr, r.IntN(2*n), r.IntN(4))
 		before := Cost(g, tr)

@@ -281,7 +281,7 @@ func dgIrisGraph(tb testing.TB, x [][]float64) *graph.CSR {
 			e = append(e, graph.Edge{A: int32(i), B: int32(j), W: math.Exp(-float64(d*d) / float64(2*sigma*sigma))})
 		}
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 func dgIrisRef(tb testing.TB) (sigma, sumW, cost float64) {
@@ -375,7 +375,7 @@ func dgComplementGraph(tb testing.TB, n int, dist func(i, j int) float64, c floa
 			e = append(e, graph.Edge{A: int32(i), B: int32(j), W: c - dist(i, j)})
 		}
 	}
-	return dgGraph(tb, n, e)
+	return MustGraph(tb, n, e)
 }
 
 func TestAverageLinkageGraphEqualsDense(t *testing.T) {
@@ -496,7 +496,7 @@ func TestAverageLinkageGraphComponents(t *testing.T) {
 	// Components {1,4}, {0,2,5}, {3} (isolated), {6,7}: by hand, 6-7 (3),
 	// 0-2 (2), 1-4 (1), {0,2}-5 ((0.5+1)/2), then the components joined in
 	// order of smallest leaf: ((({0,2,5},{1,4}),{3}),{6,7}).
-	g := dgGraph(t, 8, []graph.Edge{
+	g := MustGraph(t, 8, []graph.Edge{
 		{A: 1, B: 4, W: 1}, {A: 0, B: 2, W: 2}, {A: 2, B: 5, W: 1}, {A: 0, B: 5, W: 0.5}, {A: 6, B: 7, W: 3},
 	})
 	tr := AverageLinkageGraph(g)
@@ -520,7 +520,7 @@ func TestAverageLinkageGraphComponents(t *testing.T) {
 	if AverageLinkageGraph(asym) != nil {
 		t.Errorf("asymmetric graph gives a tree")
 	}
-	if tr := AverageLinkageGraph(dgGraph(t, 1, nil)); tr == nil || tr.NumNodes() != 1 {
+	if tr := AverageLinkageGraph(MustGraph(t, 1, nil)); tr == nil || tr.NumNodes() != 1 {
 		t.Errorf("one vertex: %v", tr)
 	}
 }

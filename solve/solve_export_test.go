@@ -1,6 +1,11 @@
 package solve
 
-import "github.com/ramify-tax/ramify/solve/graph"
+import (
+	"math/rand/v2"
+	"testing"
+
+	"github.com/ramify-tax/ramify/solve/graph"
+)
 
 // Hooks for the external tests (package solve_test), which need the
 // planted generator and so cannot live inside package solve.
@@ -10,4 +15,31 @@ import "github.com/ramify-tax/ramify/solve/graph"
 // Fiedler sweep.
 func SolveSpectralOnlyForTest(g *graph.CSR, c *Constraints, opt Options) (*Result, error) {
 	return solveWith(g, c, opt, constructParams{leafDP: 1, superDP: 1})
+}
+
+// MustGraph builds a CSR from edges, failing the test on error.
+func MustGraph(tb testing.TB, n int, edges []graph.Edge) *graph.CSR {
+	tb.Helper()
+	g, err := graph.FromEdges(n, edges)
+	if err != nil {
+		tb.Fatal(err)
+	}
+	return g
+}
+
+// RandomGraph returns a connected graph on n vertices, drawn from
+// PCG(seed, stream): a random spanning path plus extra random edges,
+// weights in (0.1, 2.1).
+func RandomGraph(tb testing.TB, seed, stream uint64, n, extra int) *graph.CSR {
+	r := rand.New(rand.NewPCG(seed, stream))
+	perm := r.Perm(n)
+	var es []graph.Edge
+	for i := 0; i+1 < n; i++ {
+		es = append(es, graph.Edge{A: int32(perm[i]), B: int32(perm[i+1]), W: 0.1 + 2*r.Float64()})
+	}
+	for k := 0; k < extra; k++ {
+		a, b := r.IntN(n), r.IntN(n)
+		es = append(es, graph.Edge{A: int32(a), B: int32(b), W: 0.1 + 2*r.Float64()})
+	}
+	return MustGraph(tb, n, es)
 }

@@ -101,7 +101,7 @@ func induced(t testing.TB, g *graph.CSR, n int) *graph.CSR {
 			es = append(es, e)
 		}
 	}
-	return fromEdges(t, n, es)
+	return solve.MustGraph(t, n, es)
 }
 
 func keptShare(oldTax, newTax *solve.Tree, nOld int) float64 {

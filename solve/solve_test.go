@@ -14,15 +14,6 @@ import (
 	"github.com/ramify-tax/ramify/solve/planted"
 )
 
-func fromEdges(t testing.TB, n int, es []graph.Edge) *graph.CSR {
-	t.Helper()
-	g, err := graph.FromEdges(n, es)
-	if err != nil {
-		t.Fatal(err)
-	}
-	return g
-}
-
 // randomWeighted is G(n, p) with uniform (0, 1] weights.
 func randomWeighted(t testing.TB, seed uint64, n int, p float64) *graph.CSR {
 	r := rand.New(rand.NewPCG(seed, 77))
@@ -34,22 +25,7 @@ func randomWeighted(t testing.TB, seed uint64, n int, p float64) *graph.CSR {
 			}
 		}
 	}
-	return fromEdges(t, n, es)
-}
-
-// sparseRandom is a connected sparse graph: a random spanning path plus
-// about deg·n/2 random edges, weights in (0.1, 2.1).
-func sparseRandom(t testing.TB, seed uint64, n, deg int) *graph.CSR {
-	r := rand.New(rand.NewPCG(seed, 78))
-	perm := r.Perm(n)
-	var es []graph.Edge
-	for i := 0; i+1 < n; i++ {
-		es = append(es, graph.Edge{A: int32(perm[i]), B: int32(perm[i+1]), W: 0.1 + 2*r.Float64()})
-	}
-	for k := 0; k < deg*n/2; k++ {
-		es = append(es, graph.Edge{A: int32(r.IntN(n)), B: int32(r.IntN(n)), W: 0.1 + 2*r.Float64()})
-	}
-	return fromEdges(t, n, es)
+	return solve.MustGraph(t, n, es)
 }
 
 func mustSolve(t testing.TB, g *graph.CSR, c *solve.Constraints, opt solve.Options) *solve.Result {
@@ -101,7 +77,7 @@ func TestSolveSplitsComponentsFirst(t *testing.T) {
 		}
 		at += s
 	}
-	g := fromEdges(t, n, es)
+	g := solve.MustGraph(t, n, es)
 	res := mustSolve(t, g, nil, solve.Options{MinSize: 3, MaxChildren: 12})
 	for name, tr := range map[string]*solve.Tree{"binary": res.Binary, "taxonomy": res.Taxonomy} {
 		for v, ls := range leafSets(tr) {
@@ -131,7 +107,7 @@ func TestSolveCliqueCost(t *testing.T) {
 				es = append(es, graph.Edge{A: int32(i), B: int32(j), W: 1})
 			}
 		}
-		g := fromEdges(t, n, es)
+		g := solve.MustGraph(t, n, es)
 		res := mustSolve(t, g, nil, solve.Options{})
 		want := float64(n*n*n-n) / 3
 		if c := solve.Cost(g, res.Binary); math.Abs(c-want) > 1e-9*want {
@@ -153,7 +129,7 @@ func TestSolvePathCosts(t *testing.T) {
 	// caterpillar's n(n+1)/2 − 1, which any sensible tree must beat.
 	opt := []float64{2, 5, 8, 12, 16, 20, 24, 29, 34, 39, 44, 49, 54, 59, 64}
 	for n := 2; n <= 16; n++ {
-		g := fromEdges(t, n, pathEdges(n))
+		g := solve.MustGraph(t, n, pathEdges(n))
 		for name, run := range map[string]func(*graph.CSR, *solve.Constraints, solve.Options) (*solve.Result, error){
 			"default": solve.Solve, "spectral only": solve.SolveSpectralOnlyForTest,
 		} {
@@ -167,7 +143,7 @@ func TestSolvePathCosts(t *testing.T) {
 		}
 	}
 	for _, n := range []int{64, 257, 1000} {
-		g := fromEdges(t, n, pathEdges(n))
+		g := solve.MustGraph(t, n, pathEdges(n))
 		res := mustSolve(t, g, nil, solve.Options{})
 		c := solve.Cost(g, res.Binary)
 		cater := float64(n*(n+1)/2 - 1)
@@ -349,7 +325,7 @@ func TestSolveSatisfiesConstraintsAtScale(t *testing.T) {
 	// for the binary tree and for the folded taxonomy.
 	r := rand.New(rand.NewPCG(10, 10))
 	for trial, n := range []int{50, 120, 200, 350, 500, 500} {
-		g := sparseRandom(t, uint64(trial), n, 8)
+		g := solve.RandomGraph(t, uint64(trial), 78, n, 4*n)
 		c := drawConstraints(r, solve.RandomBinaryTree(r, n), n, 10)
 		res := mustSolve(t, g, c, solve.Options{MinSize: 3, MaxChildren: 8, MaxDepth: 4, Seed: uint64(trial)})
 		for name, tr := range map[string]*solve.Tree{"binary": res.Binary, "taxonomy": res.Taxonomy} {
@@ -365,7 +341,7 @@ func TestSolveConflictBeforeClustering(t *testing.T) {
 	// (the cluster {0,1,2} implies 01|3, which contradicts 03|1; the third
 	// record is unrelated and consistent), and no
 	// clustering stage is started.
-	g := fromEdges(t, 6, pathEdges(6))
+	g := solve.MustGraph(t, 6, pathEdges(6))
 	c := &solve.Constraints{
 		Clusters: []solve.Cluster{{Leaves: []int32{0, 1, 2}, Record: 4}},
 		Triplets: []solve.Triplet{{A: 0, B: 3, C: 1, Record: 9}, {A: 4, B: 5, C: 0, Record: 2}},
@@ -414,7 +390,7 @@ func TestSolveDeterministic(t *testing.T) {
 
 func TestSolveTinyInputs(t *testing.T) {
 	for n := 1; n <= 3; n++ {
-		g := fromEdges(t, n, pathEdges(n))
+		g := solve.MustGraph(t, n, pathEdges(n))
 		res := mustSolve(t, g, nil, solve.Options{MinSize: 3})
 		for _, tr := range []*solve.Tree{res.Binary, res.Taxonomy} {
 			if len(tr.Leaves(tr.Root)) != n {
@@ -425,11 +401,11 @@ func TestSolveTinyInputs(t *testing.T) {
 			}
 		}
 	}
-	if _, err := solve.Solve(fromEdges(t, 0, nil), nil, solve.Options{}); err == nil {
+	if _, err := solve.Solve(solve.MustGraph(t, 0, nil), nil, solve.Options{}); err == nil {
 		t.Error("empty graph accepted")
 	}
 	bad := &solve.Constraints{Triplets: []solve.Triplet{{A: 0, B: 1, C: 7}}}
-	if _, err := solve.Solve(fromEdges(t, 3, pathEdges(3)), bad, solve.Options{}); err == nil {
+	if _, err := solve.Solve(solve.MustGraph(t, 3, pathEdges(3)), bad, solve.Options{}); err == nil {
 		t.Error("constraint naming item 7 of 3 accepted")
 	}
 }

@@ -215,22 +215,6 @@ func TestFiedlerNormalisedValues(t *testing.T) {
 	}
 }
 
-// randomGraph returns a connected graph on n vertices: a random spanning
-// path plus extra edges, weights in (0.1, 2.1).
-func randomGraph(t testing.TB, seed uint64, n, extra int) *graph.CSR {
-	r := rand.New(rand.NewPCG(seed, 11))
-	perm := r.Perm(n)
-	var es []graph.Edge
-	for i := 0; i+1 < n; i++ {
-		es = append(es, graph.Edge{A: int32(perm[i]), B: int32(perm[i+1]), W: 0.1 + 2*r.Float64()})
-	}
-	for k := 0; k < extra; k++ {
-		a, b := r.IntN(n), r.IntN(n)
-		es = append(es, graph.Edge{A: int32(a), B: int32(b), W: 0.1 + 2*r.Float64()})
-	}
-	return dgGraph(t, n, es)
-}
-
 // denseGeneralised solves L x = λ B x densely with gonum's mat.EigenSym on
 // B^{-1/2} L B^{-1/2}: the reference for the Lanczos path.
 func denseGeneralised(g *graph.CSR, b []float64) (float64, []float64) {
@@ -259,7 +243,7 @@ func TestLanczosMatchesDenseWithMasses(t *testing.T) {
 	// the same generalised problem, with random masses and with degrees.
 	for seed := uint64(1); seed <= 6; seed++ {
 		n := 80 + int(seed)*30
-		g := randomGraph(t, seed, n, 2*n)
+		g := RandomGraph(t, seed, 11, n, 2*n)
 		r := rand.New(rand.NewPCG(seed, 5))
 		masses := make([]float64, n)
 		for i := range masses {
@@ -293,7 +277,7 @@ func TestLanczosMatchesDenseWithMasses(t *testing.T) {
 func TestFiedlerDisconnectedHasNoNaN(t *testing.T) {
 	// Two components and an isolated vertex: λ₂ = 0 (multiplicity of 0 =
 	// number of components; Chung 1997, ch. 1) and a finite vector.
-	g := dgGraph(t, 6, []graph.Edge{{A: 0, B: 1, W: 1}, {A: 1, B: 2, W: 2}, {A: 3, B: 4, W: 1}})
+	g := MustGraph(t, 6, []graph.Edge{{A: 0, B: 1, W: 1}, {A: 1, B: 2, W: 2}, {A: 3, B: 4, W: 1}})
 	for _, m := range [][]float64{nil, {1, 1, 1, 1, 1, 1}} {
 		lambda, x := Fiedler(g, m, 1)
 		if lambda != 0 {
