@@ -65,26 +65,14 @@ func (pg *Page) writeMeta(j *jsonWriter) {
 	j.value(pg.Support)
 	w.WriteString(`,"weakest":`)
 	j.ints(pg.Weakest)
-	w.WriteString(`,"tags":[`)
-	for i, t := range pg.Tags {
-		if i > 0 {
-			w.WriteByte(',')
-		}
-		j.str(t)
-	}
-	w.WriteString(`],"recs":[`)
+	w.WriteString(`,"tags":`)
+	j.strs(pg.Tags)
+	w.WriteString(`,"recs":[`)
 	for i, r := range pg.Recs {
 		if i > 0 {
 			w.WriteByte(',')
 		}
-		w.WriteByte('[')
-		for k, s := range []string{r.Kind, r.Where, r.By, r.Date, r.Note, r.Summary} {
-			if k > 0 {
-				w.WriteByte(',')
-			}
-			j.str(s)
-		}
-		w.WriteByte(']')
+		j.strs([]string{r.Kind, r.Where, r.By, r.Date, r.Note, r.Summary})
 	}
 	w.WriteString("],\n\"cats\":[")
 	for i := range pg.Cats {
@@ -108,14 +96,9 @@ func (pg *Page) writeMeta(j *jsonWriter) {
 		j.ints(c.Items)
 		w.WriteByte(',')
 		j.ints(c.Records)
-		w.WriteString(`,[`)
-		for k, m := range c.Marks {
-			if k > 0 {
-				w.WriteByte(',')
-			}
-			j.str(m)
-		}
-		w.WriteString(`],`)
+		w.WriteByte(',')
+		j.strs(c.Marks)
+		w.WriteByte(',')
 		j.str(c.Was)
 		w.WriteByte(']')
 	}
@@ -236,6 +219,18 @@ func (j *jsonWriter) ints(xs []int) {
 		}
 		j.buf = strconv.AppendInt(j.buf[:0], int64(x), 10)
 		j.w.Write(j.buf)
+	}
+	j.w.WriteByte(']')
+}
+
+// strs writes a JSON array of strings.
+func (j *jsonWriter) strs(ss []string) {
+	j.w.WriteByte('[')
+	for i, s := range ss {
+		if i > 0 {
+			j.w.WriteByte(',')
+		}
+		j.str(s)
 	}
 	j.w.WriteByte(']')
 }
