@@ -68,32 +68,32 @@ func Compare(old, new *format.Category) Changes {
 	}
 
 	look := func(m map[string]entry, p diff.Path) entry { return m[pathKey(p)] }
+	// idsAt lists, sorted, the identifiers that m gives the paths.
+	idsAt := func(m map[string]entry, paths []diff.Path) []string {
+		var ids []string
+		for _, p := range paths {
+			if e := look(m, p); e.id != "" {
+				ids = append(ids, e.id)
+			}
+		}
+		slices.Sort(ids)
+		return ids
+	}
 	mergedInto := map[string]string{}
 	for _, m := range rep.Merged {
 		into := look(newIDs, m.Into)
-		var from []string
-		for _, p := range m.From {
-			if e := look(oldIDs, p); e.id != "" {
-				from = append(from, e.id)
-				mergedInto[e.id] = into.id
-			}
+		from := idsAt(oldIDs, m.From)
+		for _, id := range from {
+			mergedInto[id] = into.id
 		}
 		if into.id != "" && len(from) > 0 {
-			slices.Sort(from)
 			ch.Merged = append(ch.Merged, Merge{ID: into.id, Name: into.name, From: from})
 		}
 	}
 	splitInto := map[string][]string{}
 	for _, s := range rep.Split {
 		from := look(oldIDs, s.From)
-		var into []string
-		for _, p := range s.Into {
-			if e := look(newIDs, p); e.id != "" {
-				into = append(into, e.id)
-			}
-		}
-		if from.id != "" && len(into) > 0 {
-			slices.Sort(into)
+		if into := idsAt(newIDs, s.Into); from.id != "" && len(into) > 0 {
 			splitInto[from.id] = into
 			ch.Split = append(ch.Split, Split{ID: from.id, Name: from.name, Into: into})
 		}
