@@ -136,17 +136,14 @@ func gitSetup(e *env, dir string) ([]string, error) {
 }
 
 // gitSetupForInit is what `ramify init` runs: gitSetup when dir is in a
-// git repository, nothing when it is not or git is not installed, saying
-// what changed.
-func gitSetupForInit(e *env, dir string) error {
+// git repository, nothing when it is not or git is not installed. It
+// returns what changed, for init to say.
+func gitSetupForInit(e *env, dir string) ([]string, error) {
 	changes, err := gitSetup(e, dir)
 	if errors.Is(err, errNotGitRepo) || errors.Is(err, errNoGit) {
-		return nil
+		return nil, nil
 	}
-	for _, c := range changes {
-		e.say("%s", c)
-	}
-	return err
+	return changes, err
 }
 
 // ignoreTempFiles adds the patterns of ramify's temporary files and

@@ -27,8 +27,8 @@ func TestGitSetupForInit(t *testing.T) {
 		t.Fatal(err)
 	}
 	e, out := newTestEnv()
-	if err := gitSetupForInit(e, plain); err != nil || out.Len() > 0 {
-		t.Errorf("gitSetupForInit(not a repository) = %v, printed %q; want nil and nothing", err, out)
+	if changes, err := gitSetupForInit(e, plain); err != nil || len(changes) > 0 || out.Len() > 0 {
+		t.Errorf("gitSetupForInit(not a repository) = %q, %v, printed %q; want nil and nothing", changes, err, out)
 	}
 	if _, err := os.Stat(filepath.Join(plain, ".gitattributes")); !os.IsNotExist(err) {
 		t.Errorf("gitSetupForInit(not a repository) wrote .gitattributes")
@@ -38,17 +38,19 @@ func TestGitSetupForInit(t *testing.T) {
 	if out, err := exec.Command("git", "init", "-q", repo).CombinedOutput(); err != nil {
 		t.Fatalf("git init: %v\n%s", err, out)
 	}
-	e, out = newTestEnv()
-	if err := gitSetupForInit(e, repo); err != nil {
+	e, _ = newTestEnv()
+	changes, err := gitSetupForInit(e, repo)
+	if err != nil {
 		t.Fatalf("gitSetupForInit(repository) = %v", err)
 	}
+	said := strings.Join(changes, "\n")
 	for _, want := range []string{"wrote .gitattributes", "set git config merge.ramify.driver = "} {
-		if !strings.Contains(out.String(), want) {
-			t.Errorf("gitSetupForInit(repository) printed %q; want it to say %q", out, want)
+		if !strings.Contains(said, want) {
+			t.Errorf("gitSetupForInit(repository) = %q; want it to say %q", said, want)
 		}
 	}
 	e, out = newTestEnv()
-	if err := gitSetupForInit(e, repo); err != nil || out.Len() > 0 {
-		t.Errorf("gitSetupForInit again = %v, printed %q; want nil and nothing", err, out)
+	if changes, err := gitSetupForInit(e, repo); err != nil || len(changes) > 0 || out.Len() > 0 {
+		t.Errorf("gitSetupForInit again = %q, %v, printed %q; want nil and nothing", changes, err, out)
 	}
 }

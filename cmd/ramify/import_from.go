@@ -3,7 +3,6 @@ package main
 import (
 	"errors"
 	"fmt"
-	"io"
 	"io/fs"
 	"os"
 	"path/filepath"
@@ -22,19 +21,27 @@ const (
 	importOutlineFile = "taxonomy.outline"
 )
 
-// importFlags adds init's --from flag.
-func importFlags(fs *pflag.FlagSet, o *options) {
-	o.extra["from"] = fs.String("from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file; a CSV file with the columns id and path (and optionally label, tags, text, concepts), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \"); or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json)")
-	skosFlags(fs, o)
-	pinFlag(fs, o)
+// importFlags adds init's flags: --from and the options of an import.
+func importFlags(fs *pflag.FlagSet, o *initOptions) {
+	fs.StringVar(&o.from, "from", "", "start from an existing taxonomy in `FILE` (relative to the current folder): an .outline file; a CSV file with the columns id and path (and optionally label, tags, text, concepts), path being the category names from the top down joined by \" > \" (or by \"/\" when no path in the file holds \" > \"); or a SKOS concept scheme as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json)")
+	skosFlags(fs, &o.skos)
+	pinFlag(fs, &o.pin)
 }
 
-// importSource is init's --from value, "" when it was not given.
-func importSource(e *env) string {
-	if from, ok := e.opt.extra["from"].(*string); ok && from != nil {
-		return *from
-	}
-	return ""
+// importedJSON is what init --from read, in its report.
+type importedJSON struct {
+	Categories int    `json:"categories"`
+	From       string `json:"from"`
+	Items      int    `json:"items"`
+}
+
+// firstSolveJSON is what the first solve would do to the imported tree.
+type firstSolveJSON struct {
+	Categories        int  `json:"categories"`
+	CategoriesCreated int  `json:"categories_created"`
+	CategoriesKept    int  `json:"categories_kept"`
+	Moved             int  `json:"moved"`
+	Pinned            bool `json:"pinned"`
 }
 
 // importTaxonomy starts a repository in dir from an existing taxonomy in
@@ -45,10 +52,17 @@ func importSource(e *env) string {
 // — rather than as a hand edit to absorb. Then everything plain init
 // writes. A problem in from is reported with its place and nothing is
 // written; existing items or outline files are never replaced.
-func importTaxonomy(e *env, dir, from string) error {
-	root, items, err := readImport(e, from)
+func importTaxonomy(e *env, o *initOptions, dir string) error {
+	from := o.from
+	root, items, skosRead, err := readImport(e, o)
 	if err != nil {
 		return err
+	}
+	if skosRead != nil {
+		// A later failure still reports what the SKOS file held.
+		e.result = struct {
+			Skos *skosJSON `json:"skos"`
+		}{skosRead}
 	}
 	if err := checkImportTargets(dir); err != nil {
 		return err
@@ -83,26 +97,15 @@ func importTaxonomy(e *env, dir, from string) error {
 	}
 	var pinned []string
 	pinGroups := 0
-	if pinWanted(e) {
-		date, err := releaseDate("")
+	if o.pin {
+		rel, n, err := writePinRecords(dir, root, source)
 		if err != nil {
-			return err
-		}
-		rel, text, n := pinRecords(root, source, date)
-		full, err := pinPath(dir, rel)
-		if err != nil {
-			return failf("%s: %v", rel, err)
-		}
-		if err := os.MkdirAll(filepath.Dir(full), 0o755); err != nil {
-			return err
-		}
-		if err := format.WriteFileAtomic(full, text, 0o644); err != nil {
 			return err
 		}
 		pinned, pinGroups = []string{rel}, n
 	}
 	// The rest is plain init's, which keeps the files just written.
-	wrote, kept, err := scaffoldRest(e)
+	wrote, kept, err := scaffoldRest(e, dir)
 	if err != nil {
 		return err
 	}
@@ -116,9 +119,10 @@ func importTaxonomy(e *env, dir, from string) error {
 	}
 	// What the first solve will do with the imported tree, so that a team
 	// sees before solving whether it keeps what they had.
+	rep := &initReport{Skos: skosRead}
 	moved, keptCats, total, created, perr := firstSolvePreview(dir, root)
 	if perr == nil {
-		e.report["first_solve"] = map[string]any{"moved": moved, "categories_kept": keptCats, "categories": total, "categories_created": created, "pinned": len(pinned) > 0}
+		rep.FirstSolve = &firstSolveJSON{Moved: moved, CategoriesKept: keptCats, Categories: total, CategoriesCreated: created, Pinned: len(pinned) > 0}
 		if len(pinned) > 0 {
 			e.say("pinned: %s records the imported tree as %s (by = %q)", pinned[0], plural(pinGroups, "group", "groups"), PinBy)
 			e.say("the first solve keeps %d of the %d imported categories; it adds %s and moves %s",
@@ -128,6 +132,37 @@ func importTaxonomy(e *env, dir, from string) error {
 				keptCats, total, plural(created, "new category", "new categories"), plural(moved, "item", "items"), source)
 		}
 	}
+	sayImportNext(e, items)
+	rep.Imported = &importedJSON{From: source, Items: len(items), Categories: root.CountCategories()}
+	rep.Wrote, rep.Kept = nonNil(wrote), nonNil(kept)
+	e.result = rep
+	return nil
+}
+
+// writePinRecords writes the imported tree as decisions (init --pin) and
+// returns the file's repository path and how many groups it holds.
+func writePinRecords(dir string, root *format.Category, source string) (rel string, groups int, err error) {
+	date, err := releaseDate("")
+	if err != nil {
+		return "", 0, err
+	}
+	rel, text, groups := pinRecords(root, source, date)
+	full, err := pinPath(dir, rel)
+	if err != nil {
+		return "", 0, failf("%s: %v", rel, err)
+	}
+	if err := os.MkdirAll(filepath.Dir(full), 0o755); err != nil {
+		return "", 0, err
+	}
+	if err := format.WriteFileAtomic(full, text, 0o644); err != nil {
+		return "", 0, err
+	}
+	return rel, groups, nil
+}
+
+// sayImportNext says what to do after an import: describe the items that
+// have no tags or text, then solve.
+func sayImportNext(e *env, items []format.Item) {
 	described := 0
 	for _, it := range items {
 		if len(it.Tags) > 0 || it.Text != "" {
@@ -142,53 +177,51 @@ func importTaxonomy(e *env, dir, from string) error {
 	} else {
 		e.say("next: run `ramify solve`; it keeps the imported names where a category keeps its members")
 	}
-	e.report["imported"] = map[string]any{"from": source, "items": len(items), "categories": root.CountCategories()}
-	e.report["wrote"] = nonNil(wrote)
-	e.report["kept"] = nonNil(kept)
-	return nil
 }
 
-// readImport reads the tree and items of an import file, by extension.
-func readImport(e *env, from string) (*format.Category, []format.Item, error) {
+// readImport reads the tree and items of an import file, by extension;
+// for SKOS also what it read.
+func readImport(e *env, o *initOptions) (*format.Category, []format.Item, *skosJSON, error) {
+	from := o.from
 	ext := strings.ToLower(filepath.Ext(from))
 	if ext != ".csv" && ext != ".outline" && skosSyntax(ext) == "" {
-		return nil, nil, usagef("--from takes a .csv file (columns id and path), an .outline file, or SKOS as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json), not %q", from)
+		return nil, nil, nil, usagef("--from takes a .csv file (columns id and path), an .outline file, or SKOS as Turtle (.ttl), N-Triples (.nt) or JSON-LD (.jsonld, .json), not %q", from)
 	}
-	if err := checkSKOSFlags(e, ext); err != nil {
-		return nil, nil, err
+	if err := checkSKOSFlags(e, o.skos, ext); err != nil {
+		return nil, nil, nil, err
 	}
 	data, err := format.ReadFileLimited(from, from, format.MaxDataFileBytes)
 	if errors.Is(err, fs.ErrNotExist) {
-		return nil, nil, format.Diags{{Pos: format.Pos{File: from}, Msg: "no such file"}}
+		return nil, nil, nil, format.Diags{{Pos: format.Pos{File: from}, Msg: "no such file"}}
 	}
 	if err != nil {
-		return nil, nil, err
+		return nil, nil, nil, err
 	}
 	if skosSyntax(ext) != "" {
-		return readSKOSImport(e, from, ext, data)
+		return readSKOSImport(e, o.skos, from, ext, data)
 	}
 	if ext == ".csv" {
 		root, items, ds := parseImportCSV(from, data)
 		if len(ds) > 0 {
-			return nil, nil, ds
+			return nil, nil, nil, ds
 		}
-		return root, items, nil
+		return root, items, nil, nil
 	}
-	o, err := format.ParseOutline(from, data)
+	ol, err := format.ParseOutline(from, data)
 	if err != nil {
-		return nil, nil, format.AsDiags(err, from)
+		return nil, nil, nil, format.AsDiags(err, from)
 	}
 	var items []format.Item
-	o.Root.Walk(func(c *format.Category, _ int) bool {
+	ol.Root.Walk(func(c *format.Category, _ int) bool {
 		for i, id := range c.Items {
 			items = append(items, format.Item{ID: id, Pos: format.Pos{File: from, Line: c.ItemLines[i], Col: 1}})
 		}
 		return true
 	})
 	if len(items) == 0 {
-		return nil, nil, format.Diags{{Pos: format.Pos{File: from, Line: 1, Col: 1}, Msg: "the outline places no items; there is nothing to import"}}
+		return nil, nil, nil, format.Diags{{Pos: format.Pos{File: from, Line: 1, Col: 1}, Msg: "the outline places no items; there is nothing to import"}}
 	}
-	return o.Root, items, nil
+	return ol.Root, items, nil, nil
 }
 
 // checkImportTargets refuses to replace an items file or an outline, and
@@ -219,22 +252,17 @@ func checkImportTargets(dir string) error {
 	return nil
 }
 
-// scaffoldRest runs plain init for the files an import does not write,
-// quietly, and returns what it wrote and kept (the imported files left
-// out of kept: they were just written).
-func scaffoldRest(e *env) (wrote, kept []string, err error) {
-	opt := *e.opt
-	opt.extra = map[string]any{}
-	for k, v := range e.opt.extra {
-		opt.extra[k] = v
-	}
-	opt.extra["from"] = new(string)
-	sub := &env{opt: &opt, flags: e.flags, stdout: io.Discard, stderr: e.stderr, report: map[string]any{}}
-	if err := runInit(sub, nil); err != nil {
+// scaffoldRest writes plain init's files that an import does not write,
+// and wires git as plain init does, quietly; it returns what it wrote and
+// kept (the imported files left out of kept: they were just written).
+func scaffoldRest(e *env, dir string) (wrote, kept []string, err error) {
+	wrote, all, err := writeScaffold(dir)
+	if err != nil {
 		return nil, nil, err
 	}
-	wrote, _ = sub.report["wrote"].([]string)
-	all, _ := sub.report["kept"].([]string)
+	if _, err := gitSetupForInit(e, dir); err != nil {
+		return nil, nil, err
+	}
 	for _, p := range all {
 		if p != importItemsFile && p != importOutlineFile {
 			kept = append(kept, p)

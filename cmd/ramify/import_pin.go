@@ -17,13 +17,8 @@ import (
 // PinBy is the author of the records `init --from --pin` writes.
 const PinBy = "import"
 
-func pinFlag(fs *pflag.FlagSet, o *options) {
-	o.extra["pin"] = fs.Bool("pin", false, "record the imported tree as decisions (one named group per category, by = \"import\") in constraints/, so the first solve keeps it")
-}
-
-func pinWanted(e *env) bool {
-	p, ok := e.opt.extra["pin"].(*bool)
-	return ok && p != nil && *p
+func pinFlag(fs *pflag.FlagSet, pin *bool) {
+	fs.BoolVar(pin, "pin", false, "record the imported tree as decisions (one named group per category, by = \"import\") in constraints/, so the first solve keeps it")
 }
 
 // pinRecords are one group per category of root with at least two items

@@ -11,12 +11,24 @@ import (
 	"github.com/spf13/pflag"
 )
 
+// skosImportOptions are init's options for a SKOS import.
+type skosImportOptions struct {
+	lang, itemsAre, scheme string
+	firstBroader           bool
+}
+
+// skosJSON is what a SKOS import read, in init's report.
+type skosJSON struct {
+	Lang    string   `json:"lang"`
+	Notices []string `json:"notices"`
+}
+
 // skosFlags adds the options of a SKOS import.
-func skosFlags(fs *pflag.FlagSet, o *options) {
-	o.extra["lang"] = fs.String("lang", "", "SKOS import: take labels and definitions in language `TAG` (default: the language most prefLabels have)")
-	o.extra["items-are"] = fs.String("items-are", "", "SKOS import: which concepts are items: `RULE` is leaves (concepts with no narrower concept, the default), notation (concepts with a skos:notation), or the IRI of an rdf:type")
-	o.extra["first-broader"] = fs.Bool("first-broader", false, "SKOS import: where a concept has several broader concepts, keep the first in the file and report the others (default: refuse, naming both statements)")
-	o.extra["scheme"] = fs.String("scheme", "", "SKOS import: import the concept scheme `IRI` only (needed when the file holds several)")
+func skosFlags(fs *pflag.FlagSet, o *skosImportOptions) {
+	fs.StringVar(&o.lang, "lang", "", "SKOS import: take labels and definitions in language `TAG` (default: the language most prefLabels have)")
+	fs.StringVar(&o.itemsAre, "items-are", "", "SKOS import: which concepts are items: `RULE` is leaves (concepts with no narrower concept, the default), notation (concepts with a skos:notation), or the IRI of an rdf:type")
+	fs.BoolVar(&o.firstBroader, "first-broader", false, "SKOS import: where a concept has several broader concepts, keep the first in the file and report the others (default: refuse, naming both statements)")
+	fs.StringVar(&o.scheme, "scheme", "", "SKOS import: import the concept scheme `IRI` only (needed when the file holds several)")
 }
 
 // skosSyntax names the RDF syntax of an import file by its extension,
@@ -33,21 +45,14 @@ func skosSyntax(ext string) string {
 	return ""
 }
 
-func skosOptions(e *env) skos.Options {
-	str := func(k string) string {
-		if v, ok := e.opt.extra[k].(*string); ok && v != nil {
-			return *v
-		}
-		return ""
-	}
-	first, _ := e.opt.extra["first-broader"].(*bool)
-	return skos.Options{Lang: str("lang"), ItemsAre: str("items-are"), FirstBroader: first != nil && *first, Scheme: str("scheme")}
+func (o skosImportOptions) options() skos.Options {
+	return skos.Options{Lang: o.lang, ItemsAre: o.itemsAre, FirstBroader: o.firstBroader, Scheme: o.scheme}
 }
 
 // checkSKOSFlags refuses SKOS options on other imports.
-func checkSKOSFlags(e *env, ext string) error {
+func checkSKOSFlags(e *env, so skosImportOptions, ext string) error {
 	if skosSyntax(ext) != "" {
-		if o := skosOptions(e); o.Lang != "" {
+		if o := so.options(); o.Lang != "" {
 			if err := checkLangTag(o.Lang); err != nil {
 				return err
 			}
@@ -81,7 +86,7 @@ func checkLangTag(tag string) error {
 // readSKOSImport reads a SKOS file in the syntax its extension names.
 // Relative IRIs in Turtle resolve against a file: IRI made of the file's
 // name alone, so the result does not depend on where the file sits.
-func readSKOSImport(e *env, from, ext string, data []byte) (*format.Category, []format.Item, error) {
+func readSKOSImport(e *env, so skosImportOptions, from, ext string, data []byte) (*format.Category, []format.Item, *skosJSON, error) {
 	var triples []rdf.Triple
 	var err error
 	switch skosSyntax(ext) {
@@ -93,11 +98,11 @@ func readSKOSImport(e *env, from, ext string, data []byte) (*format.Category, []
 		triples, err = rdf.ParseJSONLD(from, data)
 	}
 	if err != nil {
-		return nil, nil, format.AsDiags(err, from)
+		return nil, nil, nil, format.AsDiags(err, from)
 	}
-	res, err := skos.Read(from, triples, skosOptions(e))
+	res, err := skos.Read(from, triples, so.options())
 	if err != nil {
-		return nil, nil, format.AsDiags(err, from)
+		return nil, nil, nil, format.AsDiags(err, from)
 	}
 	for _, n := range res.Notices {
 		e.notice("%s", n)
@@ -106,10 +111,10 @@ func readSKOSImport(e *env, from, ext string, data []byte) (*format.Category, []
 	if lang == "" {
 		lang = "(none)"
 	}
-	e.report["skos"] = map[string]any{"lang": res.Lang, "notices": nonNil(res.Notices)}
+	read := &skosJSON{Lang: res.Lang, Notices: nonNil(res.Notices)}
 	e.say("read %s with labels in language %s", plural(len(triples), "statement", "statements"), lang)
 	for i := range res.Items {
 		res.Items[i].Pos = format.Pos{File: from}
 	}
-	return res.Root, res.Items, nil
+	return res.Root, res.Items, read, nil
 }

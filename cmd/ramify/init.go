@@ -46,9 +46,24 @@ their identifiers; others get identifiers made from their IRIs. JSON-LD
 contexts must be inline: nothing is fetched.
 
 Next steps: add your items to items.toml, then run "ramify solve".`,
-		flags: importFlags,
-		run:   runInit,
+		bind: withOptions(importFlags, runInit),
 	})
+}
+
+// initOptions are init's flags: all of them are about init --from.
+type initOptions struct {
+	from string // the taxonomy file to start from, "" for none
+	pin  bool   // record the imported tree as decisions
+	skos skosImportOptions
+}
+
+// initReport is init's --json report, once every file is written.
+type initReport struct {
+	FirstSolve *firstSolveJSON `json:"first_solve,omitempty"` // init --from
+	Imported   *importedJSON   `json:"imported,omitempty"`    // init --from
+	Kept       []string        `json:"kept"`
+	Skos       *skosJSON       `json:"skos,omitempty"` // init --from a SKOS file
+	Wrote      []string        `json:"wrote"`
 }
 
 // itemsTemplate is the items file a new repository starts with.
@@ -84,16 +99,43 @@ type scaffoldFile struct {
 	content string
 }
 
-func runInit(e *env, args []string) error {
+func runInit(e *env, o *initOptions, args []string) error {
 	if len(args) > 0 {
 		return usagef("init takes no arguments (got %q); use --dir to choose the folder", args[0])
 	}
 	dir := e.dir()
-	if from := importSource(e); from != "" {
-		return importTaxonomy(e, dir, from)
+	if o.from != "" {
+		return importTaxonomy(e, o, dir)
 	}
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	wrote, kept, err := writeScaffold(dir)
+	if err != nil {
 		return err
+	}
+	for _, p := range wrote {
+		e.say("wrote %s", p)
+	}
+	for _, p := range kept {
+		e.say("kept  %s (already there)", p)
+	}
+	changes, err := gitSetupForInit(e, dir)
+	for _, c := range changes {
+		e.say("%s", c)
+	}
+	if err != nil {
+		return err
+	}
+	if len(wrote) > 0 {
+		e.say("next: add your items to items.toml, then run `ramify solve`")
+	}
+	e.result = &initReport{Wrote: nonNil(wrote), Kept: nonNil(kept)}
+	return nil
+}
+
+// writeScaffold writes the files and folders of a new repository in dir
+// that are not there yet, and says which it wrote and which it kept.
+func writeScaffold(dir string) (wrote, kept []string, err error) {
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return nil, nil, err
 	}
 	files := []scaffoldFile{
 		{"ramify.toml", format.SettingsTemplate},
@@ -110,42 +152,27 @@ func runInit(e *env, args []string) error {
 	for i, f := range files {
 		full, err := project.Resolve(dir, f.path)
 		if err != nil {
-			return failf("%s: %v; nothing was written", f.path, err)
+			return nil, nil, failf("%s: %v; nothing was written", f.path, err)
 		}
 		fulls[i] = full
 	}
-	var wrote, kept []string
 	for i, f := range files {
 		full := fulls[i]
 		if _, err := os.Lstat(full); err == nil {
 			kept = append(kept, f.path)
 			continue
 		} else if !errors.Is(err, fs.ErrNotExist) {
-			return err
+			return wrote, kept, err
 		}
 		if err := os.MkdirAll(filepath.Dir(full), 0o755); err != nil {
-			return err
+			return wrote, kept, err
 		}
 		if err := format.WriteFileAtomic(full, []byte(f.content), 0o644); err != nil {
-			return err
+			return wrote, kept, err
 		}
 		wrote = append(wrote, f.path)
 	}
-	for _, p := range wrote {
-		e.say("wrote %s", p)
-	}
-	for _, p := range kept {
-		e.say("kept  %s (already there)", p)
-	}
-	if err := gitSetupForInit(e, dir); err != nil {
-		return err
-	}
-	if len(wrote) > 0 {
-		e.say("next: add your items to items.toml, then run `ramify solve`")
-	}
-	e.report["wrote"] = nonNil(wrote)
-	e.report["kept"] = nonNil(kept)
-	return nil
+	return wrote, kept, nil
 }
 
 func nonNil(s []string) []string {
