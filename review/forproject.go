@@ -10,7 +10,9 @@ import (
 // settings (DefaultCommitteeSize when unset), members solved from the
 // project's views of the items (project.Views, BuildViewCommittee) under
 // the compiled records, and a seed taken from the structure hash, so
-// the same taxonomy always gets the same committee. progress may be nil.
+// the same taxonomy always gets the same committee; a committee solved
+// before from the same inputs is read back from the committee cache
+// (CachedViewCommittee). progress may be nil.
 // A conflict among the records comes back as the solver's
 // *solve.ConflictError, naming records by their compiled number.
 func ProjectCommittee(p *project.Project, structure string, progress func(stage string, done, total int)) (*Committee, *project.Compiled, error) {
@@ -35,6 +37,6 @@ func ProjectCommittee(p *project.Project, structure string, progress func(stage 
 	for i, v := range views {
 		graphs[i] = v.Graph
 	}
-	c, err := BuildViewCommittee(graphs, compiled.Constraints, opt, size, Seed(structure))
+	c, err := CachedViewCommittee(CommitteeCacheDir(), graphs, compiled.Constraints, opt, size, Seed(structure))
 	return c, compiled, err
 }
