@@ -10,7 +10,14 @@ import (
 
 // TestMain lets testscript run the ramify binary in-process: scripts call
 // `ramify ...` and get this package's run function.
+//
+// The committee cache is off unless RAMIFY_CACHE says otherwise, so that
+// tests leave the user's cache folder alone and every test solves its own
+// committee; review_cache.txtar turns it on in a folder of its own.
 func TestMain(m *testing.M) {
+	if os.Getenv("RAMIFY_CACHE") == "" {
+		os.Setenv("RAMIFY_CACHE", "off")
+	}
 	testscript.Main(m, map[string]func(){
 		"ramify": func() { os.Exit(run(os.Args[1:], os.Stdout, os.Stderr)) },
 	})
@@ -28,6 +35,7 @@ func TestScripts(t *testing.T) {
 		Dir: filepath.Join("testdata", "script"),
 		Setup: func(env *testscript.Env) error {
 			env.Setenv("DEMO_SRC", demo)
+			env.Setenv("RAMIFY_CACHE", "off")
 			env.Setenv("NO_COLOR", "1")
 			return nil
 		},
