@@ -1,14 +1,14 @@
 package review
 
 import (
-	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/hier"
 )
 
-// leafIndex is review's view of a tree's leaves: solve.LeafOrder (O(1)
+// leafIndex is review's view of a tree's leaves: hier.LCAIndex (O(1)
 // lowest common ancestors over the depth-first leaf order) with the
 // per-node arrays the packet code reads directly.
 type leafIndex struct {
-	o      *solve.LeafOrder
+	o      *hier.LCAIndex
 	pos    []int32 // leaf → position (-1 when the tree does not reach it)
 	parent []int32 // node → parent (-1 for the root)
 	depth  []int32 // node → depth, root 0
@@ -17,9 +17,9 @@ type leafIndex struct {
 	leafAt []int32 // position → leaf
 }
 
-func newLeafIndex(t *solve.Tree) *leafIndex {
-	o := solve.NewLeafOrder(t)
-	x := &leafIndex{o: o, pos: o.Pos(), parent: o.Parent(), depth: o.Depth(), lo: o.Lo(), leafAt: o.LeafAt(), size: make([]int32, t.NumNodes())}
+func newLeafIndex(t *hier.Tree) *leafIndex {
+	o := hier.NewLCAIndex(t)
+	x := &leafIndex{o: o, pos: o.Pos, parent: o.Parent, depth: o.Depth, lo: o.Lo, leafAt: o.LeafAt, size: make([]int32, t.NumNodes())}
 	for v := range x.size {
 		x.size[v] = o.Size(int32(v))
 	}
@@ -30,12 +30,7 @@ func newLeafIndex(t *solve.Tree) *leafIndex {
 func (x *leafIndex) leaves(v int32) []int32 { return x.o.Leaves(v) }
 
 // lca is the lowest common ancestor of two leaves the tree reaches.
-func (x *leafIndex) lca(a, b int32) int32 {
-	if a == b {
-		return a
-	}
-	return x.o.LCA(a, b)
-}
+func (x *leafIndex) lca(a, b int32) int32 { return x.o.LCA(a, b) }
 
 // Topologies of three leaves a, b, c.
 const (

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"math"
 
+	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -57,7 +58,7 @@ func CostChecked(g *graph.CSR, t *Tree) (float64, error) {
 // O(n) extra memory. The walk, and hence the order of every floating-point
 // addition, depends only on t and g.
 func CrossWeights(g *graph.CSR, t *Tree) ([]float64, error) {
-	if err := costCheckTree(t); err != nil {
+	if err := hier.Check(t); err != nil {
 		return nil, err
 	}
 	if err := costCheckGraph(g); err != nil {
@@ -119,46 +120,6 @@ func CrossWeights(g *graph.CSR, t *Tree) ([]float64, error) {
 		}
 	}
 	return cross, nil
-}
-
-// costCheckTree reports why t cannot be walked safely: ids out of range, a
-// leaf with children, or a node reachable twice (which would also catch a
-// cycle).
-func costCheckTree(t *Tree) error {
-	if t == nil {
-		return errors.New("nil tree")
-	}
-	nodes := len(t.Kids)
-	if t.N < 0 || t.N > nodes {
-		return fmt.Errorf("tree has %d leaves but %d nodes", t.N, nodes)
-	}
-	if nodes == 0 {
-		return errors.New("tree has no nodes")
-	}
-	if t.Root < 0 || int(t.Root) >= nodes {
-		return fmt.Errorf("root %d outside 0..%d", t.Root, nodes-1)
-	}
-	seen := make([]bool, nodes)
-	seen[t.Root] = true
-	stack := []int32{t.Root}
-	for len(stack) > 0 {
-		v := stack[len(stack)-1]
-		stack = stack[:len(stack)-1]
-		if int(v) < t.N && len(t.Kids[v]) > 0 {
-			return fmt.Errorf("leaf %d has children", v)
-		}
-		for _, c := range t.Kids[v] {
-			if c < 0 || int(c) >= nodes {
-				return fmt.Errorf("node %d has child %d outside 0..%d", v, c, nodes-1)
-			}
-			if seen[c] {
-				return fmt.Errorf("node %d is reachable twice", c)
-			}
-			seen[c] = true
-			stack = append(stack, c)
-		}
-	}
-	return nil
 }
 
 // costCheckGraph reports why g's arrays cannot be read safely.

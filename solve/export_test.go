@@ -9,6 +9,7 @@ import (
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat"
 
+	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -304,7 +305,7 @@ func AverageLinkageDist(n int, dist func(i, j int) float64) *Tree {
 // node is reachable from the root and every child has a smaller id than
 // its parent.
 func LinkageMatrix(t *Tree) [][4]float64 {
-	if costCheckTree(t) != nil || len(t.PostOrder()) != t.NumNodes() || t.NumNodes() != 2*t.N-1 {
+	if hier.Check(t) != nil || len(t.PostOrder()) != t.NumNodes() || t.NumNodes() != 2*t.N-1 {
 		return nil
 	}
 	id := make([]float64, t.NumNodes())
@@ -338,7 +339,7 @@ func LinkageMatrix(t *Tree) [][4]float64 {
 // input dissimilarities). It needs O(n²) memory; NaN when either vector is
 // constant, the tree is malformed or has fewer than two leaves.
 func CopheneticCorrelation(t *Tree, dist func(i, j int) float64) float64 {
-	if costCheckTree(t) != nil || t.N < 2 || len(t.Height) < t.NumNodes() {
+	if hier.Check(t) != nil || t.N < 2 || len(t.Height) < t.NumNodes() {
 		return math.NaN()
 	}
 	n := t.N

@@ -146,7 +146,7 @@ func newFolder(g *graph.CSR, t *Tree, c *Constraints, p foldParams) *folder {
 	f := &folder{
 		t: t, p: p,
 		kids:    make([][]int32, nodes),
-		parent:  lay.parent,
+		parent:  lay.Parent,
 		cross:   b.cross,
 		pairs:   make([]float64, nodes),
 		alive:   make([]bool, nodes),
@@ -155,14 +155,14 @@ func newFolder(g *graph.CSR, t *Tree, c *Constraints, p foldParams) *folder {
 		tripsAt: make([][]int32, nodes),
 	}
 	for v := t.N; v < nodes; v++ {
-		if lay.parent[v] < 0 && int32(v) != t.Root {
+		if lay.Parent[v] < 0 && int32(v) != t.Root {
 			continue
 		}
 		f.kids[v] = append([]int32(nil), t.Kids[v]...)
 		f.alive[v] = true
 		sum, sq := 0.0, 0.0
 		for _, k := range t.Kids[v] {
-			s := float64(lay.hi[k] - lay.lo[k])
+			s := float64(lay.Hi[k] - lay.Lo[k])
 			sum += s
 			sq += float64(s * s)
 		}
@@ -194,9 +194,9 @@ func newFolder(g *graph.CSR, t *Tree, c *Constraints, p foldParams) *folder {
 				f.tripTop[i] = -1
 				continue
 			}
-			x := lay.lca(tr.A, tr.B)
-			pa, pb, pc := lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]
-			f.tripTop[i] = lay.lcaPos(min(pa, pb, pc), max(pa, pb, pc))
+			x := lay.LCA(tr.A, tr.B)
+			pa, pb, pc := lay.Pos[tr.A], lay.Pos[tr.B], lay.Pos[tr.C]
+			f.tripTop[i] = lay.LCAPos(min(pa, pb, pc), max(pa, pb, pc))
 			f.tripsAt[x] = append(f.tripsAt[x], int32(i))
 		}
 	}
@@ -463,7 +463,7 @@ func (f *folder) foldDeep() {
 			stack = stack[:len(stack)-1]
 			for _, k := range f.kids[fr.v] {
 				if f.t.IsLeaf(k) {
-					depth[lay.pos[k]] = fr.d
+					depth[lay.Pos[k]] = fr.d
 				} else {
 					stack = append(stack, frame{k, fr.d + 1})
 				}
@@ -482,7 +482,7 @@ func (f *folder) foldDeep() {
 		if _, s := f.stale(h, e); s {
 			continue
 		}
-		lo, hi := int(lay.lo[u]), int(lay.hi[u])
+		lo, hi := int(lay.Lo[u]), int(lay.Hi[u])
 		if st.max(lo, hi) <= f.p.maxDepth || !f.legal(u) {
 			continue
 		}
@@ -701,13 +701,13 @@ func priorMatches(t *Tree, lay *layout, prior [][]int32) []bool {
 			}
 			seen[l] = true
 			cnt++
-			lo, hi = min(lo, lay.pos[l]), max(hi, lay.pos[l])
+			lo, hi = min(lo, lay.Pos[l]), max(hi, lay.Pos[l])
 		}
 		if cnt < 2 {
 			continue
 		}
-		v := lay.lcaPos(lo, hi)
-		if float64(cnt) >= priorMatch*float64(lay.hi[v]-lay.lo[v]) {
+		v := lay.LCAPos(lo, hi)
+		if float64(cnt) >= priorMatch*float64(lay.Hi[v]-lay.Lo[v]) {
 			keep[v] = true
 		}
 	}

@@ -83,16 +83,16 @@ type lcaBuckets struct {
 func bucketEdges(g *graph.CSR, t *Tree, lay *layout) lcaBuckets {
 	nodes := t.NumNodes()
 	b := lcaBuckets{make([]float64, nodes), make([]float64, nodes), make([]float64, nodes)}
-	lay.forEdges(g, func(p, q, v int32, wt float64) {
+	forEdges(lay, g, func(p, q, v int32, wt float64) {
 		b.cross[v] += wt
 		if len(t.Kids[v]) != 2 {
 			return
 		}
 		P, Q := t.Kids[v][0], t.Kids[v][1]
-		if !t.IsLeaf(P) && p < lay.hi[t.Kids[P][0]] {
+		if !t.IsLeaf(P) && p < lay.Hi[t.Kids[P][0]] {
 			b.leftP[v] += wt
 		}
-		if !t.IsLeaf(Q) && q < lay.hi[t.Kids[Q][0]] {
+		if !t.IsLeaf(Q) && q < lay.Hi[t.Kids[Q][0]] {
 			b.leftQ[v] += wt
 		}
 	})
@@ -100,20 +100,20 @@ func bucketEdges(g *graph.CSR, t *Tree, lay *layout) lcaBuckets {
 }
 
 // forEdges calls f once for every edge of g, in the order of its lower
-// end, with the leaf positions p ≤ q of its ends, their lowest common
+// end, with the leaf positions p ≤ q of its ends in l, their lowest common
 // ancestor v and the edge's weight.
-func (l *layout) forEdges(g *graph.CSR, f func(p, q, v int32, w float64)) {
+func forEdges(l *layout, g *graph.CSR, f func(p, q, v int32, w float64)) {
 	for u := 0; u < g.N; u++ {
 		ts, ws := g.Neighbors(u)
 		for k, x := range ts {
 			if int(x) <= u {
 				continue
 			}
-			p, q := l.pos[u], l.pos[x]
+			p, q := l.Pos[u], l.Pos[x]
 			if p > q {
 				p, q = q, p
 			}
-			f(p, q, l.lcaPos(p, q), ws[k])
+			f(p, q, l.LCAPos(p, q), ws[k])
 		}
 	}
 }
@@ -132,16 +132,16 @@ func constraintPins(t *Tree, c *Constraints, lay *layout) (pinned, locked []bool
 		if len(cl.Leaves) == 0 {
 			continue
 		}
-		lo, hi := lay.pos[cl.Leaves[0]], lay.pos[cl.Leaves[0]]
+		lo, hi := lay.Pos[cl.Leaves[0]], lay.Pos[cl.Leaves[0]]
 		for _, l := range cl.Leaves {
-			lo, hi = min(lo, lay.pos[l]), max(hi, lay.pos[l])
+			lo, hi = min(lo, lay.Pos[l]), max(hi, lay.Pos[l])
 		}
-		v := lay.lcaPos(lo, hi)
+		v := lay.LCAPos(lo, hi)
 		seen := map[int32]bool{}
 		for _, l := range cl.Leaves {
 			seen[l] = true
 		}
-		if int(lay.hi[v]-lay.lo[v]) == len(seen) {
+		if int(lay.Hi[v]-lay.Lo[v]) == len(seen) {
 			pinned[v] = true
 		}
 	}
@@ -149,12 +149,12 @@ func constraintPins(t *Tree, c *Constraints, lay *layout) (pinned, locked []bool
 		if tr.A == tr.B {
 			continue
 		}
-		x := lay.lca(tr.A, tr.B)
-		p := lay.parent[x]
+		x := lay.LCA(tr.A, tr.B)
+		p := lay.Parent[x]
 		if p < 0 {
 			continue
 		}
-		if pc := lay.pos[tr.C]; pc >= lay.lo[p] && pc < lay.hi[p] {
+		if pc := lay.Pos[tr.C]; pc >= lay.Lo[p] && pc < lay.Hi[p] {
 			locked[x] = true
 		}
 	}
@@ -175,7 +175,7 @@ func rotationPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32) (int, 
 			pinned[v] = pinned[v] || keep
 		}
 	}
-	size := func(v int32) float64 { return float64(lay.hi[v] - lay.lo[v]) }
+	size := func(v int32) float64 { return float64(lay.Hi[v] - lay.Lo[v]) }
 	cost := 0.0
 	for v, w := range b.cross {
 		cost += float64(size(int32(v)) * w)
@@ -183,7 +183,7 @@ func rotationPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32) (int, 
 	var cands []rotation
 	for vi := t.N; vi < t.NumNodes(); vi++ {
 		v := int32(vi)
-		if len(t.Kids[v]) != 2 || (lay.parent[v] < 0 && v != t.Root) {
+		if len(t.Kids[v]) != 2 || (lay.Parent[v] < 0 && v != t.Root) {
 			continue // not binary, or not in the tree
 		}
 		for _, u := range t.Kids[v] {
@@ -209,7 +209,7 @@ func rotationPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32) (int, 
 	dirty := make([]bool, t.NumNodes())
 	applied, saved := 0, 0.0
 	for _, r := range cands {
-		p := lay.parent[r.v]
+		p := lay.Parent[r.v]
 		if dirty[r.v] || dirty[r.u] || (p >= 0 && dirty[p]) {
 			continue
 		}
@@ -239,7 +239,7 @@ type rotationTerms struct {
 // rotationsAt returns the two rotations at v that break its internal
 // child u: ((X1,X2),Y) → ((X1,Y),X2) and → ((X2,Y),X1).
 func rotationsAt(t *Tree, lay *layout, b *lcaBuckets, v, u int32) [2]rotationTerms {
-	size := func(x int32) float64 { return float64(lay.hi[x] - lay.lo[x]) }
+	size := func(x int32) float64 { return float64(lay.Hi[x] - lay.Lo[x]) }
 	P, Q := t.Kids[v][0], t.Kids[v][1]
 	Y, wFirstY := Q, b.leftP[v]
 	if u == Q {
@@ -344,7 +344,7 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 	}
 	lay := newLayout(t)
 	nodes := t.NumNodes()
-	size := func(v int32) float64 { return float64(lay.hi[v] - lay.lo[v]) }
+	size := func(v int32) float64 { return float64(lay.Hi[v] - lay.Lo[v]) }
 
 	// Edges bucketed by LCA, as leaf positions.
 	type posEdge struct {
@@ -354,7 +354,7 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 	start := make([]int32, nodes+1)
 	var raw []posEdge
 	var lcaOf []int32
-	lay.forEdges(g, func(p, q, a int32, w float64) {
+	forEdges(lay, g, func(p, q, a int32, w float64) {
 		raw = append(raw, posEdge{p, q, w})
 		lcaOf = append(lcaOf, a)
 		start[a+1]++
@@ -386,8 +386,8 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 			if tr.A == tr.B {
 				continue
 			}
-			pa, pb, pc := lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]
-			y := lay.lcaPos(min(pa, pb, pc), max(pa, pb, pc))
+			pa, pb, pc := lay.Pos[tr.A], lay.Pos[tr.B], lay.Pos[tr.C]
+			y := lay.LCAPos(min(pa, pb, pc), max(pa, pb, pc))
 			tripsAt[y] = append(tripsAt[y], tr)
 		}
 	}
@@ -396,7 +396,7 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 	var dp subsetDP
 	for vi := t.N; vi < nodes; vi++ {
 		v := int32(vi)
-		if lay.parent[v] < 0 && v != t.Root {
+		if lay.Parent[v] < 0 && v != t.Root {
 			continue
 		}
 		reg := regionOf(t, v, depth)
@@ -406,7 +406,7 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 		}
 		blockOf := func(p int32) int {
 			for i, b := range reg.blocks {
-				if p < lay.hi[b] {
+				if p < lay.Hi[b] {
 					return i
 				}
 			}
@@ -431,14 +431,14 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 				}
 				var m uint32
 				for i, b := range reg.blocks {
-					if lay.lo[b] >= lay.lo[a] && lay.hi[b] <= lay.hi[a] {
+					if lay.Lo[b] >= lay.Lo[a] && lay.Hi[b] <= lay.Hi[a] {
 						m |= 1 << i
 					}
 				}
 				aho.clusters = append(aho.clusters, m)
 			}
 			for _, tr := range tripsAt[a] {
-				ba, bb, bc := blockOf(lay.pos[tr.A]), blockOf(lay.pos[tr.B]), blockOf(lay.pos[tr.C])
+				ba, bb, bc := blockOf(lay.Pos[tr.A]), blockOf(lay.Pos[tr.B]), blockOf(lay.Pos[tr.C])
 				if ba == bb {
 					continue // a and b stay together inside their block
 				}

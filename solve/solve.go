@@ -4,9 +4,9 @@ import (
 	"errors"
 	"fmt"
 	"math"
-	"math/bits"
 	"strings"
 
+	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -145,7 +145,7 @@ func Satisfies(t *Tree, c *Constraints) []int {
 	}
 	lay := newLayout(t)
 	bad := map[int]bool{}
-	outside := func(l int32) bool { return l < 0 || int(l) >= t.N || lay.pos[l] < 0 }
+	outside := func(l int32) bool { return l < 0 || int(l) >= t.N || lay.Pos[l] < 0 }
 	for _, tr := range c.Triplets {
 		if outside(tr.A) || outside(tr.B) || outside(tr.C) {
 			bad[tr.Record] = true
@@ -158,8 +158,8 @@ func Satisfies(t *Tree, c *Constraints) []int {
 			bad[tr.Record] = true
 			continue
 		}
-		x := lay.lca(tr.A, tr.B)
-		y := lay.lcaPos(min(lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]), max(lay.pos[tr.A], lay.pos[tr.B], lay.pos[tr.C]))
+		x := lay.LCA(tr.A, tr.B)
+		y := lay.LCAPos(min(lay.Pos[tr.A], lay.Pos[tr.B], lay.Pos[tr.C]), max(lay.Pos[tr.A], lay.Pos[tr.B], lay.Pos[tr.C]))
 		if x == y {
 			bad[tr.Record] = true
 		}
@@ -178,15 +178,15 @@ func Satisfies(t *Tree, c *Constraints) []int {
 				break
 			}
 			seen[l] = true
-			lo = min(lo, lay.pos[l])
-			hi = max(hi, lay.pos[l])
+			lo = min(lo, lay.Pos[l])
+			hi = max(hi, lay.Pos[l])
 		}
 		if !ok {
 			bad[cl.Record] = true
 			continue
 		}
-		v := lay.lcaPos(lo, hi)
-		if int(lay.hi[v]-lay.lo[v]) != len(seen) {
+		v := lay.LCAPos(lo, hi)
+		if int(lay.Hi[v]-lay.Lo[v]) != len(seen) {
 			bad[cl.Record] = true
 		}
 	}
@@ -197,133 +197,11 @@ func Satisfies(t *Tree, c *Constraints) []int {
 	return uniqueInts(out)
 }
 
-// layout places the leaves of a tree in depth-first order so that every
-// node covers a contiguous range of positions. The gap g (between
-// positions g-1 and g) belongs to the lowest node containing both; the LCA
-// of positions p < q is the shallowest owner of the gaps p+1..q, found by a
-// sparse-table range minimum in O(1) per query.
-type layout struct {
-	t        *Tree
-	pos      []int32 // leaf → position (-1 if unreachable)
-	leafAt   []int32 // position → leaf
-	lo, hi   []int32 // node → its positions [lo, hi)
-	depth    []int32 // node → depth (root 0)
-	parent   []int32
-	gapNode  []int32   // gap g+1 → owning node
-	gapDepth []int32   // gap g+1 → depth of its owner
-	table    [][]int32 // table[k][g] = gap of minimum depth in [g, g+2^k)
-}
+// layout is the depth-first leaf order with O(1) lowest common ancestors
+// that the construction, the moves and the folding read trees by.
+type layout = hier.LCAIndex
 
-func newLayout(t *Tree) *layout {
-	nodes := t.NumNodes()
-	l := &layout{
-		t:      t,
-		pos:    make([]int32, t.N),
-		lo:     make([]int32, nodes),
-		hi:     make([]int32, nodes),
-		depth:  make([]int32, nodes),
-		parent: make([]int32, nodes),
-	}
-	for i := range l.pos {
-		l.pos[i] = -1
-	}
-	for i := range l.parent {
-		l.parent[i] = -1
-	}
-	gapDepthOf := make([]int32, 0, t.N)
-	l.gapNode = make([]int32, 0, t.N)
-	l.leafAt = make([]int32, 0, t.N)
-	if t.N == 0 {
-		return l
-	}
-	type frame struct {
-		v    int32
-		next int
-	}
-	stack := []frame{{t.Root, 0}}
-	l.lo[t.Root] = 0
-	for len(stack) > 0 {
-		f := &stack[len(stack)-1]
-		v := f.v
-		if t.IsLeaf(v) {
-			p := int32(len(l.leafAt))
-			l.pos[v] = p
-			l.leafAt = append(l.leafAt, v)
-			l.lo[v], l.hi[v] = p, p+1
-			stack = stack[:len(stack)-1]
-			continue
-		}
-		kids := t.Kids[v]
-		if f.next < len(kids) {
-			if f.next > 0 {
-				// The gap before the next child's first leaf belongs to v.
-				l.gapNode = append(l.gapNode, v)
-				gapDepthOf = append(gapDepthOf, l.depth[v])
-			} else {
-				l.lo[v] = int32(len(l.leafAt))
-			}
-			c := kids[f.next]
-			f.next++
-			l.parent[c] = v
-			l.depth[c] = l.depth[v] + 1
-			stack = append(stack, frame{c, 0})
-			continue
-		}
-		l.hi[v] = int32(len(l.leafAt))
-		stack = stack[:len(stack)-1]
-	}
-	// gapNode[i] describes gap i+1; index the table by gap-1.
-	m := len(l.gapNode)
-	if m == 0 {
-		return l
-	}
-	levels := bits.Len(uint(m))
-	l.table = make([][]int32, levels)
-	l.table[0] = make([]int32, m)
-	for i := range l.table[0] {
-		l.table[0][i] = int32(i)
-	}
-	for k := 1; k < levels; k++ {
-		prev := l.table[k-1]
-		cur := make([]int32, m-(1<<k)+1)
-		half := 1 << (k - 1)
-		for i := range cur {
-			a, b := prev[i], prev[i+half]
-			if gapDepthOf[b] < gapDepthOf[a] {
-				a = b
-			}
-			cur[i] = a
-		}
-		l.table[k] = cur
-	}
-	l.gapDepth = gapDepthOf
-	return l
-}
-
-// lcaPos returns the lowest common ancestor of the leaves at positions
-// p ≤ q.
-func (l *layout) lcaPos(p, q int32) int32 {
-	if p == q {
-		return l.leafAt[p]
-	}
-	// gaps p+1..q are table indices p..q-1
-	a, b := int(p), int(q-1)
-	k := bits.Len(uint(b-a+1)) - 1
-	x, y := l.table[k][a], l.table[k][b-(1<<k)+1]
-	if l.gapDepth[y] < l.gapDepth[x] {
-		x = y
-	}
-	return l.gapNode[x]
-}
-
-// lca returns the lowest common ancestor of leaves a and b.
-func (l *layout) lca(a, b int32) int32 {
-	p, q := l.pos[a], l.pos[b]
-	if p > q {
-		p, q = q, p
-	}
-	return l.lcaPos(p, q)
-}
+func newLayout(t *Tree) *layout { return hier.NewLCAIndex(t) }
 
 func priorForFold(opt Options) [][]int32 {
 	if opt.Stability > 0 {
