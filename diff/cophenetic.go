@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"slices"
 
-	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/hier"
 )
 
 // pairMoments are the sums over all leaf pairs {i, j} of the cophenetic
@@ -14,16 +14,16 @@ type pairMoments struct{ sum, sumSq u128 }
 
 // momentsOf counts, for every internal node v, the pairs whose lca is v:
 // C(|v|, 2) minus the pairs inside each child.
-func momentsOf(t *solve.Tree, x *treeIndex) pairMoments {
+func momentsOf(t *hier.Tree, x treeIndex) pairMoments {
 	var m pairMoments
-	for _, v := range x.post {
-		if int(v) < x.n {
+	for _, v := range x.Post {
+		if int(v) < x.N {
 			continue
 		}
-		s := int64(x.size(v))
+		s := int64(x.Size(v))
 		pairs := choose2(s)
 		for _, c := range t.Kids[v] {
-			pairs -= choose2(int64(x.size(c)))
+			pairs -= choose2(int64(x.Size(c)))
 		}
 		m.sum.addMul(uint64(s), uint64(pairs))
 		m.sumSq.addMul(uint64(s*s), uint64(pairs))
@@ -44,16 +44,16 @@ func momentsOf(t *solve.Tree, x *treeIndex) pairMoments {
 // parents, walking both ancestor chains once per group. When the chains
 // are long (deep binary trees) that walk could cost more than visiting
 // every pair, and the pair scan is used instead.
-func crossSum(x, y *treeIndex, mx, my pairMoments) *big.Int {
-	n := x.n
+func crossSum(x, y treeIndex, mx, my pairMoments) *big.Int {
+	n := x.N
 	type group struct{ px, py int32 }
 	counts := make(map[group]int64)
 	for c := int32(0); c < int32(n); c++ {
-		counts[group{x.parent[c], y.parent[c]}]++
+		counts[group{x.Parent[c], y.Parent[c]}]++
 	}
 	work := int64(0)
 	for g := range counts {
-		work += int64(x.depth[g.px]) * int64(y.depth[g.py])
+		work += int64(x.Depth[g.px]) * int64(y.Depth[g.py])
 	}
 	if work > int64(n)*int64(n)/2 {
 		return crossSumByPairs(x, y)
@@ -73,8 +73,8 @@ func crossSum(x, y *treeIndex, mx, my pairMoments) *big.Int {
 	shared := make(map[uint64]int64)
 	for _, g := range groups {
 		k := counts[g]
-		for w := g.px; x.parent[w] >= 0; w = x.parent[w] {
-			for v := g.py; y.parent[v] >= 0; v = y.parent[v] {
+		for w := g.px; x.Parent[w] >= 0; w = x.Parent[w] {
+			for v := g.py; y.Parent[v] >= 0; v = y.Parent[v] {
 				shared[uint64(w)<<32|uint64(v)] += k
 			}
 		}
@@ -82,8 +82,8 @@ func crossSum(x, y *treeIndex, mx, my pairMoments) *big.Int {
 	var tele u128
 	for key, inter := range shared {
 		w, v := int32(key>>32), int32(key&0xffffffff)
-		gx := int64(x.size(x.parent[w]) - x.size(w))
-		gy := int64(y.size(y.parent[v]) - y.size(v))
+		gx := int64(x.Size(x.Parent[w]) - x.Size(w))
+		gy := int64(y.Size(y.Parent[v]) - y.Size(v))
 		tele.addMul(uint64(gx*gy), uint64(choose2(inter)))
 	}
 	// Σ s_x s_y = Σ (n−s_x)(n−s_y) − n²·C(n,2) + n·Σs_x + n·Σs_y.
@@ -97,8 +97,8 @@ func crossSum(x, y *treeIndex, mx, my pairMoments) *big.Int {
 
 // crossSumByPairs visits every ordered pair once per tree path: for each
 // leaf a, the lca sizes with all other leaves follow from a's root paths.
-func crossSumByPairs(x, y *treeIndex) *big.Int {
-	n := x.n
+func crossSumByPairs(x, y treeIndex) *big.Int {
+	n := x.N
 	levelY := make([]int32, n)
 	var pathX, pathY []int32
 	var twice u128
@@ -107,9 +107,9 @@ func crossSumByPairs(x, y *treeIndex) *big.Int {
 		y.labelLevels(pathY, levelY)
 		pathX = x.ancestors(a, pathX)
 		for k := 1; k < len(pathX); k++ {
-			sx := uint64(x.size(pathX[k]))
+			sx := uint64(x.Size(pathX[k]))
 			x.eachNewlyCovered(pathX, k, func(b int32) {
-				twice.addMul(sx, uint64(y.size(pathY[levelY[b]])))
+				twice.addMul(sx, uint64(y.Size(pathY[levelY[b]])))
 			})
 		}
 	}
@@ -121,8 +121,8 @@ func crossSumByPairs(x, y *treeIndex) *big.Int {
 // y from exact integer moments:
 //
 //	r = (P·Σxy − Σx·Σy) / √((P·Σx² − (Σx)²)(P·Σy² − (Σy)²)),  P = C(n, 2).
-func cophenetic(a, b *solve.Tree, x, y *treeIndex) (float64, bool) {
-	n := x.n
+func cophenetic(a, b *hier.Tree, x, y treeIndex) (float64, bool) {
+	n := x.N
 	if n < 2 {
 		return 0, false
 	}

@@ -3,8 +3,8 @@ package diff
 import (
 	"fmt"
 
+	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/review/bounds"
-	"github.com/ramify-tax/ramify/solve"
 )
 
 // TripletAgreement is the share of the C(n, 3) leaf triples whose induced
@@ -21,7 +21,7 @@ import (
 // inclusion–exclusion
 // (see countTriplets). For large n use TripletAgreementSampled.
 // It panics if the trees are over different numbers of leaves or malformed.
-func TripletAgreement(a, b *solve.Tree) float64 {
+func TripletAgreement(a, b *hier.Tree) float64 {
 	mustMatch(a, b)
 	if a.N < 3 {
 		return 1
@@ -36,7 +36,7 @@ func TripletAgreement(a, b *solve.Tree) float64 {
 // interval. Each sample costs O(1) after O(m log m) preparation; 10,000
 // samples give an interval about ±0.01 wide at worst. With fewer than three
 // leaves it returns 1, 1, 1. It panics if samples < 1.
-func TripletAgreementSampled(a, b *solve.Tree, samples int, seed uint64) (est, lo, hi float64) {
+func TripletAgreementSampled(a, b *hier.Tree, samples int, seed uint64) (est, lo, hi float64) {
 	mustMatch(a, b)
 	if samples < 1 {
 		panic(fmt.Sprintf("diff: %d triplet samples", samples))
@@ -45,7 +45,7 @@ func TripletAgreementSampled(a, b *solve.Tree, samples int, seed uint64) (est, l
 		return 1, 1, 1
 	}
 	x, y := newTreeIndex(a), newTreeIndex(b)
-	agree := int(sampleTriplets(newLCATable(a, x), newLCATable(b, y), a.N, samples, seed).agreeing())
+	agree := int(sampleTriplets(x.WithLCA(), y.WithLCA(), a.N, samples, seed).agreeing())
 	lo, hi = bounds.ClopperPearson(agree, samples, 0.95)
 	return float64(agree) / float64(samples), lo, hi
 }
@@ -62,7 +62,7 @@ func TripletAgreementSampled(a, b *solve.Tree, samples int, seed uint64) (est, l
 //
 // Clusters are hashed in O(n) (XOR of random per-leaf keys) and every hash
 // match is confirmed as set equality, so the result is exact.
-func RF(a, b *solve.Tree) (dist int, normalized float64) {
+func RF(a, b *hier.Tree) (dist int, normalized float64) {
 	mustMatch(a, b)
 	x, y := newTreeIndex(a), newTreeIndex(b)
 	na, nb, shared := rfCounts(a, b, x, y)
@@ -82,7 +82,7 @@ func RF(a, b *solve.Tree) (dist int, normalized float64) {
 //
 // The sums are exact integers; shallow trees take time proportional to the
 // number of intersecting node pairs, deep ones O(n²).
-func CopheneticCorrelation(a, b *solve.Tree) (float64, bool) {
+func CopheneticCorrelation(a, b *hier.Tree) (float64, bool) {
 	mustMatch(a, b)
 	return cophenetic(a, b, newTreeIndex(a), newTreeIndex(b))
 }
@@ -96,7 +96,7 @@ func CopheneticCorrelation(a, b *solve.Tree) (float64, bool) {
 // reference that resolves nothing for recall. The counts are exact, by the
 // pair method of TripletAgreement, in O(n² log d) time and O(n) memory.
 // It panics if the trees are over different numbers of leaves.
-func TripletScores(tree, ref *solve.Tree) (precision, recall float64) {
+func TripletScores(tree, ref *hier.Tree) (precision, recall float64) {
 	mustMatch(tree, ref)
 	if tree.N < 3 {
 		return 1, 1
@@ -107,7 +107,7 @@ func TripletScores(tree, ref *solve.Tree) (precision, recall float64) {
 // TripletScoresSampled estimates TripletScores from samples random triples
 // drawn as TripletAgreementSampled draws them (same seed, same triples).
 // It panics if samples < 1.
-func TripletScoresSampled(tree, ref *solve.Tree, samples int, seed uint64) (precision, recall float64) {
+func TripletScoresSampled(tree, ref *hier.Tree, samples int, seed uint64) (precision, recall float64) {
 	mustMatch(tree, ref)
 	if samples < 1 {
 		panic(fmt.Sprintf("diff: %d triplet samples", samples))
@@ -116,7 +116,7 @@ func TripletScoresSampled(tree, ref *solve.Tree, samples int, seed uint64) (prec
 		return 1, 1
 	}
 	x, y := newTreeIndex(tree), newTreeIndex(ref)
-	return sampleTriplets(newLCATable(tree, x), newLCATable(ref, y), tree.N, samples, seed).scores()
+	return sampleTriplets(x.WithLCA(), y.WithLCA(), tree.N, samples, seed).scores()
 }
 
 // scores are precision (of the first tree's resolved triples, the share

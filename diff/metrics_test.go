@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/hier"
 )
 
 // Small tree pairs whose RF distance (Robinson & Foulds 1981), triplet
@@ -18,7 +18,7 @@ func TestMetricsSmallTrees(t *testing.T) {
 	one5 := one8[:5]
 	tests := []struct {
 		name        string
-		t1, t2      *solve.Tree
+		t1, t2      *hier.Tree
 		rf          int
 		differ      int64
 		triples     int64
@@ -77,7 +77,7 @@ func TestTripletAgreementSmallN(t *testing.T) {
 	for n := 0; n < 3; n++ {
 		tr := randomTree(rand.New(rand.NewPCG(3, 4)), max(n, 1), 0, 0)
 		if n == 0 {
-			tr = solve.NewTree(0)
+			tr = hier.NewTree(0)
 		}
 		if got := TripletAgreement(tr, tr); got != 1 {
 			t.Errorf("TripletAgreement on %d leaves = %v, want 1", n, got)
@@ -187,17 +187,17 @@ func TestCopheneticMatchesBruteForce(t *testing.T) {
 }
 
 // usesTelescope repeats crossSum's choice of method.
-func usesTelescope(x, y *treeIndex) bool {
+func usesTelescope(x, y treeIndex) bool {
 	work := int64(0)
 	seen := map[[2]int32]bool{}
-	for c := int32(0); c < int32(x.n); c++ {
-		g := [2]int32{x.parent[c], y.parent[c]}
+	for c := int32(0); c < int32(x.N); c++ {
+		g := [2]int32{x.Parent[c], y.Parent[c]}
 		if !seen[g] {
 			seen[g] = true
-			work += int64(x.depth[g[0]]) * int64(y.depth[g[1]])
+			work += int64(x.Depth[g[0]]) * int64(y.Depth[g[1]])
 		}
 	}
-	return work <= int64(x.n)*int64(x.n)/2
+	return work <= int64(x.N)*int64(x.N)/2
 }
 
 func TestMetricsPanicOnMismatchedTrees(t *testing.T) {

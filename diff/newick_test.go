@@ -4,20 +4,20 @@ import (
 	"fmt"
 	"strings"
 
-	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/hier"
 )
 
 // parseNewick is a test-only reader for plain Newick without branch
 // lengths: "((a,b),c);". Leaves get ids by their position in labels; an
 // internal node may carry a label after ")" that is ignored.
-func parseNewick(s string, labels []string) (*solve.Tree, error) {
+func parseNewick(s string, labels []string) (*hier.Tree, error) {
 	id := map[string]int32{}
 	for i, l := range labels {
 		id[l] = int32(i)
 	}
 	s = strings.TrimSpace(s)
 	s = strings.TrimSuffix(s, ";")
-	t := solve.NewTree(len(labels))
+	t := hier.NewTree(len(labels))
 	p := &newickParser{src: s, id: id, t: t, seen: map[int32]bool{}}
 	root, err := p.node()
 	if err != nil {
@@ -37,7 +37,7 @@ type newickParser struct {
 	src  string
 	i    int
 	id   map[string]int32
-	t    *solve.Tree
+	t    *hier.Tree
 	seen map[int32]bool
 }
 
@@ -95,7 +95,7 @@ func (p *newickParser) node() (int32, error) {
 }
 
 // mustNewick parses s over the leaves named by labels and panics on error.
-func mustNewick(s string, labels ...string) *solve.Tree {
+func mustNewick(s string, labels ...string) *hier.Tree {
 	t, err := parseNewick(s, labels)
 	if err != nil {
 		panic(err)

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
-	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/hier"
 )
 
 // naiveTree answers lca queries by walking parent pointers: slow and
@@ -16,7 +16,7 @@ type naiveTree struct {
 	size   []int
 }
 
-func newNaive(t *solve.Tree) *naiveTree {
+func newNaive(t *hier.Tree) *naiveTree {
 	m := len(t.Kids)
 	nt := &naiveTree{parent: make([]int32, m), depth: make([]int32, m), size: t.Sizes()}
 	for i := range nt.parent {
@@ -73,7 +73,7 @@ func (nt *naiveTree) topology(p, q, r int32) int {
 }
 
 // bruteTripletAgreement compares all C(n,3) triples: O(n³ · depth).
-func bruteTripletAgreement(a, b *solve.Tree) float64 {
+func bruteTripletAgreement(a, b *hier.Tree) float64 {
 	n := int32(a.N)
 	if n < 3 {
 		return 1
@@ -94,7 +94,7 @@ func bruteTripletAgreement(a, b *solve.Tree) float64 {
 }
 
 // bruteClusters lists the distinct non-trivial leaf sets as sorted keys.
-func bruteClusters(t *solve.Tree) map[string]bool {
+func bruteClusters(t *hier.Tree) map[string]bool {
 	out := map[string]bool{}
 	for _, v := range t.PostOrder() {
 		if t.IsLeaf(v) {
@@ -114,7 +114,7 @@ func bruteClusters(t *solve.Tree) map[string]bool {
 	return out
 }
 
-func bruteRF(a, b *solve.Tree) int {
+func bruteRF(a, b *hier.Tree) int {
 	ca, cb := bruteClusters(a), bruteClusters(b)
 	d := 0
 	for k := range ca {
@@ -132,7 +132,7 @@ func bruteRF(a, b *solve.Tree) int {
 
 // bruteCophenetic computes Pearson's r over all pairs in float64, the
 // textbook two-pass way.
-func bruteCophenetic(a, b *solve.Tree) (float64, bool) {
+func bruteCophenetic(a, b *hier.Tree) (float64, bool) {
 	na, nb := newNaive(a), newNaive(b)
 	var xs, ys []float64
 	for p := int32(0); p < int32(a.N); p++ {
@@ -169,7 +169,7 @@ func bruteCophenetic(a, b *solve.Tree) (float64, bool) {
 // each internal node is contracted into its parent with probability
 // collapse (making it multiway), and with probability unary a single-child
 // node is inserted above a node.
-func randomTree(rng *rand.Rand, n int, collapse, unary float64) *solve.Tree {
+func randomTree(rng *rand.Rand, n int, collapse, unary float64) *hier.Tree {
 	// Merge random pairs into a binary tree, as parent lists.
 	type node struct{ kids []int }
 	nodes := make([]node, n)
@@ -192,7 +192,7 @@ func randomTree(rng *rand.Rand, n int, collapse, unary float64) *solve.Tree {
 		active = append(active[:j], active[j+1:]...)
 	}
 	root := active[0]
-	t := solve.NewTree(n)
+	t := hier.NewTree(n)
 	var build func(v int) []int32
 	// build returns the ids to hang under the parent: a contracted node
 	// hands up its children instead of itself.

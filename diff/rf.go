@@ -3,7 +3,7 @@ package diff
 import (
 	"math/rand/v2"
 
-	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/hier"
 )
 
 // clusterSet lists a tree's distinct non-trivial clusters (leaf sets of
@@ -30,10 +30,10 @@ func leafKeys(n int) []uint64 {
 // clusters hashes every node bottom-up (XOR of its children) and keeps one
 // node per distinct non-trivial leaf set. A chain of single-child nodes
 // shares one leaf set; only its lowest node is kept.
-func clusters(t *solve.Tree, x *treeIndex, keys []uint64) clusterSet {
+func clusters(t *hier.Tree, x treeIndex, keys []uint64) clusterSet {
 	cs := clusterSet{hash: make([]uint64, len(t.Kids))}
-	for _, v := range x.post {
-		if int(v) < x.n {
+	for _, v := range x.Post {
+		if int(v) < x.N {
 			cs.hash[v] = keys[v]
 			continue
 		}
@@ -42,11 +42,11 @@ func clusters(t *solve.Tree, x *treeIndex, keys []uint64) clusterSet {
 			h ^= cs.hash[c]
 		}
 		cs.hash[v] = h
-		s := x.size(v)
-		if s < 2 || int(s) >= x.n {
+		s := x.Size(v)
+		if s < 2 || int(s) >= x.N {
 			continue
 		}
-		if kids := t.Kids[v]; len(kids) == 1 && x.size(kids[0]) == s {
+		if kids := t.Kids[v]; len(kids) == 1 && x.Size(kids[0]) == s {
 			continue
 		}
 		cs.nodes = append(cs.nodes, v)
@@ -60,8 +60,8 @@ func clusters(t *solve.Tree, x *treeIndex, keys []uint64) clusterSet {
 // leaf order, all fall in v's range and the sizes agree, so the sets are
 // equal (positions are distinct). The positions' minimum and maximum per
 // node of a are computed bottom-up, so confirmation costs O(1).
-func rfCounts(a, b *solve.Tree, x, y *treeIndex) (na, nb, shared int) {
-	keys := leafKeys(x.n)
+func rfCounts(a, b *hier.Tree, x, y treeIndex) (na, nb, shared int) {
+	keys := leafKeys(x.N)
 	ca, cb := clusters(a, x, keys), clusters(b, y, keys)
 	byHash := make(map[uint64][]int32, len(cb.nodes))
 	for _, v := range cb.nodes {
@@ -69,12 +69,12 @@ func rfCounts(a, b *solve.Tree, x, y *treeIndex) (na, nb, shared int) {
 	}
 	minPos := make([]int32, len(a.Kids))
 	maxPos := make([]int32, len(a.Kids))
-	for _, u := range x.post {
-		if int(u) < x.n {
-			minPos[u], maxPos[u] = y.pos[u], y.pos[u]
+	for _, u := range x.Post {
+		if int(u) < x.N {
+			minPos[u], maxPos[u] = y.Pos[u], y.Pos[u]
 			continue
 		}
-		lo, hi := int32(len(y.pos)), int32(-1)
+		lo, hi := int32(len(y.Pos)), int32(-1)
 		for _, c := range a.Kids[u] {
 			lo, hi = min(lo, minPos[c]), max(hi, maxPos[c])
 		}
@@ -82,7 +82,7 @@ func rfCounts(a, b *solve.Tree, x, y *treeIndex) (na, nb, shared int) {
 	}
 	for _, u := range ca.nodes {
 		for _, v := range byHash[ca.hash[u]] {
-			if x.size(u) == y.size(v) && minPos[u] >= y.lo[v] && maxPos[u] < y.hi[v] {
+			if x.Size(u) == y.Size(v) && minPos[u] >= y.Lo[v] && maxPos[u] < y.Hi[v] {
 				shared++
 				break
 			}

@@ -1,39 +1,25 @@
 package diff
 
-import "github.com/ramify-tax/ramify/solve"
+import "github.com/ramify-tax/ramify/hier"
 
-// solveTree turns a flattened outline into a solve.Tree over the common
-// items: leaf i is common item i, held by category catOf[i]; one internal
-// node per category with at least one common member; empty categories are
-// dropped. Children come before parents, as solve.Tree.Add needs.
-func (t *flatTree) solveTree(catOf []int) *solve.Tree {
-	tr := solve.NewTree(len(catOf))
-	if len(catOf) == 0 {
-		return tr
+// solveTree turns a flattened outline into a tree over the common items
+// by hier.KeepingChains: leaf i is common item i, held by category
+// catOf[i]; every category with a common item below it is a node of its
+// own, single-child ones too; empty categories are dropped.
+func (t *flatTree) solveTree(catOf []int) *hier.Tree {
+	children := make([][]int32, len(t.cats))
+	for id := 1; id < len(t.cats); id++ {
+		p := t.parent[id]
+		children[p] = append(children[p], int32(id))
 	}
-	node := make([]int32, len(t.cats))
-	kids := make([][]int32, len(t.cats))
+	held := make([][]int32, len(t.cats))
 	for i, c := range catOf {
-		kids[c] = append(kids[c], int32(i))
+		held[c] = append(held[c], int32(i))
 	}
-	// Walk order lists parents before children; reversed, children first.
-	for id := len(t.cats) - 1; id >= 0; id-- {
-		if len(kids[id]) == 0 {
-			node[id] = -1
-			continue
-		}
-		node[id] = tr.Add(kids[id]...)
-		kids[id] = nil
-		if p := t.parent[id]; p >= 0 {
-			kids[p] = append(kids[p], node[id])
-		}
-	}
-	// A single common item at the root is itself the whole tree.
-	if len(catOf) == 1 {
-		tr.Root = 0
-		return tr
-	}
-	tr.Root = node[0]
+	tr, _ := hier.KeepingChains(0, len(catOf), hier.Nested[int32]{
+		Children: func(c int32) []int32 { return children[c] },
+		Leaves:   func(c int32, buf []int32) []int32 { return append(buf, held[c]...) },
+	})
 	return tr
 }
 

@@ -2,6 +2,8 @@ package diff
 
 import (
 	"math/rand/v2"
+
+	"github.com/ramify-tax/ramify/hier"
 )
 
 // tripletCounts are the numbers of leaf triples by how two trees resolve
@@ -41,8 +43,8 @@ func (c tripletCounts) agreeing() int64 {
 // l(c) on a's root path in y; |A ∩ B| and |A ∩ P_a| are then the numbers of
 // leaves with k ≤ k(b) and l ≤ l(b) (or l(b) − 1), answered by a Fenwick
 // tree over l while the leaves are added in order of k.
-func countTriplets(x, y *treeIndex) tripletCounts {
-	n := x.n
+func countTriplets(x, y treeIndex) tripletCounts {
+	n := x.N
 	c := tripletCounts{total: choose3(int64(n))}
 	if n < 3 {
 		return c
@@ -58,14 +60,14 @@ func countTriplets(x, y *treeIndex) tripletCounts {
 		y.labelLevels(pathY, levelY)
 		sizeY = sizeY[:0]
 		for _, v := range pathY {
-			sizeY = append(sizeY, y.size(v))
+			sizeY = append(sizeY, y.Size(v))
 		}
 		pathX = x.ancestors(a, pathX)
 		fen.reset(len(pathY))
 		fen.add(0) // a itself is in every set on both paths
 		for k := 1; k < len(pathX); k++ {
 			x.eachNewlyCovered(pathX, k, func(b int32) { fen.add(levelY[b]) })
-			sizeA := int64(x.size(pathX[k]))
+			sizeA := int64(x.Size(pathX[k]))
 			x.eachNewlyCovered(pathX, k, func(b int32) {
 				l := levelY[b]
 				inter := int64(fen.atMost(l))      // |A ∩ B|
@@ -87,8 +89,8 @@ func countTriplets(x, y *treeIndex) tripletCounts {
 // 2 for pr|q, 3 for qr|p, 0 for unresolved. Of the three pairwise lowest
 // common ancestors, two are the lca of all three; the third, if different,
 // lies below it and names the cherry.
-func tripletTopology(t *lcaTable, p, q, r int32) int {
-	pq, pr, qr := t.lca(p, q), t.lca(p, r), t.lca(q, r)
+func tripletTopology(t *hier.LCAIndex, p, q, r int32) int {
+	pq, pr, qr := t.LCA(p, q), t.LCA(p, r), t.LCA(q, r)
 	switch {
 	case pq == pr && pr == qr:
 		return 0
@@ -106,7 +108,7 @@ func tripletTopology(t *lcaTable, p, q, r int32) int {
 // total is the number of draws, sameSplit those resolved alike, resolvedA
 // and resolvedB those each tree resolves, and agreeing() those with the
 // same topology in both trees.
-func sampleTriplets(x, y *lcaTable, n, samples int, seed uint64) tripletCounts {
+func sampleTriplets(x, y *hier.LCAIndex, n, samples int, seed uint64) tripletCounts {
 	rng := rand.New(rand.NewPCG(seed, samplingStream))
 	c := tripletCounts{total: int64(samples)}
 	for range samples {
