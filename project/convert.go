@@ -4,6 +4,7 @@ import (
 	"slices"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve"
 )
 
@@ -56,42 +57,24 @@ func CategoryNodes(root *format.Category, index map[string]int, n int) (*solve.T
 	return categoryNodes(root, index, n, false)
 }
 
-// categoryNodes builds the tree; keepChains gives every category a node of
-// its own, single-child ones too.
+// categoryNodes builds the tree by the chain rule keepChains asks for
+// (hier.KeepingChains or hier.CollapsingChains).
 func categoryNodes(root *format.Category, index map[string]int, n int, keepChains bool) (*solve.Tree, map[*format.Category]int32) {
-	t := solve.NewTree(n)
-	nodes := map[*format.Category]int32{}
-	var build func(c *format.Category) (int32, bool)
-	build = func(c *format.Category) (int32, bool) {
-		var kids []int32
-		for _, ch := range c.Children {
-			if id, ok := build(ch); ok {
-				kids = append(kids, id)
+	in := hier.Nested[*format.Category]{
+		Children: func(c *format.Category) []*format.Category { return c.Children },
+		Leaves: func(c *format.Category, buf []int32) []int32 {
+			for _, it := range c.Items {
+				if i, ok := index[it]; ok {
+					buf = append(buf, int32(i))
+				}
 			}
-		}
-		for _, it := range c.Items {
-			if i, ok := index[it]; ok {
-				kids = append(kids, int32(i))
-			}
-		}
-		var id int32
-		switch {
-		case keepChains && (len(kids) > 0 || c == root):
-			id = t.Add(kids...)
-		case len(kids) == 0:
-			return 0, false
-		case len(kids) == 1:
-			id = kids[0]
-		default:
-			id = t.Add(kids...)
-		}
-		nodes[c] = id
-		return id, true
+			return buf
+		},
 	}
-	if r, ok := build(root); ok {
-		t.Root = r
+	if keepChains {
+		return hier.KeepingChains(root, n, in)
 	}
-	return t, nodes
+	return hier.CollapsingChains(root, n, in)
 }
 
 // CategoryTree is FromCategory that keeps every category as a node of its
