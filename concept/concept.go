@@ -9,8 +9,8 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve/naming"
 )
 
@@ -24,7 +24,7 @@ type Counts struct {
 // Carry gives every category below root an identifier, in place. A
 // category that has one keeps it. Otherwise the categories of each
 // previous version, in the order given, are matched to root's by
-// diff.MatchClusters on the Jaccard overlap of their members (all items
+// match.Clusters on the Jaccard overlap of their members (all items
 // below them, counting only items both trees hold), kept at
 // naming.CarryJaccard — the matching that carries names — and a matched
 // category takes the old identifier. Every other category gets
@@ -50,8 +50,8 @@ func Carry(root *format.Category, prevs ...*format.Category) Counts {
 			continue
 		}
 		old := walkOrder(prev)
-		oldSets, curSets := diff.CommonSets(prev, root)
-		for _, p := range diff.MatchClusters(oldSets, curSets, naming.CarryJaccard) {
+		oldSets, curSets := naming.CommonSets(prev, root)
+		for _, p := range match.Clusters(oldSets, curSets, naming.CarryJaccard) {
 			id := old[p.Old].ID
 			if id == "" || taken[id] || cur[p.New].ID != "" {
 				continue

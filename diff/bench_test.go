@@ -5,6 +5,8 @@ import (
 	"math/rand/v2"
 	"strconv"
 	"testing"
+
+	"github.com/ramify-tax/ramify/match"
 )
 
 // BenchmarkCompare100k measures the project's speed target: a semantic diff
@@ -53,6 +55,6 @@ func BenchmarkMatchClusters(b *testing.B) {
 	c := newComparison(old, perturb(rng, old, 0.01, 0))
 	b.ResetTimer()
 	for b.Loop() {
-		MatchClusters(c.old.members[1:], c.new.members[1:], MatchJaccard)
+		match.Clusters(c.old.members[1:], c.new.members[1:], MatchJaccard)
 	}
 }

@@ -9,9 +9,10 @@ import (
 	"github.com/google/go-cmp/cmp"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 )
 
-// naiveCommonSets is the definition CommonSets implements, written out
+// naiveCommonSets is the definition match.CommonSets implements, written out
 // the slow way: every category's items as strings, the items both trees
 // hold in some category, numbered in id order.
 func naiveCommonSets(oldRoot, newRoot *format.Category) (oldSets, newSets [][]int32) {
@@ -65,7 +66,7 @@ func naiveCommonSets(oldRoot, newRoot *format.Category) (oldSets, newSets [][]in
 
 // TestCommonSetsMatchesDefinition: on random trees and perturbations of
 // them, with items placed in the root itself on either side (which do not
-// count), CommonSets gives the sets of the definition.
+// count), match.CommonSets gives the sets of the definition.
 func TestCommonSetsMatchesDefinition(t *testing.T) {
 	for seed := range uint64(12) {
 		rng := rand.New(rand.NewPCG(seed, 7))
@@ -89,13 +90,15 @@ func TestCommonSetsMatchesDefinition(t *testing.T) {
 			c = some(old)
 			c.Items = append(c.Items, y)
 		}
-		gotOld, gotNew := CommonSets(old, cur)
+		gotOld, gotNew := match.CommonSets(old, cur,
+			func(c *format.Category) []*format.Category { return c.Children },
+			func(c *format.Category) []string { return c.Items })
 		wantOld, wantNew := naiveCommonSets(old, cur)
 		eq := func(a, b [][]int32) bool {
 			return len(a) == len(b) && slices.EqualFunc(a, b, func(x, y []int32) bool { return len(x) == 0 && len(y) == 0 || slices.Equal(x, y) })
 		}
 		if !eq(gotOld, wantOld) || !eq(gotNew, wantNew) {
-			t.Fatalf("seed %d: CommonSets differs from the definition", seed)
+			t.Fatalf("seed %d: match.CommonSets differs from the definition", seed)
 		}
 	}
 }

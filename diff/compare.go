@@ -4,6 +4,7 @@ import (
 	"slices"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 )
 
 // comparison holds the two flattened trees, their common items and the
@@ -13,11 +14,11 @@ type comparison struct {
 	common   []string // items in both, sorted
 	oldCat   []int    // category of each common item in the old tree
 	newCat   []int    // and in the new
-	onlyOld  []placedItem
-	onlyNew  []placedItem
+	onlyOld  []match.Placed
+	onlyNew  []match.Placed
 	// overlap lists, per old category (index = id − 1), the new categories
 	// sharing members with it and how many.
-	overlap candidateGraph
+	overlap match.Candidates
 	// byNew lists the same overlaps per new category: (old id, count).
 	byNew    [][]catShare
 	matchOld []int // new category matched to each old one, −1 if none
@@ -37,14 +38,14 @@ func newComparison(oldRoot, newRoot *format.Category) *comparison {
 	// The root (id 0) takes no part in matching.
 	// Where overlaps tie exactly (a category and its only subcategory hold
 	// the same items), the pair with equal names wins.
-	c.overlap = candidates(c.old.members[1:], c.new.members[1:], func(r, x int) bool {
+	c.overlap = match.FindCandidates(c.old.members[1:], c.new.members[1:], func(r, x int) bool {
 		return c.old.cats[r+1].DisplayName() != c.new.cats[x+1].DisplayName()
 	})
 	c.byNew = make([][]catShare, len(c.new.cats))
 	for r := range len(c.old.cats) - 1 {
-		for e := c.overlap.start[r]; e < c.overlap.start[r+1]; e++ {
-			x := c.overlap.edges[e]
-			c.byNew[x.col+1] = append(c.byNew[x.col+1], catShare{r + 1, x.inter})
+		for e := c.overlap.Start[r]; e < c.overlap.Start[r+1]; e++ {
+			x := c.overlap.Edges[e]
+			c.byNew[x.Col+1] = append(c.byNew[x.Col+1], catShare{r + 1, x.Inter})
 		}
 	}
 	c.matchOld = make([]int, len(c.old.cats))
@@ -55,13 +56,13 @@ func newComparison(oldRoot, newRoot *format.Category) *comparison {
 	for i := range c.matchNew {
 		c.matchNew[i] = -1
 	}
-	for r, e := range assign(len(c.old.cats)-1, len(c.new.cats)-1, c.overlap) {
+	for r, e := range match.Assign(len(c.old.cats)-1, len(c.new.cats)-1, c.overlap) {
 		if e < 0 {
 			continue
 		}
-		x := c.overlap.edges[e]
-		if float64(x.inter)/float64(x.union) >= MatchJaccard {
-			c.matchOld[r+1], c.matchNew[x.col+1] = int(x.col)+1, r+1
+		x := c.overlap.Edges[e]
+		if float64(x.Inter)/float64(x.Union) >= MatchJaccard {
+			c.matchOld[r+1], c.matchNew[x.Col+1] = int(x.Col)+1, r+1
 		}
 	}
 	return c
@@ -70,7 +71,7 @@ func newComparison(oldRoot, newRoot *format.Category) *comparison {
 func (c *comparison) added() []AddedItem {
 	out := make([]AddedItem, 0, len(c.onlyNew))
 	for _, it := range c.onlyNew {
-		out = append(out, AddedItem{Item: it.id, To: c.new.path[it.cat]})
+		out = append(out, AddedItem{Item: it.ID, To: c.new.path[it.Cat]})
 	}
 	return out
 }
@@ -78,7 +79,7 @@ func (c *comparison) added() []AddedItem {
 func (c *comparison) removed() []RemovedItem {
 	out := make([]RemovedItem, 0, len(c.onlyOld))
 	for _, it := range c.onlyOld {
-		out = append(out, RemovedItem{Item: it.id, From: c.old.path[it.cat]})
+		out = append(out, RemovedItem{Item: it.ID, From: c.old.path[it.Cat]})
 	}
 	return out
 }
@@ -214,10 +215,10 @@ func (c *comparison) splitsAndMerges() ([]Split, []Merge) {
 	c.pieceOld = make([]bool, len(c.old.cats))
 	for a := 1; a < len(c.old.cats); a++ {
 		r := a - 1
-		shares := make([]catShare, 0, c.overlap.start[r+1]-c.overlap.start[r])
-		for e := c.overlap.start[r]; e < c.overlap.start[r+1]; e++ {
-			x := c.overlap.edges[e]
-			shares = append(shares, catShare{int(x.col) + 1, x.inter})
+		shares := make([]catShare, 0, c.overlap.Start[r+1]-c.overlap.Start[r])
+		for e := c.overlap.Start[r]; e < c.overlap.Start[r+1]; e++ {
+			x := c.overlap.Edges[e]
+			shares = append(shares, catShare{int(x.Col) + 1, x.Inter})
 		}
 		if into, ok := brokenUp(a, c.old, c.new, shares, c.matchNew, c.pieceNew); ok {
 			c.splitOf[a] = true
@@ -256,38 +257,9 @@ func (c *comparison) createdAndDissolved() (created, dissolved []Path) {
 // common[i] is item i) and fills each category's members with them.
 func commonItems(old, new *flatTree) *comparison {
 	c := &comparison{old: old, new: new}
-	// Both item lists are sorted by id: merge them.
-	a, b := c.old.items, c.new.items
-	for len(a) > 0 || len(b) > 0 {
-		switch {
-		case len(b) == 0 || len(a) > 0 && a[0].id < b[0].id:
-			c.onlyOld = append(c.onlyOld, a[0])
-			a = a[1:]
-		case len(a) == 0 || b[0].id < a[0].id:
-			c.onlyNew = append(c.onlyNew, b[0])
-			b = b[1:]
-		default:
-			c.common = append(c.common, a[0].id)
-			c.oldCat = append(c.oldCat, a[0].cat)
-			c.newCat = append(c.newCat, b[0].cat)
-			a, b = a[1:], b[1:]
-		}
-	}
-	c.old.setMembers(c.oldCat)
-	c.new.setMembers(c.newCat)
+	s := match.Common(old.items, new.items)
+	c.common, c.oldCat, c.newCat, c.onlyOld, c.onlyNew = s.IDs, s.OldCat, s.NewCat, s.OnlyOld, s.OnlyNew
+	c.old.members = match.Members(c.old.parent, c.oldCat)
+	c.new.members = match.Members(c.new.parent, c.newCat)
 	return c
-}
-
-// CommonSets lists, for every category below each root in walk order, the
-// items below it that both trees hold in some category (items placed in a
-// root itself do not count), as ascending indices into those items sorted
-// by id: the sets MatchClusters compares. Each item is looked at once per
-// tree, not once per category that holds it.
-func CommonSets(oldRoot, newRoot *format.Category) (oldSets, newSets [][]int32) {
-	inRoot := func(it placedItem) bool { return it.cat == 0 }
-	old, new := flatten(oldRoot), flatten(newRoot)
-	old.items = slices.DeleteFunc(old.items, inRoot)
-	new.items = slices.DeleteFunc(new.items, inRoot)
-	c := commonItems(old, new)
-	return c.old.members[1:], c.new.members[1:]
 }

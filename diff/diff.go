@@ -147,7 +147,7 @@ const (
 // items"), so growth by new items does not change a category's identity.
 //
 //   - Added, removed: items in only one of the outlines.
-//   - Matched: old and new categories are paired by MatchClusters on the
+//   - Matched: old and new categories are paired by match.Clusters on the
 //     Jaccard overlap of their members, kept at ≥ MatchJaccard. Where the
 //     overlaps tie exactly (a category and its only subcategory hold the
 //     same items), pairs with equal display names are preferred. The root

@@ -1,7 +1,6 @@
 package diff_test
 
 import (
-	"fmt"
 	"os"
 
 	"github.com/ramify-tax/ramify/diff"
@@ -30,15 +29,4 @@ func ExampleCompare() {
 	// > moved 1 item
 	//     Hand tools  ->  Measuring
 	//       tape-measure-8m
-}
-
-func ExampleMatchClusters() {
-	old := [][]int32{{0, 1, 2, 3}, {4, 5}}
-	new := [][]int32{{0, 1, 2}, {3, 4, 5}}
-	for _, p := range diff.MatchClusters(old, new, 0.5) {
-		fmt.Printf("old %d -> new %d (Jaccard %.2f)\n", p.Old, p.New, p.Jaccard)
-	}
-	// Output:
-	// old 0 -> new 0 (Jaccard 0.75)
-	// old 1 -> new 1 (Jaccard 0.67)
 }

@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 )
 
 // flatTree is a format tree laid out for comparison. Category 0 is the
@@ -12,15 +13,9 @@ import (
 type flatTree struct {
 	cats    []*format.Category
 	parent  []int
-	path    []Path       // display names from the top level down; root: empty
-	items   []placedItem // every item with its category, sorted by id
-	members [][]int32    // common items below each category, ascending
-}
-
-// placedItem is an item and the category that holds it directly.
-type placedItem struct {
-	id  string
-	cat int
+	path    []Path         // display names from the top level down; root: empty
+	items   []match.Placed // every item with its category, sorted by id
+	members [][]int32      // common items below each category, ascending
 }
 
 func flatten(root *format.Category) *flatTree {
@@ -42,13 +37,13 @@ func flatten(root *format.Category) *flatTree {
 		}
 		t.path = append(t.path, p)
 		for _, it := range f.c.Items {
-			t.items = append(t.items, placedItem{it, id})
+			t.items = append(t.items, match.Placed{ID: it, Cat: id})
 		}
 		for i := len(f.c.Children) - 1; i >= 0; i-- {
 			stack = append(stack, frame{f.c.Children[i], id})
 		}
 	}
-	slices.SortFunc(t.items, func(a, b placedItem) int { return strings.Compare(a.id, b.id) })
+	match.SortPlaced(t.items)
 	return t
 }
 
@@ -60,19 +55,6 @@ func (t *flatTree) chain(c int, buf []int) []int {
 	}
 	slices.Reverse(buf)
 	return buf
-}
-
-// setMembers fills members from the common items: catOf[i] is the
-// category of common item i. Each item joins its category and every
-// ancestor; items are visited in index order, so every list comes out
-// sorted.
-func (t *flatTree) setMembers(catOf []int) {
-	t.members = make([][]int32, len(t.cats))
-	for i, cat := range catOf {
-		for c := cat; c >= 0; c = t.parent[c] {
-			t.members[c] = append(t.members[c], int32(i))
-		}
-	}
 }
 
 // comparePaths orders paths element by element, byte order.

@@ -8,8 +8,8 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 )
 
 // Fixed is a named group constraint: exactly these items form one
@@ -57,7 +57,7 @@ const CarryJaccard = 0.5
 //     that format.CheckCategoryName rejects is ignored (the constraint
 //     parser reports it).
 //  2. Otherwise, if prev is not nil, the categories of prev are matched to
-//     the new ones by diff.MatchClusters on the Jaccard overlap of their
+//     the new ones by match.Clusters on the Jaccard overlap of their
 //     items, counting only items present in both trees, kept at
 //     ≥ CarryJaccard; a matched category takes the old name and its
 //     Provisional flag.
@@ -118,8 +118,8 @@ func AssignTyped(root, prev *format.Category, fixed []Fixed, typed []Typed, word
 			}
 			return true
 		})
-		oldSets, newSets := diff.CommonSets(prev, root)
-		for _, p := range diff.MatchClusters(oldSets, newSets, CarryJaccard) {
+		oldSets, newSets := CommonSets(prev, root)
+		for _, p := range match.Clusters(oldSets, newSets, CarryJaccard) {
 			if claims[p.New] != claimNone {
 				continue
 			}
@@ -264,4 +264,14 @@ func setKey(items []string) string {
 	slices.Sort(s)
 	s = slices.Compact(s)
 	return strings.Join(s, "\x00")
+}
+
+// CommonSets is match.CommonSets over format categories: for every
+// category below prev and below root in walk order, the items below it
+// that both outlines hold in some category, as ascending indices into
+// those items sorted by id.
+func CommonSets(prev, root *format.Category) (prevSets, rootSets [][]int32) {
+	return match.CommonSets(prev, root,
+		func(c *format.Category) []*format.Category { return c.Children },
+		func(c *format.Category) []string { return c.Items })
 }

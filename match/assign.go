@@ -1,8 +1,8 @@
-package diff
+package match
 
-// assign solves the assignment behind MatchClusters: every old cluster
+// Assign solves the assignment behind Clusters: every old cluster
 // (row) is matched to a new cluster (column) or to its private "unmatched"
-// column, at least total cost. It returns, per row, the index in g.edges of
+// column, at least total cost. It returns, per row, the index in g.Edges of
 // its pair, or -1 when the row stays unmatched.
 //
 // Successive shortest paths with potentials: reduced costs
@@ -10,7 +10,7 @@ package diff
 // free row finds the nearest free column at reduced distance D, settled
 // vertices v get pot[v] += dist[v] − D (which keeps every reduced cost
 // non-negative and makes the path tight), and the path is flipped.
-func assign(rows, cols int, g candidateGraph) []int {
+func Assign(rows, cols int, g Candidates) []int {
 	s := &assignment{
 		g:        g,
 		rows:     rows,
@@ -34,7 +34,7 @@ func assign(rows, cols int, g candidateGraph) []int {
 		s.rowOfCol[i], s.distCol[i] = -1, infCost
 	}
 	for r := range rows {
-		if g.start[r] < g.start[r+1] {
+		if g.Start[r] < g.Start[r+1] {
 			s.augment(int32(r))
 		}
 	}
@@ -42,7 +42,7 @@ func assign(rows, cols int, g candidateGraph) []int {
 }
 
 type assignment struct {
-	g          candidateGraph
+	g          Candidates
 	rows, cols int
 
 	potRow, potCol []cost
@@ -89,9 +89,9 @@ func (s *assignment) augment(src int32) {
 			}
 			s.doneRow[r] = true
 			base := s.distRow[r].add(s.potRow[r])
-			for e := s.g.start[r]; e < s.g.start[r+1]; e++ {
-				c := s.g.edges[e].col
-				s.reachCol(c, r, e, base.add(s.g.edges[e].w).sub(s.potCol[c]))
+			for e := s.g.Start[r]; e < s.g.Start[r+1]; e++ {
+				c := s.g.Edges[e].Col
+				s.reachCol(c, r, e, base.add(s.g.Edges[e].w).sub(s.potCol[c]))
 			}
 			c := s.dummy(r)
 			s.reachCol(c, r, -1, base.add(unmatchedCost).sub(s.potCol[c]))

@@ -1,4 +1,8 @@
-package diff
+// Package match pairs the clusters of two versions of a taxonomy by their
+// overlap: the maximum-weight assignment on Jaccard values that diff's
+// category matching, the name carrying of solve/naming and concept's
+// identifiers share. It imports only the standard library.
+package match
 
 import (
 	"fmt"
@@ -12,7 +16,7 @@ type Pair struct {
 	Jaccard  float64
 }
 
-// MatchClusters pairs old clusters with new ones so that the total Jaccard
+// Clusters pairs old clusters with new ones so that the total Jaccard
 // overlap is as large as possible — a maximum-weight bipartite matching
 // (H. W. Kuhn, "The Hungarian method for the assignment problem", Naval
 // Res. Logist. Q. 2, 1955; J. Munkres, "Algorithms for the assignment and
@@ -42,35 +46,36 @@ type Pair struct {
 // taxonomy most searches end after one step.
 //
 // The result is sorted by Old.
-func MatchClusters(old, new [][]int32, minJaccard float64) []Pair {
-	cand := candidates(old, new, nil)
-	matchOf := assign(len(old), len(new), cand)
+func Clusters(old, new [][]int32, minJaccard float64) []Pair {
+	cand := FindCandidates(old, new, nil)
+	matchOf := Assign(len(old), len(new), cand)
 	var out []Pair
 	for r, e := range matchOf {
 		if e < 0 {
 			continue
 		}
-		c := cand.edges[e]
-		j := float64(c.inter) / float64(c.union)
+		c := cand.Edges[e]
+		j := float64(c.Inter) / float64(c.Union)
 		if j >= minJaccard {
-			out = append(out, Pair{Old: r, New: int(c.col), Jaccard: j})
+			out = append(out, Pair{Old: r, New: int(c.Col), Jaccard: j})
 		}
 	}
 	return out
 }
 
-// candidate is a pair of clusters that share at least one leaf.
-type candidate struct {
-	col          int32
-	inter, union int64
+// Candidate is a pair of clusters that share at least one leaf: the new
+// cluster Col and the sizes of their intersection and union.
+type Candidate struct {
+	Col          int32
+	Inter, Union int64
 	w            cost // 2·scale − weight, lexicographic (see weightCost)
 }
 
-// candidateGraph is the candidate pairs in compressed rows: the pairs of
-// old cluster r are edges[start[r]:start[r+1]], by increasing column.
-type candidateGraph struct {
-	start []int
-	edges []candidate
+// Candidates is the candidate pairs in compressed rows: the pairs of
+// old cluster r are Edges[Start[r]:Start[r+1]], by increasing column.
+type Candidates struct {
+	Start []int
+	Edges []Candidate
 }
 
 func checkSorted(sets [][]int32, which string) int32 {
@@ -78,7 +83,7 @@ func checkSorted(sets [][]int32, which string) int32 {
 	for i, s := range sets {
 		for k, v := range s {
 			if v < 0 || k > 0 && v <= s[k-1] {
-				panic(fmt.Sprintf("diff: %s cluster %d is not sorted without repeats", which, i))
+				panic(fmt.Sprintf("match: %s cluster %d is not sorted without repeats", which, i))
 			}
 		}
 		if len(s) > 0 {
@@ -88,10 +93,10 @@ func checkSorted(sets [][]int32, which string) int32 {
 	return top
 }
 
-// candidates lists the pairs of clusters that share leaves. differ, if not
+// FindCandidates lists the pairs of clusters that share leaves. differ, if not
 // nil, marks pairs that a third criterion should avoid when the weights
 // tie (Compare: pairs whose names differ).
-func candidates(old, new [][]int32, differ func(r, c int) bool) candidateGraph {
+func FindCandidates(old, new [][]int32, differ func(r, c int) bool) Candidates {
 	top := max(checkSorted(old, "old"), checkSorted(new, "new"))
 	// Inverted index of the new sets: holders[leafStart[l]:leafStart[l+1]].
 	leafStart := make([]int, top+2)
@@ -111,7 +116,7 @@ func candidates(old, new [][]int32, differ func(r, c int) bool) candidateGraph {
 			fill[l]++
 		}
 	}
-	g := candidateGraph{start: make([]int, len(old)+1)}
+	g := Candidates{Start: make([]int, len(old)+1)}
 	count := make([]int64, len(new))
 	var touched []int32
 	for r, s := range old {
@@ -132,10 +137,10 @@ func candidates(old, new [][]int32, differ func(r, c int) bool) candidateGraph {
 			if differ != nil && differ(r, int(j)) {
 				w.c = 1
 			}
-			g.edges = append(g.edges, candidate{col: j, inter: inter, union: union, w: w})
+			g.Edges = append(g.Edges, Candidate{Col: j, Inter: inter, Union: union, w: w})
 			count[j] = 0
 		}
-		g.start[r+1] = len(g.edges)
+		g.Start[r+1] = len(g.Edges)
 	}
 	return g
 }

@@ -1,4 +1,4 @@
-package diff
+package match
 
 import (
 	"math"
@@ -74,10 +74,10 @@ func TestMatchClustersJaccardExample(t *testing.T) {
 	}
 	// By brute force over all 3! assignments (not a published value): the
 	// optimum is A–Y, B–X, C–Z with total 1.3 (unique).
-	got := MatchClusters(old, new, 0)
+	got := Clusters(old, new, 0)
 	wantPairs := []Pair{{0, 1, 0.5}, {1, 0, 0.5}, {2, 2, 0.3}}
 	if diff := cmp.Diff(wantPairs, got); diff != "" {
-		t.Errorf("MatchClusters(τ=0) mismatch (-want +got):\n%s", diff)
+		t.Errorf("Clusters(τ=0) mismatch (-want +got):\n%s", diff)
 	}
 	total := 0.0
 	for _, p := range got {
@@ -91,9 +91,9 @@ func TestMatchClustersJaccardExample(t *testing.T) {
 		t.Errorf("greedy total = %v, want 1.1", g)
 	}
 	// τ = 0.35 applied after matching drops C–Z only.
-	got = MatchClusters(old, new, 0.35)
+	got = Clusters(old, new, 0.35)
 	if diff := cmp.Diff(wantPairs[:2], got); diff != "" {
-		t.Errorf("MatchClusters(τ=0.35) mismatch (-want +got):\n%s", diff)
+		t.Errorf("Clusters(τ=0.35) mismatch (-want +got):\n%s", diff)
 	}
 }
 
@@ -184,7 +184,7 @@ func TestMatchClustersMatchesBruteForce(t *testing.T) {
 	for trial := range 300 {
 		old := randomSets(rng, 1+rng.IntN(6), 4+rng.IntN(8))
 		new := randomSets(rng, 1+rng.IntN(6), 4+rng.IntN(8))
-		got := MatchClusters(old, new, 0)
+		got := Clusters(old, new, 0)
 		var obj cost
 		seenNew := map[int]bool{}
 		for i, p := range got {
@@ -202,7 +202,7 @@ func TestMatchClustersMatchesBruteForce(t *testing.T) {
 		if want := bruteBest(old, new); obj != want {
 			t.Fatalf("trial %d: objective %v, brute force %v\nold %v\nnew %v\ngot %v", trial, obj, want, old, new, got)
 		}
-		if again := MatchClusters(old, new, 0); !slices.Equal(got, again) {
+		if again := Clusters(old, new, 0); !slices.Equal(got, again) {
 			t.Fatalf("trial %d: second run differs", trial)
 		}
 	}
@@ -215,12 +215,12 @@ func TestMatchClustersMatchesBruteForce(t *testing.T) {
 func TestMatchClustersTies(t *testing.T) {
 	old := [][]int32{{1, 2}}
 	new := [][]int32{{1, 2}, {1, 2}}
-	if got := MatchClusters(old, new, 0); len(got) != 1 || got[0].New != 0 {
-		t.Errorf("MatchClusters with two equal candidates = %v, want old 0 → new 0", got)
+	if got := Clusters(old, new, 0); len(got) != 1 || got[0].New != 0 {
+		t.Errorf("Clusters with two equal candidates = %v, want old 0 → new 0", got)
 	}
 	// old0 = {1,2}, old1 = {3,4}; new0 = {1,2,3,4}, new1 = {1,2}.
 	// Matchings: {o0–n1 (1), o1–n0 (.5)} = 1.5 beats {o0–n0 (.5)} = .5.
-	got := MatchClusters([][]int32{{1, 2}, {3, 4}}, [][]int32{{1, 2, 3, 4}, {1, 2}}, 0)
+	got := Clusters([][]int32{{1, 2}, {3, 4}}, [][]int32{{1, 2, 3, 4}, {1, 2}}, 0)
 	want := []Pair{{0, 1, 1}, {1, 0, 0.5}}
 	if diff := cmp.Diff(want, got); diff != "" {
 		t.Errorf("mismatch (-want +got):\n%s", diff)
@@ -228,10 +228,10 @@ func TestMatchClustersTies(t *testing.T) {
 }
 
 func TestMatchClustersEdgeCases(t *testing.T) {
-	if got := MatchClusters(nil, nil, 0.5); len(got) != 0 {
-		t.Errorf("MatchClusters(nil, nil) = %v", got)
+	if got := Clusters(nil, nil, 0.5); len(got) != 0 {
+		t.Errorf("Clusters(nil, nil) = %v", got)
 	}
-	if got := MatchClusters([][]int32{{}, {1}}, [][]int32{{2}}, 0); len(got) != 0 {
+	if got := Clusters([][]int32{{}, {1}}, [][]int32{{2}}, 0); len(got) != 0 {
 		t.Errorf("disjoint or empty sets matched: %v", got)
 	}
 	defer func() {
@@ -239,7 +239,7 @@ func TestMatchClustersEdgeCases(t *testing.T) {
 			t.Error("unsorted set did not panic")
 		}
 	}()
-	MatchClusters([][]int32{{2, 1}}, nil, 0)
+	Clusters([][]int32{{2, 1}}, nil, 0)
 }
 
 // dpBest is the exact optimum by dynamic programming over subsets of used
@@ -311,7 +311,7 @@ func TestMatchClustersMatchesSubsetDP(t *testing.T) {
 			old, new = randomSets(rng, 4+rng.IntN(8), 20), randomSets(rng, 4+rng.IntN(8), 20)
 		}
 		var obj cost
-		for _, p := range MatchClusters(old, new, 0) {
+		for _, p := range Clusters(old, new, 0) {
 			in, un := jaccard(old[p.Old], new[p.New])
 			w := weightCost(int64(in), int64(un))
 			obj = obj.add(cost{weightScale - w.a, weightScale - w.b, 0})
