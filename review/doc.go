@@ -4,7 +4,7 @@
 // drawn where the committee disagrees most, plus uniformly random audit
 // packets; answered packets become shape constraints and the audit log,
 // from which the reject rate is estimated with its exact interval
-// (package review/bounds); and hand edits of the outline become a few
+// (package bounds); and hand edits of the outline become a few
 // triplet records per moved item.
 //
 // The package works on item indices, solver trees and category trees; the
