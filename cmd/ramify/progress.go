@@ -2,10 +2,10 @@ package main
 
 import (
 	"fmt"
-	"math"
 	"os"
-	"strconv"
 	"time"
+
+	"github.com/ramify-tax/ramify/internal/round"
 )
 
 // progressAfterEnv overrides how long a run goes before progress shows
@@ -53,10 +53,4 @@ func (e *env) endProgress() {
 
 // roundSig rounds x to n significant digits, so reports do not change in
 // the last bits of a float from one platform to another.
-func roundSig(x float64, n int) float64 {
-	if x == 0 || math.IsNaN(x) || math.IsInf(x, 0) {
-		return x
-	}
-	v, _ := strconv.ParseFloat(strconv.FormatFloat(x, 'g', n, 64), 64)
-	return v
-}
+func roundSig(x float64, n int) float64 { return round.Sig(x, n) }

@@ -2,23 +2,15 @@ package main
 
 import (
 	"bytes"
-	"crypto/sha256"
-	"encoding/hex"
 	"errors"
 	"fmt"
 	"os"
-	"path/filepath"
-	"regexp"
-	"sort"
 	"strings"
 	"time"
 
-	"github.com/BurntSushi/toml"
-	"github.com/ramify-tax/ramify/concept"
-	"github.com/ramify-tax/ramify/diff"
-	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/release"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/spf13/pflag"
 )
@@ -51,72 +43,41 @@ identifiers that took over its items — and the categories split or
 merged, so that systems linking to concept IRIs know what to update. With --tag it commits those files and makes an annotated git tag
 VERSION whose message summarises the manifest. --dry-run runs the gates
 and writes nothing.`,
-		flags: func(fs *pflag.FlagSet, o *options) {
-			o.extra["tag"] = fs.Bool("tag", false, "commit the release files and make an annotated git tag VERSION")
-			o.extra["dry-run"] = fs.Bool("dry-run", false, "run the gates and report, writing nothing")
-			o.extra["date"] = fs.String("date", "", "the release date, YYYY-MM-DD (default: today, UTC)")
-		},
-		run: runRelease,
+		bind: withOptions(func(fs *pflag.FlagSet, o *releaseOptions) {
+			fs.BoolVar(&o.tag, "tag", false, "commit the release files and make an annotated git tag VERSION")
+			fs.BoolVar(&o.dryRun, "dry-run", false, "run the gates and report, writing nothing")
+			fs.StringVar(&o.date, "date", "", "the release date, YYYY-MM-DD (default: today, UTC)")
+		}, runRelease),
 	})
 }
 
-// versionPattern is what a release version may look like: it becomes a
-// file name and a git tag, so nothing that a shell or git could read as
-// something else.
-var versionPattern = regexp.MustCompile(`^[A-Za-z0-9][A-Za-z0-9._-]{0,63}$`)
-
-// releaseManifest is releases/VERSION.toml.
-type releaseManifest struct {
-	Version     string            `toml:"version"`
-	Date        string            `toml:"date"`
-	Structure   string            `toml:"structure"`
-	Items       int               `toml:"items"`
-	Categories  int               `toml:"categories"`
-	Depth       int               `toml:"depth"`
-	Cost        float64           `toml:"cost"`
-	Constraints manifestRecords   `toml:"constraints"`
-	Audits      manifestAudits    `toml:"audits"`
-	Change      *manifestChange   `toml:"change,omitempty"`
-	Concepts    *concept.Changes  `toml:"concepts,omitempty"`
-	Inputs      map[string]string `toml:"inputs"`
-	Exports     map[string]string `toml:"exports"`
+type releaseOptions struct {
+	tag    bool
+	dryRun bool
+	date   string
 }
 
-type manifestRecords struct {
-	Records  int `toml:"records"`
-	Triplets int `toml:"triplets"`
-	Groups   int `toml:"groups"`
-	Shapes   int `toml:"shapes"`
+// releaseReport is release's --json report: check's, then what each
+// later step found, nil or "" until it is reached.
+type releaseReport struct {
+	checkReport
+	Audits    *release.Audits `json:"audits,omitempty"`
+	Manifest  string          `json:"manifest,omitempty"`
+	Structure string          `json:"structure,omitempty"`
+	Tag       string          `json:"tag,omitempty"`
+	Version   string          `json:"version,omitempty"`
+	Written   []string        `json:"written,omitempty"`
 }
 
-type manifestAudits struct {
-	Audits        int     `toml:"audits"`
-	Rejected      int     `toml:"rejected"`
-	Rate          float64 `toml:"rate"`
-	Lower         float64 `toml:"lower_95"`
-	Upper         float64 `toml:"upper_95"`
-	MaxRejectRate float64 `toml:"max_reject_rate"`
-}
-
-type manifestChange struct {
-	Since            string  `toml:"since"`
-	Added            int     `toml:"added"`
-	Removed          int     `toml:"removed"`
-	Moved            int     `toml:"moved"`
-	TripletAgreement float64 `toml:"triplet_agreement"`
-}
-
-func runRelease(e *env, args []string) error {
+func runRelease(e *env, o *releaseOptions, args []string) error {
 	if len(args) != 1 {
 		return usagef("release takes one argument, the version (for example 2026.1)")
 	}
 	version := args[0]
-	if !versionPattern.MatchString(version) {
+	if !release.ValidVersion(version) {
 		return usagef("version %q: use letters, digits, '.', '_' and '-', starting with a letter or digit", version)
 	}
-	tag := *e.opt.extra["tag"].(*bool)
-	dryRun := *e.opt.extra["dry-run"].(*bool)
-	date, err := releaseDate(*e.opt.extra["date"].(*string))
+	date, err := releaseDate(o.date)
 	if err != nil {
 		return err
 	}
@@ -125,7 +86,7 @@ func runRelease(e *env, args []string) error {
 	if len(ds) > 0 {
 		return ds
 	}
-	manifestRel := "releases/" + version + ".toml"
+	manifestRel := release.ManifestPath(version)
 	manifestPath, err := project.Resolve(dir, manifestRel)
 	if err != nil {
 		return failf("%s: %v", manifestRel, err)
@@ -133,155 +94,117 @@ func runRelease(e *env, args []string) error {
 	if _, err := os.Stat(manifestPath); err == nil {
 		return failf("release %s exists already (%s); choose a new version", version, manifestRel)
 	}
-
-	// Gate 1: check.
-	checked := &checkReport{}
-	e.result = checked
-	sol, err := checkRepository(e, p, checked)
-	if err != nil {
-		return withGate("check", err)
-	}
-	// Gate 2: nothing waiting for a verdict.
-	open, err := listPackets(dir, review.OpenDir)
+	rep := &releaseReport{}
+	e.result = rep
+	sol, inputs, err := releaseGates(e, o, rep, p, version)
 	if err != nil {
 		return err
 	}
-	if len(open) > 0 {
-		rels := make([]string, len(open))
-		for i, f := range open {
-			rels[i] = f.rel
-		}
-		return failf("gate open packets: %s in %s/ (%s); answer them and run `ramify absorb`",
-			plural(len(open), "packet waits", "packets wait"), review.OpenDir, strings.Join(rels, ", "))
-	}
-	// Gate 3: enough audits on this tree, reject rate bounded.
-	structure := format.StructureHash(p.Outline.Root)
-	done, err := readDonePackets(dir)
+	r, err := release.Build(p, sol, version, date, *rep.Audits, inputs)
 	if err != nil {
 		return err
 	}
-	sum := review.SummarizeAudits(done, p.Outline.Root)
-	audits := manifestAudits{
-		Audits: sum.Audits, Rejected: sum.Rejected,
-		Rate: roundSig(sum.Rate, 6), Lower: roundSig(sum.Lo, 6), Upper: roundSig(sum.Hi, 6),
-		MaxRejectRate: p.Settings.Release.MaxRejectRate,
-	}
-	e.report["audits"] = audits
-	if sum.Audits < p.Settings.Release.MinAudits {
-		return failf("gate audits: %s answer for this tree (structure %s), %d needed; run `ramify review draw`, answer the audit packets and `ramify absorb`",
-			plural(sum.Audits, "audit", "audits"), structure, p.Settings.Release.MinAudits)
-	}
-	if sum.Hi > p.Settings.Release.MaxRejectRate {
-		return failf("gate reject rate: %d of %d audits rejected; the 95%% upper bound %.4f exceeds release.max_reject_rate %.4f — %s",
-			sum.Rejected, sum.Audits, sum.Hi, p.Settings.Release.MaxRejectRate, moreAuditsText(sum, p.Settings.Release))
-	}
-	// Gate 4: the defining files are committed.
-	inputs, err := releaseInputs(p)
-	if err != nil {
-		return err
-	}
-	if err := gateCommitted(dir, inputs); err != nil {
-		return err
-	}
-	// Gate 5: the tag is new.
-	if tag {
-		if _, err := runGit(dir, gitOutputLimit, "rev-parse", "-q", "--verify", "refs/tags/"+version); err == nil {
-			return failf("gate version: git tag %s exists already; choose a new version", version)
-		}
-	}
-
-	m := &releaseManifest{
-		Version: version, Date: date, Structure: structure,
-		Items: len(p.Items), Categories: p.Outline.Root.CountCategories(), Depth: p.Outline.Root.Depth(),
-		Cost:   roundSig(sol.Cost, 10),
-		Audits: audits,
-		Inputs: map[string]string{}, Exports: map[string]string{},
-	}
-	c := countRecords(p.Constraints)
-	m.Constraints = manifestRecords{Records: c.Records, Triplets: sol.Compiled.Triplets, Groups: sol.Compiled.Groups, Shapes: c.Shapes}
-	for _, rel := range inputs {
-		full, err := project.Resolve(dir, rel)
-		if err != nil {
-			return err
-		}
-		data, err := format.ReadFileLimited(full, rel, format.MaxDataFileBytes)
-		if err != nil {
-			return err
-		}
-		m.Inputs[rel] = sha256Hex(data)
-	}
-	if prev, prevRoot := previousRelease(dir); prevRoot != nil {
-		rep := diff.Compare(prevRoot, p.Outline.Root)
-		m.Change = &manifestChange{
-			Since: prev, Added: len(rep.Added), Removed: len(rep.Removed), Moved: len(rep.AllMoved()),
-			TripletAgreement: roundSig(rep.Metrics.TripletAgreement, 6),
-		}
-		// Concepts whose identifiers are gone since the previous release,
-		// and who took over their items: what a system that links to
-		// concept IRIs must update.
-		ch := concept.Compare(prevRoot, p.Outline.Root)
-		m.Concepts = &ch
-	}
-	exports, err := releaseExports(p, version)
-	if err != nil {
-		return err
-	}
-	names := make([]string, 0, len(exports))
-	for name := range exports {
-		names = append(names, name)
-	}
-	sort.Strings(names)
-	for _, name := range names {
-		m.Exports["releases/"+version+"/"+name] = sha256Hex(exports[name])
-	}
-	var buf bytes.Buffer
-	buf.WriteString("# ramify release manifest\n")
-	if err := toml.NewEncoder(&buf).Encode(m); err != nil {
-		return err
-	}
-	e.report["version"] = version
-	e.report["structure"] = structure
-	e.report["manifest"] = manifestRel
-	if dryRun {
+	m := r.Manifest
+	rep.Version, rep.Structure, rep.Manifest = version, m.Structure, manifestRel
+	if o.dryRun {
 		e.say("all gates pass for %s (dry run: nothing written)", version)
 		e.say("  %s", summaryLine(m))
 		return nil
 	}
-	// Every target is resolved before anything is written, so a release
-	// folder that leads outside the repository writes nothing at all.
-	targets := make([]string, len(names))
-	for i, name := range names {
-		if targets[i], err = project.Resolve(dir, "releases/"+version+"/"+name); err != nil {
-			return failf("releases/%s/%s: %v", version, name, err)
-		}
+	written, err := r.Write(dir)
+	var pe *release.PathError
+	if errors.As(err, &pe) {
+		return failf("%v", pe)
 	}
-	if err := os.MkdirAll(filepath.Dir(targets[0]), 0o755); err != nil {
+	if err != nil {
 		return err
 	}
-	written := []string{}
-	for i, name := range names {
-		if err := format.WriteFileAtomic(targets[i], exports[name], 0o644); err != nil {
-			return err
-		}
-		written = append(written, "releases/"+version+"/"+name)
-	}
-	if err := format.WriteFileAtomic(manifestPath, buf.Bytes(), 0o644); err != nil {
-		return err
-	}
-	written = append(written, manifestRel)
-	e.report["written"] = written
+	rep.Written = written
 	e.say("released %s: %s", version, summaryLine(m))
 	for _, w := range written {
 		e.say("  wrote %s", w)
 	}
-	if tag {
+	if o.tag {
 		if err := commitAndTag(dir, version, written, m); err != nil {
 			return err
 		}
-		e.report["tag"] = version
+		rep.Tag = version
 		e.say("committed the release files and tagged %s", version)
 	}
 	return nil
+}
+
+// releaseGates runs every gate of a release, in order, and returns the
+// checked solution and the release's input files.
+func releaseGates(e *env, o *releaseOptions, rep *releaseReport, p *project.Project, version string) (*project.Solution, []string, error) {
+	dir := p.Dir
+	// Gate 1: check.
+	sol, err := checkRepository(e, p, &rep.checkReport)
+	if err != nil {
+		return nil, nil, withGate("check", err)
+	}
+	// Gate 2: nothing waiting for a verdict.
+	open, err := listPackets(dir, review.OpenDir)
+	if err != nil {
+		return nil, nil, err
+	}
+	rels := make([]string, len(open))
+	for i, f := range open {
+		rels[i] = f.rel
+	}
+	if b := release.CheckOpen(rels); b != nil {
+		return nil, nil, blockedError(b, p)
+	}
+	// Gate 3: enough audits on this tree, reject rate bounded.
+	doneFiles, err := listPackets(dir, review.DoneDir)
+	if err != nil {
+		return nil, nil, err
+	}
+	done, err := readDonePackets(doneFiles)
+	if err != nil {
+		return nil, nil, err
+	}
+	sum := review.SummarizeAudits(done, p.Outline.Root)
+	audits := release.AuditsOf(sum, p.Settings.Release)
+	rep.Audits = &audits
+	if b := release.CheckAudits(sum, p.Settings.Release); b != nil {
+		return nil, nil, blockedError(b, p)
+	}
+	// Gate 4: the defining files are committed.
+	doneRels := make([]string, len(doneFiles))
+	for i, f := range doneFiles {
+		doneRels[i] = f.rel
+	}
+	inputs, err := release.Inputs(p, doneRels)
+	if err != nil {
+		return nil, nil, err
+	}
+	if err := gateCommitted(dir, inputs); err != nil {
+		return nil, nil, err
+	}
+	// Gate 5: the tag is new.
+	if o.tag {
+		if _, err := runGit(dir, gitOutputLimit, "rev-parse", "-q", "--verify", "refs/tags/"+version); err == nil {
+			return nil, nil, failf("gate version: git tag %s exists already; choose a new version", version)
+		}
+	}
+	return sol, inputs, nil
+}
+
+// blockedError says why a review gate stops the release, and what to do.
+func blockedError(b *release.Blocked, p *project.Project) error {
+	s, r := b.Audits, p.Settings.Release
+	switch b.Gate {
+	case release.GateOpenPackets:
+		return failf("gate open packets: %s in %s/ (%s); answer them and run `ramify absorb`",
+			plural(len(b.Open), "packet waits", "packets wait"), review.OpenDir, strings.Join(b.Open, ", "))
+	case release.GateAudits:
+		return failf("gate audits: %s answer for this tree (structure %s), %d needed; run `ramify review draw`, answer the audit packets and `ramify absorb`",
+			plural(s.Audits, "audit", "audits"), format.StructureHash(p.Outline.Root), r.MinAudits)
+	default:
+		return failf("gate reject rate: %d of %d audits rejected; the 95%% upper bound %.4f exceeds release.max_reject_rate %.4f — %s",
+			s.Rejected, s.Audits, s.Hi, r.MaxRejectRate, moreAuditsText(s, r))
+	}
 }
 
 func withGate(name string, err error) error {
@@ -315,7 +238,7 @@ func releaseDate(given string) (string, error) {
 	return given, nil
 }
 
-func summaryLine(m *releaseManifest) string {
+func summaryLine(m *release.Manifest) string {
 	s := fmt.Sprintf("%d items, %d categories, %d constraint records, %d audits (%d rejected, 95%% upper bound %.4f)",
 		m.Items, m.Categories, m.Constraints.Records, m.Audits.Audits, m.Audits.Rejected, m.Audits.Upper)
 	if m.Change != nil {
@@ -327,17 +250,8 @@ func summaryLine(m *releaseManifest) string {
 	return s
 }
 
-func sha256Hex(b []byte) string {
-	s := sha256.Sum256(b)
-	return hex.EncodeToString(s[:])
-}
-
 // readDonePackets parses the audit log, reviews/done/*.outline.
-func readDonePackets(dir string) ([]*format.Packet, error) {
-	files, err := listPackets(dir, review.DoneDir)
-	if err != nil {
-		return nil, err
-	}
+func readDonePackets(files []packetFile) ([]*format.Packet, error) {
 	answers, ds := parsePackets(files)
 	if len(ds) > 0 {
 		return nil, ds
@@ -346,44 +260,6 @@ func readDonePackets(dir string) ([]*format.Packet, error) {
 	for i, a := range answers {
 		out[i] = a.Packet
 	}
-	return out, nil
-}
-
-// releaseInputs lists the files a release is made of, repository-relative
-// and sorted: settings, items, vectors, links, constraints, the outline,
-// and the audit log.
-func releaseInputs(p *project.Project) ([]string, error) {
-	set := map[string]bool{project.SettingsFile: true, p.Settings.Taxonomy.File: true}
-	for _, f := range p.Settings.Items.Files {
-		set[f] = true
-	}
-	if p.Settings.Items.Vectors != "" {
-		set[p.Settings.Items.Vectors] = true
-	}
-	for _, s := range p.Settings.Similarity.Sources {
-		if s.File != "" {
-			set[s.File] = true
-		}
-	}
-	files, err := project.ConstraintFiles(p.Dir)
-	if err != nil {
-		return nil, err
-	}
-	for _, f := range files {
-		set[f] = true
-	}
-	done, err := listPackets(p.Dir, review.DoneDir)
-	if err != nil {
-		return nil, err
-	}
-	for _, f := range done {
-		set[f.rel] = true
-	}
-	out := make([]string, 0, len(set))
-	for f := range set {
-		out = append(out, f)
-	}
-	sort.Strings(out)
 	return out, nil
 }
 
@@ -408,81 +284,8 @@ func gateCommitted(dir string, inputs []string) error {
 	return nil
 }
 
-// releaseExports renders the committed outline in every export form.
-func releaseExports(p *project.Project, version string) (map[string][]byte, error) {
-	root := p.Outline.Root
-	out := map[string][]byte{"taxonomy.outline": p.OutlineText}
-	render := []struct {
-		name string
-		fn   func(b *bytes.Buffer) error
-	}{
-		{"taxonomy.ttl", func(b *bytes.Buffer) error {
-			return export.SKOS(b, root, p.Items, export.SKOSOptions{BaseIRI: p.Settings.Release.BaseIRI, Version: version})
-		}},
-		{"taxonomy.nwk", func(b *bytes.Buffer) error { return export.Newick(b, root, export.NewickOptions{}) }},
-		{"taxonomy.json", func(b *bytes.Buffer) error { return export.JSON(b, root, p.Items) }},
-		{"taxonomy.csv", func(b *bytes.Buffer) error { return export.CSV(b, root, p.Items) }},
-	}
-	for _, r := range render {
-		var b bytes.Buffer
-		if err := r.fn(&b); err != nil {
-			return nil, err
-		}
-		out[r.name] = b.Bytes()
-	}
-	return out, nil
-}
-
-// previousRelease finds the newest earlier release (by manifest date, then
-// version) whose exported outline is readable.
-func previousRelease(dir string) (string, *format.Category) {
-	releases, err := project.Resolve(dir, "releases")
-	if err != nil {
-		return "", nil
-	}
-	entries, err := os.ReadDir(releases)
-	if err != nil {
-		return "", nil
-	}
-	type rel struct{ version, date string }
-	var found []rel
-	for _, en := range entries {
-		name, ok := strings.CutSuffix(en.Name(), ".toml")
-		if !ok || !en.Type().IsRegular() || !versionPattern.MatchString(name) {
-			continue
-		}
-		var m releaseManifest
-		if _, err := toml.DecodeFile(filepath.Join(releases, en.Name()), &m); err != nil {
-			continue
-		}
-		found = append(found, rel{name, m.Date})
-	}
-	sort.Slice(found, func(i, j int) bool {
-		if found[i].date != found[j].date {
-			return found[i].date > found[j].date
-		}
-		return found[i].version > found[j].version
-	})
-	for _, r := range found {
-		path, err := project.Resolve(dir, "releases/"+r.version+"/taxonomy.outline")
-		if err != nil {
-			continue
-		}
-		data, err := format.ReadFileLimited(path, path, format.MaxOutlineBytes)
-		if err != nil {
-			continue
-		}
-		o, err := format.ParseOutline(path, data)
-		if err != nil {
-			continue
-		}
-		return r.version, o.Root
-	}
-	return "", nil
-}
-
 // commitAndTag commits the release files and tags the commit.
-func commitAndTag(dir, version string, files []string, m *releaseManifest) error {
+func commitAndTag(dir, version string, files []string, m *release.Manifest) error {
 	add := append([]string{"add", "--"}, gitPaths(files)...)
 	if _, err := runGit(dir, gitOutputLimit, add...); err != nil {
 		return err
