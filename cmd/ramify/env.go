@@ -34,11 +34,9 @@ type env struct {
 	flags  *pflag.FlagSet
 	stdout io.Writer
 	stderr io.Writer
-	// report is printed as JSON on stdout when --json is given.
-	report map[string]any
 	// result is the command's own report, a struct with json tags (or a
-	// pointer to one), printed with --json in one object with what
-	// finish adds.
+	// pointer to one), printed as JSON on stdout when --json is given, in
+	// one object with the outcome finish adds.
 	result any
 	// color is true when stdout is a terminal and NO_COLOR is unset.
 	color bool
@@ -50,7 +48,7 @@ type env struct {
 }
 
 func newEnv(o *options, fs *pflag.FlagSet, stdout, stderr io.Writer) *env {
-	e := &env{opt: o, flags: fs, stdout: stdout, stderr: stderr, report: map[string]any{}}
+	e := &env{opt: o, flags: fs, stdout: stdout, stderr: stderr}
 	_, noColor := os.LookupEnv("NO_COLOR")
 	e.color = !noColor && !o.json && isTerminal(stdout)
 	e.progress = !o.quiet && !o.json && isTerminal(stderr)
@@ -169,22 +167,25 @@ func (e *env) finish(c *command, err error) int {
 	var ue *usageError
 	var ad *adviceDiags
 	var detail any
+	// outcome is how the command ended, for --json: "ok", "command" and
+	// what failed, keys set only when they apply.
+	outcome := map[string]any{}
 	switch {
 	case err == nil:
 	case errors.As(err, &ad):
 		code = exitUsage
-		e.report["problems"] = problemsJSON(ad.ds)
+		outcome["problems"] = problemsJSON(ad.ds)
 		for _, d := range ad.ds {
 			printLine(e.stderr, d.String())
 		}
 		for _, l := range ad.advice {
 			printLine(e.stderr, l)
 		}
-		e.report["advice"] = ad.advice
+		outcome["advice"] = ad.advice
 	case errors.As(err, &ds):
 		code = exitUsage
 		shown := ds.Capped()
-		e.report["problems"] = problemsJSON(shown)
+		outcome["problems"] = problemsJSON(shown)
 		for _, d := range shown {
 			printLine(e.stderr, d.String())
 		}
@@ -200,22 +201,22 @@ func (e *env) finish(c *command, err error) int {
 		for _, l := range fl.lines {
 			printLine(e.stderr, l)
 		}
-		e.report["failure"] = fl.lines
+		outcome["failure"] = fl.lines
 		detail = fl.detail
 	case errors.As(err, &ue):
 		code = exitUsage
 		printLine(e.stderr, "ramify "+c.name+": "+ue.msg)
 		fmt.Fprintf(e.stderr, "run `ramify %s --help` for its options\n", c.name)
-		e.report["error"] = ue.msg
+		outcome["error"] = ue.msg
 	default:
 		code = exitInternal
 		printLine(e.stderr, "ramify "+c.name+": "+firstLineOf(err.Error()))
-		e.report["error"] = err.Error()
+		outcome["error"] = err.Error()
 	}
 	if e.opt.json {
-		e.report["ok"] = code == exitOK
-		e.report["command"] = c.name
-		if err := writeReport(e.stdout, e.result, detail, e.report); err != nil {
+		outcome["ok"] = code == exitOK
+		outcome["command"] = c.name
+		if err := writeReport(e.stdout, e.result, detail, outcome); err != nil {
 			fmt.Fprintf(e.stderr, "ramify: writing the report: %v\n", err)
 			return exitInternal
 		}

@@ -19,7 +19,7 @@ func TestGitSetupForInit(t *testing.T) {
 	t.Setenv("GIT_CONFIG_NOSYSTEM", "1")
 	newTestEnv := func() (*env, *bytes.Buffer) {
 		var out bytes.Buffer
-		return newEnv(&options{dir: ".", extra: map[string]any{}}, nil, &out, &out), &out
+		return newEnv(&options{dir: "."}, nil, &out, &out), &out
 	}
 
 	plain := filepath.Join(os.Getenv("GIT_CEILING_DIRECTORIES"), "plain")

@@ -26,10 +26,8 @@ type command struct {
 	// bind adds the command's own flags to fs, bound to the fields of a
 	// new options value, and returns the command's run with that value.
 	bind func(fs *pflag.FlagSet) runFunc
-	// flags and run are the form of a command whose flags are not bound
-	// to a struct of its own yet.
-	flags func(fs *pflag.FlagSet, o *options)
-	run   runFunc
+	// run is the run of a command without flags of its own (bind nil).
+	run runFunc
 }
 
 // runFunc runs a command on its arguments.
@@ -50,13 +48,13 @@ var commands = map[string]*command{}
 
 func register(c *command) { commands[c.name] = c }
 
-// options are the flags every command takes plus the command's own.
+// options are the flags every command takes; a command's own are fields
+// of its options struct (see withOptions).
 type options struct {
 	dir   string
 	json  bool
 	quiet bool
 	help  bool
-	extra map[string]any
 }
 
 func main() {
@@ -162,17 +160,14 @@ func commandFlags(c *command) (*pflag.FlagSet, *options, runFunc) {
 	fs := pflag.NewFlagSet("ramify "+c.name, pflag.ContinueOnError)
 	fs.SetOutput(io.Discard)
 	fs.SortFlags = false
-	o := &options{extra: map[string]any{}}
+	o := &options{}
 	fs.StringVar(&o.dir, "dir", ".", "the taxonomy repository")
 	fs.BoolVar(&o.json, "json", false, "print a machine-readable report on stdout instead of text")
 	fs.BoolVarP(&o.quiet, "quiet", "q", false, "print nothing but errors")
 	fs.BoolVarP(&o.help, "help", "h", false, "show this help")
 	run := c.run
-	switch {
-	case c.bind != nil:
+	if c.bind != nil {
 		run = c.bind(fs)
-	case c.flags != nil:
-		c.flags(fs, o)
 	}
 	return fs, o, run
 }
