@@ -67,10 +67,9 @@ type exportReport struct {
 	Version    string `json:"version,omitempty"` // skos only
 }
 
-func runExport(e *env, o *exportOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("export takes no arguments (got %q); choose the form with --format", args[0])
-	}
+// checkExportFlags refuses a missing or unknown --format, SKOS options
+// with another form, and --json without --out.
+func checkExportFlags(e *env, o *exportOptions) error {
 	form, out := o.format, o.out
 	if form == "" {
 		return usagef("--format is required: one of %s", strings.Join(exportFormats, ", "))
@@ -91,6 +90,17 @@ func runExport(e *env, o *exportOptions, args []string) error {
 	}
 	if e.opt.json && out == "" {
 		return usagef("--json prints a report on stdout; give --out FILE so the export does not mix with it")
+	}
+	return nil
+}
+
+func runExport(e *env, o *exportOptions, args []string) error {
+	if len(args) > 0 {
+		return usagef("export takes no arguments (got %q); choose the form with --format", args[0])
+	}
+	form, out := o.format, o.out
+	if err := checkExportFlags(e, o); err != nil {
+		return err
 	}
 	p, ds := project.Load(e.dir())
 	if len(ds) > 0 {
