@@ -6,6 +6,10 @@ import (
 	"strings"
 )
 
+// ConstraintsDir is the repository folder that holds the constraint
+// files, read in sorted order.
+const ConstraintsDir = "constraints"
+
 // CheckRepoPath says what is wrong with a path a repository file names,
 // or "" if it is fine. Paths are relative to the repository, written with
 // forward slashes, already clean, and cannot leave the repository or reach

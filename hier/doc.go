@@ -4,7 +4,7 @@
 // depth-first index with each node's range of leaf positions (Index), the
 // constant-time lowest common ancestor over that order (LCAIndex), and
 // the two ways a nested category tree becomes a Tree (CollapsingChains,
-// KeepingChains).
+// KeepingChains) and the way back (Unfold).
 //
 // It imports nothing outside the standard library, so every layer above
 // it may use it without pulling in the solver.

@@ -60,3 +60,33 @@ func fromNested[C comparable](root C, n int, in Nested[C], keepChains bool) (*Tr
 	}
 	return t, nodes
 }
+
+// Unfold is the way back: it turns t into nested categories below root,
+// every internal node under the root a category made by newChild(parent)
+// in child order, every leaf passed to addLeaf with the category of its
+// parent. A tree whose root is a leaf puts that leaf in root.
+func Unfold[C any](t *Tree, root C, newChild func(parent C) C, addLeaf func(c C, leaf int32)) {
+	if t.N == 0 {
+		return
+	}
+	if t.IsLeaf(t.Root) {
+		addLeaf(root, t.Root)
+		return
+	}
+	type frame struct {
+		node int32
+		cat  C
+	}
+	stack := []frame{{t.Root, root}}
+	for len(stack) > 0 {
+		f := stack[len(stack)-1]
+		stack = stack[:len(stack)-1]
+		for _, k := range t.Kids[f.node] {
+			if t.IsLeaf(k) {
+				addLeaf(f.cat, k)
+				continue
+			}
+			stack = append(stack, frame{k, newChild(f.cat)})
+		}
+	}
+}

@@ -69,3 +69,24 @@ func TestChainRulesEmpty(t *testing.T) {
 		t.Errorf("keeping an empty outline: %d nodes, root %d", tr.NumNodes(), tr.Root)
 	}
 }
+
+func TestUnfoldInvertsKeepingChains(t *testing.T) {
+	// root { chain { inner { 0 1 } } single { 2 } 3 }
+	root := &cat{kids: []*cat{{kids: []*cat{{leaves: []int32{0, 1}}}}, {leaves: []int32{2}}}, leaves: []int32{3}}
+	tr, _ := KeepingChains(root, 4, nestedCats)
+	back := &cat{}
+	Unfold(tr, back,
+		func(p *cat) *cat { c := &cat{}; p.kids = append(p.kids, c); return c },
+		func(c *cat, leaf int32) { c.leaves = append(c.leaves, leaf) })
+	again, _ := KeepingChains(back, 4, nestedCats)
+	if !slices.EqualFunc(again.Kids, tr.Kids, slices.Equal) {
+		t.Errorf("unfolded and read again: %v, want %v", again.Kids, tr.Kids)
+	}
+	single := NewTree(1)
+	one := &cat{}
+	Unfold(single, one, func(*cat) *cat { t.Fatal("no category below a leaf root"); return nil },
+		func(c *cat, leaf int32) { c.leaves = append(c.leaves, leaf) })
+	if !slices.Equal(one.leaves, []int32{0}) {
+		t.Errorf("a one-leaf tree unfolds to %v", one.leaves)
+	}
+}

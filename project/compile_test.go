@@ -188,7 +188,7 @@ func TestShapeCompileMeansTheSameTriplets(t *testing.T) {
 				return int32(k), err == nil
 			}
 			var full []solve.Triplet
-			for _, tr := range ShapeTriplets(root) {
+			for _, tr := range format.ShapeTriplets(root) {
 				a, _ := idx(tr[0])
 				b, _ := idx(tr[1])
 				c, _ := idx(tr[2])
@@ -278,7 +278,7 @@ func TestResolvedTripletsCount(t *testing.T) {
 	for n := 3; n <= 6; n++ {
 		for _, st := range allTrees(n, false) {
 			root := shapeOf(st, n, r)
-			if got, want := resolvedTriplets(shapeNodes(root, idx)), int64(len(ShapeTriplets(root))); got != want {
+			if got, want := resolvedTriplets(shapeNodes(root, idx)), int64(len(format.ShapeTriplets(root))); got != want {
 				t.Fatalf("shape %s: resolvedTriplets %d, ShapeTriplets lists %d", outlineText(root), got, want)
 			}
 		}

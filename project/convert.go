@@ -13,32 +13,15 @@ import (
 // category, every leaf an item placed in its parent's category.
 func ToCategory(t *solve.Tree, ids []string) *format.Category {
 	root := &format.Category{}
-	if t.N == 0 {
-		return root
-	}
-	if t.IsLeaf(t.Root) {
-		root.Items = []string{ids[t.Root]}
-		return root
-	}
-	type frame struct {
-		node int32
-		cat  *format.Category
-	}
-	stack := []frame{{t.Root, root}}
-	for len(stack) > 0 {
-		f := stack[len(stack)-1]
-		stack = stack[:len(stack)-1]
-		for _, k := range t.Kids[f.node] {
-			if t.IsLeaf(k) {
-				f.cat.Items = append(f.cat.Items, ids[k])
-				continue
-			}
-			child := &format.Category{}
-			f.cat.Children = append(f.cat.Children, child)
-			stack = append(stack, frame{k, child})
-		}
-	}
+	hier.Unfold(t, root, newSubcategory, func(c *format.Category, leaf int32) { c.Items = append(c.Items, ids[leaf]) })
 	return root
+}
+
+// newSubcategory appends an empty subcategory to parent.
+func newSubcategory(parent *format.Category) *format.Category {
+	child := &format.Category{}
+	parent.Children = append(parent.Children, child)
+	return child
 }
 
 // FromCategory turns a category tree into a solver tree over the given

@@ -19,9 +19,6 @@ import (
 // SettingsFile is the name of the settings file at a repository's root.
 const SettingsFile = "ramify.toml"
 
-// ConstraintsDir holds the constraint files, read in sorted order.
-const ConstraintsDir = "constraints"
-
 // MaxConstraintFiles bounds how many constraint files a repository may
 // hold, so a hostile pull request cannot make a check run for hours.
 const MaxConstraintFiles = 10000
@@ -358,7 +355,7 @@ func ConstraintFiles(dir string) ([]string, error) {
 // constraints folder that looks meant as one but is not read: a link, a
 // folder, a hidden .toml file, or a name ending in ".TOML" or the like.
 func constraintEntries(dir string) (files []string, skipped format.Diags, err error) {
-	folder, err := Resolve(dir, ConstraintsDir)
+	folder, err := Resolve(dir, format.ConstraintsDir)
 	if err != nil {
 		return nil, nil, err
 	}
@@ -371,7 +368,7 @@ func constraintEntries(dir string) (files []string, skipped format.Diags, err er
 	}
 	for _, e := range entries {
 		name := e.Name()
-		rel := ConstraintsDir + "/" + name
+		rel := format.ConstraintsDir + "/" + name
 		at := format.Pos{File: rel}
 		tomlish := strings.HasSuffix(strings.ToLower(name), ".toml")
 		switch {
@@ -380,7 +377,7 @@ func constraintEntries(dir string) (files []string, skipped format.Diags, err er
 		case e.Type()&fs.ModeSymlink != 0:
 			skipped.Add(at, "a symbolic link; constraint files must be plain files, so it is not read")
 		case e.IsDir():
-			skipped.Add(at, "a folder; constraint files must lie directly in %s/, so nothing in it is read", ConstraintsDir)
+			skipped.Add(at, "a folder; constraint files must lie directly in %s/, so nothing in it is read", format.ConstraintsDir)
 		case !tomlish:
 			// Not meant as a constraint file (a README, the .keep
 			// placeholder).
@@ -403,10 +400,10 @@ func (p *Project) loadConstraints() format.Diags {
 	files, skipped, err := constraintEntries(p.Dir)
 	p.Warnings = append(p.Warnings, skipped...)
 	if err != nil {
-		return format.Diags{{Pos: format.Pos{File: ConstraintsDir}, Msg: err.Error()}}
+		return format.Diags{{Pos: format.Pos{File: format.ConstraintsDir}, Msg: err.Error()}}
 	}
 	if len(files) > MaxConstraintFiles {
-		ds.Add(format.Pos{File: ConstraintsDir}, "%d constraint files; the limit is %d", len(files), MaxConstraintFiles)
+		ds.Add(format.Pos{File: format.ConstraintsDir}, "%d constraint files; the limit is %d", len(files), MaxConstraintFiles)
 		return ds
 	}
 	for _, rel := range files {

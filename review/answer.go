@@ -7,7 +7,6 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
 )
 
 // Answer is a packet read from reviews/open: its repository path, its id
@@ -107,7 +106,7 @@ func sortedItems(c *format.Category) []string {
 func SameShape(a, b *format.Category) bool {
 	key := func(c *format.Category) []string {
 		var out []string
-		for _, t := range project.ShapeTriplets(c) {
+		for _, t := range format.ShapeTriplets(c) {
 			pair := []string{t[0], t[1]}
 			slices.Sort(pair)
 			out = append(out, pair[0]+" "+pair[1]+"|"+t[2])
@@ -146,7 +145,7 @@ func ShapeFile(a *Answer, by, date string) *format.ConstraintFile {
 }
 
 // ShapePath is where the answer to packet id is recorded.
-func ShapePath(id string) string { return project.ConstraintsDir + "/review-" + id + ".toml" }
+func ShapePath(id string) string { return format.ConstraintsDir + "/review-" + id + ".toml" }
 
 // Review folders, relative to the repository.
 const (

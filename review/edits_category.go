@@ -6,7 +6,6 @@ import (
 
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
 )
 
 // Bounds on the shape recorded for a category moved by hand: members of
@@ -140,10 +139,10 @@ func thinNeighbours(olds []string, n int) []string {
 // triplet the base restriction does not resolve the same way.
 func saysSomethingNew(edited, base *format.Category) bool {
 	had := map[[3]string]bool{}
-	for _, t := range project.ShapeTriplets(base) {
+	for _, t := range format.ShapeTriplets(base) {
 		had[tripletKey(t[0], t[1], t[2])] = true
 	}
-	for _, t := range project.ShapeTriplets(edited) {
+	for _, t := range format.ShapeTriplets(edited) {
 		if !had[tripletKey(t[0], t[1], t[2])] {
 			return true
 		}

@@ -5,7 +5,7 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve"
 )
 
@@ -121,7 +121,7 @@ func pinsKeepHandEdits(t *testing.T, in testGraph) (kept, total int) {
 		ids[i] = "item-" + string(rune('a'+i/26)) + string(rune('a'+i%26))
 		index[ids[i]] = i
 	}
-	base := project.ToCategory(res.Taxonomy, ids)
+	base := toCategory(res.Taxonomy, ids)
 	base.Sort()
 	// The editor moves the first item of three bottom categories into the
 	// category of a far item.
@@ -165,7 +165,7 @@ func pinsKeepHandEdits(t *testing.T, in testGraph) (kept, total int) {
 	// than to its old one: for at least 90% of the pairs of a new mate c
 	// and an old mate o (in its old category but not its new one), it
 	// meets c strictly below o.
-	after := newCatIndex(project.ToCategory(again.Taxonomy, ids))
+	after := newCatIndex(toCategory(again.Taxonomy, ids))
 	bx, ex := newCatIndex(base), newCatIndex(edited)
 	for _, m := range moves {
 		newMates := ex.members(ex.company(m.Item))
@@ -193,4 +193,19 @@ func pinsKeepHandEdits(t *testing.T, in testGraph) (kept, total int) {
 		}
 	}
 	return kept, total
+}
+
+// toCategory turns a solved tree into an unnamed outline, items named by
+// ids (as project.ToCategory does, which this package's tests cannot
+// import).
+func toCategory(t *solve.Tree, ids []string) *format.Category {
+	root := &format.Category{}
+	hier.Unfold(t, root,
+		func(p *format.Category) *format.Category {
+			c := &format.Category{}
+			p.Children = append(p.Children, c)
+			return c
+		},
+		func(c *format.Category, leaf int32) { c.Items = append(c.Items, ids[leaf]) })
+	return root
 }

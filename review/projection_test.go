@@ -9,7 +9,6 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
 )
 
 const fullOutline = `
@@ -88,7 +87,7 @@ func TestRestrictKeepsTriplets(t *testing.T) {
 		slices.Sort(out)
 		return out
 	}
-	fullTriplets := project.ShapeTriplets(full)
+	fullTriplets := format.ShapeTriplets(full)
 	r := rand.New(rand.NewPCG(3, 4))
 	for trial := range 200 {
 		k := 3 + r.IntN(len(all)-2)
@@ -99,7 +98,7 @@ func TestRestrictKeepsTriplets(t *testing.T) {
 			keep[all[i]] = true
 		}
 		proj := Restrict(full, q)
-		if got, want := key(project.ShapeTriplets(proj), nil), key(fullTriplets, keep); !slices.Equal(got, want) {
+		if got, want := key(format.ShapeTriplets(proj), nil), key(fullTriplets, keep); !slices.Equal(got, want) {
 			t.Fatalf("trial %d, items %v: triplets of T|Q %v, of T %v", trial, q, got, want)
 		}
 		proj.Walk(func(c *format.Category, depth int) bool {

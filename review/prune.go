@@ -2,7 +2,6 @@ package review
 
 import (
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
 )
 
 // PruneRecords removes from cf, in place, the triplet records that say
@@ -38,7 +37,7 @@ func PruneRecords(cf *format.ConstraintFile) int {
 		}
 	}
 	for _, s := range cf.Shapes {
-		for _, t := range project.ShapeTriplets(s.Tree) {
+		for _, t := range format.ShapeTriplets(s.Tree) {
 			implied[tripletKey(t[0], t[1], t[2])] = true
 		}
 	}

@@ -6,7 +6,6 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
 )
 
 // randomCategoryTree builds a random multiway tree over leaves l0..l(n-1).
@@ -40,7 +39,7 @@ func TestPruneRulesHoldInEveryTree(t *testing.T) {
 		n := 4 + trial%2
 		root := randomCategoryTree(rng, n)
 		holds := map[[3]string]bool{}
-		for _, tr := range project.ShapeTriplets(root) {
+		for _, tr := range format.ShapeTriplets(root) {
 			holds[tripletKey(tr[0], tr[1], tr[2])] = true
 		}
 		has := func(a, b, c string) bool { return holds[tripletKey(a, b, c)] }

@@ -101,7 +101,7 @@ func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewer
 	pinOf = prunePins(cf, pinOf)
 	if len(cf.Triplets)+len(cf.Shapes) > 0 {
 		sum := sha256.Sum256([]byte("ramify edit\n" + h.from + "\n" + h.to))
-		frel := project.ConstraintsDir + "/" + project.HandEditPrefix + hex.EncodeToString(sum[:6]) + ".toml"
+		frel := format.ConstraintsDir + "/" + project.HandEditPrefix + hex.EncodeToString(sum[:6]) + ".toml"
 		parsed, text, ds := parsedConstraintFile(frel, cf)
 		if len(ds) > 0 {
 			return nil, ds

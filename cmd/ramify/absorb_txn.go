@@ -218,7 +218,7 @@ func recoverInterrupted(e *env) error {
 		e.notice("ramify: finished an absorb that was interrupted (%s)", plural(len(steps), "file", "files"))
 	}
 	var dirs []string
-	for _, d := range []string{".", project.ConstraintsDir, review.OpenDir, review.DoneDir, "releases"} {
+	for _, d := range []string{".", format.ConstraintsDir, review.OpenDir, review.DoneDir, "releases"} {
 		dirs = append(dirs, filepath.Join(dir, filepath.FromSlash(d)))
 	}
 	removed, err := format.CleanStaleTemps(dirs...)

@@ -193,7 +193,7 @@ func exportTarget(p *project.Project, out string) (string, error) {
 			return "", usagef("--out %s would overwrite one of the repository's inputs; choose another file", out)
 		}
 	}
-	for _, dir := range []string{project.ConstraintsDir, "reviews"} {
+	for _, dir := range []string{format.ConstraintsDir, "reviews"} {
 		if clean == dir || strings.HasPrefix(clean, dir+"/") {
 			return "", usagef("--out %s is inside %s/, which holds the repository's decisions; choose another place", out, dir)
 		}

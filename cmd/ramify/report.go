@@ -288,7 +288,7 @@ func categorySupport(e *env, p *project.Project, structure string) (map[*format.
 	if err != nil {
 		return nil, 0, err
 	}
-	tree, nodes := review.CategoryTree(p.Outline.Root, p.Index, len(p.Items))
+	tree, nodes := project.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
 	assessment := committee.Assess(tree)
 	out := map[*format.Category]float64{}
 	p.Outline.Root.Walk(func(c *format.Category, depth int) bool {

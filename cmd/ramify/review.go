@@ -140,7 +140,7 @@ func runReviewDraw(e *env, o *drawOptions, args []string) error {
 	if err != nil {
 		return err
 	}
-	tree, _ := review.CategoryTree(p.Outline.Root, p.Index, len(p.Items))
+	tree, _ := project.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
 	assessment := committee.Assess(tree)
 	drafts := review.Draw(tree, committee, assessment, review.DrawOptions{
 		Count:      count,

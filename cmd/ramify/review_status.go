@@ -215,7 +215,7 @@ func reportSupport(e *env, rep *statusReport, p *project.Project, structure stri
 	if err != nil {
 		return err
 	}
-	tree, nodes := review.CategoryTree(p.Outline.Root, p.Index, len(p.Items))
+	tree, nodes := project.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
 	assessment := committee.Assess(tree)
 	type row struct {
 		path    []string

@@ -1,0 +1,43 @@
+package project
+
+import (
+	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve/graph"
+)
+
+// ReviewCommittee solves the review committee for the project's current
+// taxonomy, as `review draw` and `review status` do: the committee size of
+// the settings (review.DefaultCommitteeSize when unset), members solved
+// from the project's views of the items (Views,
+// review.BuildViewCommittee) under the compiled records, and a seed taken
+// from the structure hash, so the same taxonomy always gets the same
+// committee; a committee solved before from the same inputs is read back
+// from the committee cache (review.CachedViewCommittee). progress may be
+// nil.
+// A conflict among the records comes back as the solver's
+// *solve.ConflictError, naming records by their compiled number.
+func (p *Project) ReviewCommittee(structure string, progress func(stage string, done, total int)) (*review.Committee, *Compiled, error) {
+	if progress != nil {
+		progress("similarity graph", 0, 1)
+	}
+	views, err := p.GraphViews(Seed)
+	if err != nil {
+		return nil, nil, err
+	}
+	compiled := p.Compile()
+	opt := p.CommitteeOptions()
+	opt.Progress = progress
+	if progress != nil {
+		progress("committee of trees", 0, 1)
+	}
+	size := p.Settings.Review.Committee
+	if size < 2 {
+		size = review.DefaultCommitteeSize
+	}
+	graphs := make([]*graph.CSR, len(views))
+	for i, v := range views {
+		graphs[i] = v.Graph
+	}
+	c, err := review.CachedViewCommittee(review.CommitteeCacheDir(), graphs, compiled.Constraints, opt, size, review.Seed(structure))
+	return c, compiled, err
+}
