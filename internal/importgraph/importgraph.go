@@ -1,0 +1,95 @@
+// Package importgraph states the layers of ramify's packages and checks
+// an import graph against them: a package may import only packages of a
+// lower layer, so shared structures live low (the leaf packages) and no
+// import runs uphill. The table is the one DEVELOPERS.md draws; its test
+// reads the module's real graph with `go list` and fails on a package
+// that imports one it must not, or that the table does not place.
+//
+// Only the imports of the built packages count: a test may import a
+// package above its own (solve's benchmarks use solve/planted).
+package importgraph
+
+import (
+	"fmt"
+	"slices"
+	"strings"
+)
+
+// Module is the import path every package of ramify starts with.
+const Module = "github.com/ramify-tax/ramify"
+
+// Layers lists ramify's packages (paths below Module) from the bottom up.
+// A package may import those of the layers below its own, never one of
+// its own layer or above.
+var Layers = [][]string{
+	// 0, leaf packages: nothing of ramify below them.
+	{"hier", "match", "bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/browsertest", "internal/importgraph"},
+	// 1, the document model and its codecs.
+	{"format"},
+	// 2, what reads documents without solving: the graph, comparison,
+	// names, writers.
+	{"solve/graph", "diff", "solve/naming", "export", "binding", "bench/realdata"},
+	// 3, the solver and what builds on comparison and names.
+	{"solve", "concept", "rdf", "bench/stability/stable"},
+	// 4, what runs the solver.
+	{"review", "solve/planted", "skos"},
+	// 5, a whole repository: loading, regenerating, the committee for it.
+	{"project"},
+	// 6, views of a loaded repository.
+	{"explain", "report", "bench/reviewloop/loop"},
+	// 7, programs.
+	{"cmd/ramify", "bench/genrepo", "bench/quality", "bench/reviewloop", "bench/solvebench", "bench/stability", "bench/vectorload"},
+}
+
+// layerOf maps each package path (below Module) to its layer.
+func layerOf() map[string]int {
+	m := map[string]int{}
+	for i, layer := range Layers {
+		for _, p := range layer {
+			m[p] = i
+		}
+	}
+	return m
+}
+
+// Violations lists, sorted, what is wrong with graph (full import path →
+// its imports): packages of the module the table does not place, and
+// imports of ramify packages that are not of a lower layer. Imports from
+// outside the module are not judged.
+func Violations(graph map[string][]string) []string {
+	layer := layerOf()
+	rel := func(p string) (string, bool) {
+		if p == Module {
+			return ".", true
+		}
+		r, ok := strings.CutPrefix(p, Module+"/")
+		return r, ok
+	}
+	var out []string
+	for pkg, imports := range graph {
+		from, ok := rel(pkg)
+		if !ok {
+			continue
+		}
+		lf, placed := layer[from]
+		if !placed {
+			out = append(out, fmt.Sprintf("%s is in no layer; add it to importgraph.Layers and DEVELOPERS.md", from))
+			continue
+		}
+		for _, imp := range imports {
+			to, ok := rel(imp)
+			if !ok {
+				continue
+			}
+			lt, placed := layer[to]
+			if !placed {
+				continue // reported as a package of its own
+			}
+			if lt >= lf {
+				out = append(out, fmt.Sprintf("%s (layer %d) imports %s (layer %d)", from, lf, to, lt))
+			}
+		}
+	}
+	slices.Sort(out)
+	return out
+}

@@ -1,0 +1,70 @@
+package importgraph
+
+import (
+	"bufio"
+	"bytes"
+	"os/exec"
+	"slices"
+	"strings"
+	"testing"
+)
+
+// TestModuleFollowsLayers reads the module's import graph with `go list`
+// and checks it against Layers.
+func TestModuleFollowsLayers(t *testing.T) {
+	goTool, err := exec.LookPath("go")
+	if err != nil {
+		t.Fatalf("the go command is needed to list the packages: %v", err)
+	}
+	cmd := exec.Command(goTool, "list", "-f", "{{.ImportPath}}{{range .Imports}} {{.}}{{end}}", Module+"/...")
+	var stderr bytes.Buffer
+	cmd.Stderr = &stderr
+	out, err := cmd.Output()
+	if err != nil {
+		t.Fatalf("go list: %v\n%s", err, stderr.String())
+	}
+	graph := map[string][]string{}
+	sc := bufio.NewScanner(bytes.NewReader(out))
+	for sc.Scan() {
+		f := strings.Fields(sc.Text())
+		if len(f) > 0 {
+			graph[f[0]] = f[1:]
+		}
+	}
+	if len(graph) < 10 {
+		t.Fatalf("go list named only %d packages", len(graph))
+	}
+	for _, v := range Violations(graph) {
+		t.Error(v)
+	}
+	// Every package the table names exists, so the table does not go stale.
+	for _, layer := range Layers {
+		for _, p := range layer {
+			if _, ok := graph[Module+"/"+p]; !ok {
+				t.Errorf("Layers names %s, which the module does not have", p)
+			}
+		}
+	}
+}
+
+func TestViolations(t *testing.T) {
+	m := func(p string) string { return Module + "/" + p }
+	tests := []struct {
+		name  string
+		graph map[string][]string
+		want  []string
+	}{
+		{"downhill", map[string][]string{m("review"): {m("solve"), m("diff"), m("hier"), "fmt"}}, nil},
+		{"uphill", map[string][]string{m("review"): {m("project")}}, []string{"review (layer 4) imports project (layer 5)"}},
+		{"same layer", map[string][]string{m("solve/naming"): {m("diff")}}, []string{"solve/naming (layer 2) imports diff (layer 2)"}},
+		{"leaf importing format", map[string][]string{m("hier"): {m("format")}}, []string{"hier (layer 0) imports format (layer 1)"}},
+		{"diff importing solve", map[string][]string{m("diff"): {m("solve")}}, []string{"diff (layer 2) imports solve (layer 3)"}},
+		{"unplaced", map[string][]string{m("newpkg"): nil}, []string{"newpkg is in no layer; add it to importgraph.Layers and DEVELOPERS.md"}},
+		{"outside the module", map[string][]string{"example.com/x": {m("cmd/ramify")}}, nil},
+	}
+	for _, tc := range tests {
+		if got := Violations(tc.graph); !slices.Equal(got, tc.want) {
+			t.Errorf("%s: Violations = %q, want %q", tc.name, got, tc.want)
+		}
+	}
+}
