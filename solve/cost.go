@@ -6,6 +6,7 @@ import (
 	"math"
 
 	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/internal/disjoint"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -51,12 +52,14 @@ func CostChecked(g *graph.CSR, t *Tree) (float64, error) {
 // the weight that crosses between different children of v, which is what
 // the node form of Dasgupta's cost, rotations and folds need.
 //
-// It runs Tarjan's offline LCA over a depth-first walk of t: when a leaf u
-// is reached, every neighbour v of u already visited has lca(u,v) equal to
-// the highest still-open ancestor of v's union-find set. Each edge is
-// therefore handled once, at its later endpoint, in O((n+m)·α(n)) time and
-// O(n) extra memory. The walk, and hence the order of every floating-point
-// addition, depends only on t and g.
+// It runs Tarjan's offline LCA (R. E. Tarjan, "Applications of path
+// compression on balanced trees", JACM 26(4), 1979) over the post-order of
+// t's depth-first index (hier.Index): when a leaf u is reached, every
+// neighbour v of u at an earlier leaf position has lca(u,v) equal to the
+// highest still-open ancestor of v's union-find set. Each edge is
+// therefore handled once, at its later endpoint, with O(n) extra memory
+// (no LCA table is built). The walk, and hence the order of every
+// floating-point addition, depends only on t and g.
 func CrossWeights(g *graph.CSR, t *Tree) ([]float64, error) {
 	if err := hier.Check(t); err != nil {
 		return nil, err
@@ -64,59 +67,41 @@ func CrossWeights(g *graph.CSR, t *Tree) ([]float64, error) {
 	if err := costCheckGraph(g); err != nil {
 		return nil, err
 	}
+	x := hier.NewIndex(t)
 	nodes := t.NumNodes()
 	cross := make([]float64, nodes)
 	comp := make([]float64, nodes) // Neumaier compensation per node
-	uf := newLCAForest(nodes)
-	open := make([]int32, nodes) // open[find(x)] = highest open node of x's set
-	seen := make([]bool, g.N)    // leaf already reached by the walk
-	reached := 0
-
-	type frame struct {
-		v    int32
-		next int
+	sets := disjoint.New(nodes)
+	open := make([]int32, nodes) // open[Find(v)] = highest open node of v's set
+	for v := range open {
+		open[v] = int32(v)
 	}
-	stack := []frame{{t.Root, 0}}
-	open[t.Root] = t.Root
-	for len(stack) > 0 {
-		f := &stack[len(stack)-1]
-		v := f.v
-		if f.next < len(t.Kids[v]) {
-			c := t.Kids[v][f.next]
-			f.next++
-			open[c] = c
-			stack = append(stack, frame{c, 0})
-			continue
-		}
-		stack = stack[:len(stack)-1]
+	reached := func(v int32) bool { return int(v) < t.N && x.Pos[v] >= 0 }
+	for _, v := range x.Post {
 		if t.IsLeaf(v) && int(v) < g.N {
+			p := x.Pos[v]
 			ts, ws := g.Neighbors(int(v))
 			for k, u := range ts {
-				if !seen[u] {
+				if !reached(u) || x.Pos[u] >= p {
 					continue
 				}
-				l := open[uf.find(u)]
+				l := open[sets.Find(u)]
 				addCompensated(&cross[l], &comp[l], ws[k])
 			}
-			seen[v] = true
-			reached++
 		}
-		if len(stack) > 0 {
-			p := stack[len(stack)-1].v
-			r := uf.union(p, v)
-			open[r] = p
+		if parent := x.Parent[v]; parent >= 0 {
+			sets.Union(parent, v)
+			open[sets.Find(parent)] = parent
 		}
 	}
 	for v := range cross {
 		cross[v] += comp[v]
 	}
-	if reached < g.N {
-		// A vertex the walk never reached may still be isolated; only an
-		// edge to it makes the tree unfit for the graph.
-		for v := 0; v < g.N; v++ {
-			if !seen[v] && g.Offsets[v+1] > g.Offsets[v] {
-				return nil, fmt.Errorf("vertex %d has edges but is not a leaf under the root", v)
-			}
+	// A vertex the walk never reached may still be isolated; only an edge
+	// to it makes the tree unfit for the graph.
+	for v := 0; v < g.N; v++ {
+		if !reached(int32(v)) && g.Offsets[v+1] > g.Offsets[v] {
+			return nil, fmt.Errorf("vertex %d has edges but is not a leaf under the root", v)
 		}
 	}
 	return cross, nil
@@ -166,41 +151,4 @@ func addCompensated(sum, comp *float64, x float64) {
 		*comp += (x - t) + *sum
 	}
 	*sum = t
-}
-
-// lcaForest is a disjoint-set forest with path halving and union by size.
-type lcaForest struct {
-	parent []int32
-	size   []int32
-}
-
-func newLCAForest(n int) *lcaForest {
-	u := &lcaForest{parent: make([]int32, n), size: make([]int32, n)}
-	for i := range u.parent {
-		u.parent[i] = int32(i)
-		u.size[i] = 1
-	}
-	return u
-}
-
-func (u *lcaForest) find(x int32) int32 {
-	for u.parent[x] != x {
-		u.parent[x] = u.parent[u.parent[x]]
-		x = u.parent[x]
-	}
-	return x
-}
-
-// union joins the sets of a and b and returns the new representative.
-func (u *lcaForest) union(a, b int32) int32 {
-	ra, rb := u.find(a), u.find(b)
-	if ra == rb {
-		return ra
-	}
-	if u.size[ra] < u.size[rb] {
-		ra, rb = rb, ra
-	}
-	u.parent[rb] = ra
-	u.size[ra] += u.size[rb]
-	return ra
 }
