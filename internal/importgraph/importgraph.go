@@ -23,7 +23,7 @@ const Module = "github.com/ramify-tax/ramify"
 // its own layer or above.
 var Layers = [][]string{
 	// 0, leaf packages: nothing of ramify below them.
-	{"hier", "match", "bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/browsertest", "internal/importgraph"},
+	{"hier", "match", "bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/browsertest", "internal/importgraph", "internal/round"},
 	// 1, the document model and its codecs.
 	{"format"},
 	// 2, what reads documents without solving: the graph, comparison,
@@ -35,8 +35,8 @@ var Layers = [][]string{
 	{"review", "solve/planted", "skos"},
 	// 5, a whole repository: loading, regenerating, the committee for it.
 	{"project"},
-	// 6, views of a loaded repository.
-	{"explain", "report", "bench/reviewloop/loop"},
+	// 6, views of a loaded repository and its releases.
+	{"explain", "report", "release", "bench/reviewloop/loop"},
 	// 7, programs.
 	{"cmd/ramify", "bench/genrepo", "bench/quality", "bench/reviewloop", "bench/solvebench", "bench/stability", "bench/vectorload"},
 }

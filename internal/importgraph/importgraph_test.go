@@ -3,7 +3,10 @@ package importgraph
 import (
 	"bufio"
 	"bytes"
+	"io/fs"
+	"os"
 	"os/exec"
+	"path/filepath"
 	"slices"
 	"strings"
 	"testing"
@@ -34,6 +37,7 @@ func TestModuleFollowsLayers(t *testing.T) {
 	if len(graph) < 10 {
 		t.Fatalf("go list named only %d packages", len(graph))
 	}
+	watchSources(t)
 	for _, v := range Violations(graph) {
 		t.Error(v)
 	}
@@ -44,6 +48,32 @@ func TestModuleFollowsLayers(t *testing.T) {
 				t.Errorf("Layers names %s, which the module does not have", p)
 			}
 		}
+	}
+}
+
+// watchSources looks at every folder and Go file of the module from this
+// process, so that go test's result cache, which does not see what the go
+// list child reads, is dropped when a package or an import changes.
+func watchSources(t *testing.T) {
+	out, err := exec.Command("go", "list", "-m", "-f", "{{.Dir}}").Output()
+	if err != nil {
+		t.Fatalf("go list -m: %v", err)
+	}
+	root := strings.TrimSpace(string(out))
+	err = filepath.WalkDir(root, func(path string, d fs.DirEntry, err error) error {
+		if err != nil {
+			return err
+		}
+		if d.IsDir() && (d.Name() == ".git" || d.Name() == "testdata") {
+			return filepath.SkipDir
+		}
+		if !d.IsDir() && strings.HasSuffix(path, ".go") {
+			_, err = os.Stat(path)
+		}
+		return err
+	})
+	if err != nil {
+		t.Fatal(err)
 	}
 }
 
