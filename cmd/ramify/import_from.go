@@ -68,32 +68,8 @@ func importTaxonomy(e *env, o *initOptions, dir string) error {
 		return err
 	}
 	source := filepath.Base(from)
-	itemsText := formatImportedItems(source, items)
-	root.Sort()
-	// Every category gets its concept identifier now, when it first
-	// appears in the repository (an imported file may bring its own).
-	concept.Carry(root)
-	outlineText := append([]byte(format.OutlineHeader+"\n"), format.FormatTree(root)...)
-	outlineText = append(outlineText, format.ConceptBlock(root)...)
-	// Both files must read back as what was imported; anything else is a
-	// bug here, and is caught before a byte is written.
-	if back, err := format.ParseItemsTOML(importItemsFile, itemsText); err != nil || len(back) != len(items) {
-		return fmt.Errorf("the items file made from %s does not read back (%v); please report this", source, err)
-	}
-	if o, err := format.ParseOutline(importOutlineFile, outlineText); err != nil || o.Structure != "" || o.Root.Size() != len(items) {
-		return fmt.Errorf("the outline made from %s does not read back (%v); please report this", source, err)
-	}
-	if err := os.MkdirAll(dir, 0o755); err != nil {
+	if err := writeImported(dir, source, root, items); err != nil {
 		return err
-	}
-	for _, f := range []scaffoldFile{{importOutlineFile, string(outlineText)}, {importItemsFile, string(itemsText)}} {
-		full, err := project.Resolve(dir, f.path)
-		if err != nil {
-			return failf("%s: %v", f.path, err)
-		}
-		if err := format.WriteFileAtomic(full, []byte(f.content), 0o644); err != nil {
-			return err
-		}
 	}
 	var pinned []string
 	pinGroups := 0
@@ -136,6 +112,40 @@ func importTaxonomy(e *env, o *initOptions, dir string) error {
 	rep.Imported = &importedJSON{From: source, Items: len(items), Categories: root.CountCategories()}
 	rep.Wrote, rep.Kept = nonNil(wrote), nonNil(kept)
 	e.result = rep
+	return nil
+}
+
+// writeImported writes the imported tree as taxonomy.outline, its
+// categories sorted and each given its concept identifier, and its items
+// as items.toml, once both read back as what was imported.
+func writeImported(dir, source string, root *format.Category, items []format.Item) error {
+	itemsText := formatImportedItems(source, items)
+	root.Sort()
+	// Every category gets its concept identifier now, when it first
+	// appears in the repository (an imported file may bring its own).
+	concept.Carry(root)
+	outlineText := append([]byte(format.OutlineHeader+"\n"), format.FormatTree(root)...)
+	outlineText = append(outlineText, format.ConceptBlock(root)...)
+	// Both files must read back as what was imported; anything else is a
+	// bug here, and is caught before a byte is written.
+	if back, err := format.ParseItemsTOML(importItemsFile, itemsText); err != nil || len(back) != len(items) {
+		return fmt.Errorf("the items file made from %s does not read back (%v); please report this", source, err)
+	}
+	if o, err := format.ParseOutline(importOutlineFile, outlineText); err != nil || o.Structure != "" || o.Root.Size() != len(items) {
+		return fmt.Errorf("the outline made from %s does not read back (%v); please report this", source, err)
+	}
+	if err := os.MkdirAll(dir, 0o755); err != nil {
+		return err
+	}
+	for _, f := range []scaffoldFile{{importOutlineFile, string(outlineText)}, {importItemsFile, string(itemsText)}} {
+		full, err := project.Resolve(dir, f.path)
+		if err != nil {
+			return failf("%s: %v", f.path, err)
+		}
+		if err := format.WriteFileAtomic(full, []byte(f.content), 0o644); err != nil {
+			return err
+		}
+	}
 	return nil
 }
 
