@@ -28,7 +28,7 @@ type Options struct {
 	// choice.
 	Seed uint64
 	// Stability in (0, 1] holds the categories of Prior together while the
-	// similarity graph still backs them (softUnions in construct.go): a
+	// similarity graph still backs them (softUnions in supernodes.go): a
 	// previous category stays one piece as long as its edge density is at
 	// least (1 − Stability) times that of the set it is cut from, and the
 	// fold keeps the nodes that reproduce previous categories. 0 = off.

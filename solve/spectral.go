@@ -25,7 +25,7 @@ import (
 // is the normalised Laplacian N = I − D^{-1/2} W D^{-1/2} (x = D^{-1/2} v for
 // an eigenvector v of N); with b = unit masses it is the combinatorial L;
 // with b = super-node masses it is the relaxation of uniform sparsity with
-// masses that the constrained construction needs (construct.go's
+// masses that the constrained construction needs (supernodes.go's
 // super-nodes: minimising xᵀLx/xᵀBx relaxes w(A,B)/(m(A)·m(B))).
 // Internally everything works on the symmetric matrix A = B^{-1/2} L B^{-1/2},
 // whose bottom eigenvector B^{1/2} 1 is known and deflated.
