@@ -288,20 +288,6 @@ func newConstructWorker(n int) *constructWorker {
 	return &constructWorker{mark: make([]int32, n)}
 }
 
-func growInt32(buf []int32, n int) []int32 {
-	if cap(buf) < n {
-		return make([]int32, n, n+n/4)
-	}
-	return buf[:n]
-}
-
-func growInt8(buf []int8, n int) []int8 {
-	if cap(buf) < n {
-		return make([]int8, n, n+n/4)
-	}
-	return buf[:n]
-}
-
 var errInconsistent = errors.New("solve: constraints are inconsistent")
 
 // process splits one set and returns the child tasks and how many leaves
