@@ -13,3 +13,10 @@ func growInt8(buf []int8, n int) []int8 {
 	}
 	return buf[:n]
 }
+
+func grow(buf []float64, n int) []float64 {
+	if cap(buf) < n {
+		return make([]float64, n)
+	}
+	return buf[:n]
+}

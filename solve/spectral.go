@@ -68,13 +68,6 @@ type spectralWork struct {
 	beta     []float64
 }
 
-func grow(buf []float64, n int) []float64 {
-	if cap(buf) < n {
-		return make([]float64, n)
-	}
-	return buf[:n]
-}
-
 // setMeasure prepares B^{-1/2}.
 func (sp *spectralWork) setMeasure(b []float64) {
 	sp.s = grow(sp.s, len(b))
