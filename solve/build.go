@@ -186,17 +186,6 @@ func compileBuild(n int, c *Constraints, keep map[int]bool) *buildProblem {
 	return p
 }
 
-func sortedUnique(ls []int32) []int32 {
-	sort.Slice(ls, func(i, j int) bool { return ls[i] < ls[j] })
-	out := ls[:0]
-	for i, l := range ls {
-		if i == 0 || l != ls[i-1] {
-			out = append(out, l)
-		}
-	}
-	return out
-}
-
 // buildTask is one recursion set: order[lo:hi] are its leaves (ascending),
 // trip[tlo:thi] and clus[clo:chi] its active constraints, node its id.
 type buildTask struct {
@@ -325,15 +314,4 @@ func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
 		t.Root = root
 	}
 	return t, nil
-}
-
-func uniqueInts(xs []int) []int {
-	sort.Ints(xs)
-	out := xs[:0]
-	for i, x := range xs {
-		if i == 0 || x != xs[i-1] {
-			out = append(out, x)
-		}
-	}
-	return out
 }
