@@ -43,3 +43,11 @@ func RandomGraph(tb testing.TB, seed, stream uint64, n, extra int) *graph.CSR {
 	}
 	return MustGraph(tb, n, es)
 }
+
+// FrontierPassForTest runs one frontier re-arrangement pass on t in place,
+// at the depth the solver uses for t.N leaves, and returns how many moves
+// it applied and the cost they saved.
+func FrontierPassForTest(g *graph.CSR, t *Tree, c *Constraints) (int, float64) {
+	k, saved, _ := frontierPass(g, t, c, nil, frontierDepth(t.N))
+	return k, saved
+}
