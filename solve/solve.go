@@ -67,8 +67,9 @@ func (e *ConflictError) Error() string {
 // Solve builds the taxonomy for g under the constraints c (nil: none).
 // Consistency is decided first, before any clustering; inconsistent
 // constraints give a *ConflictError. The binary tree is built top-down
-// (construct.go), improved by rotations (improve.go) and folded into the
-// multiway taxonomy (fold.go); every step keeps every constraint.
+// (construct.go), improved by rotations (improve.go) and re-arranged
+// subtree tops (frontier.go), and folded into the multiway taxonomy
+// (fold.go); every step keeps every constraint.
 func Solve(g *graph.CSR, c *Constraints, opt Options) (*Result, error) {
 	return solveWith(g, c, opt, constructParams{})
 }

@@ -45,7 +45,7 @@ func BenchmarkSolve(b *testing.B) {
 }
 
 // BenchmarkFrontierPass times one pass of the frontier re-arrangement
-// (improve.go) on the average-linkage tree of a planted hierarchy, which
+// (frontier.go) on the average-linkage tree of a planted hierarchy, which
 // leaves it many improving moves, with and without triplet records drawn
 // from the planted tree. Each run starts from a fresh copy of the tree.
 func BenchmarkFrontierPass(b *testing.B) {
