@@ -90,9 +90,7 @@ func run(sets, arms []string, rounds, count, orders int, bin string, perRound bo
 	if perRound {
 		loop.PrintRounds(os.Stdout, results)
 	}
-	if len(arms) == 2 {
-		loop.PrintSummary(os.Stdout, results, sets, count)
-	}
+	loop.PrintSummary(os.Stdout, results, sets, count)
 	return nil
 }
 

@@ -4,6 +4,7 @@ import (
 	"fmt"
 	"io"
 	"math"
+	"slices"
 )
 
 // Result is one run of the loop with what identifies it.
@@ -118,8 +119,14 @@ func PrintSummary(w io.Writer, results []Result, sets []string, count int) {
 	type acc struct{ notFalling, repaired, broken, f20, f40, rec, auc, resolved float64 }
 	means := map[string]*acc{}
 	reach := 0.0
+	var ran []Arm // the arms with results, in Arms order
+	for _, arm := range Arms {
+		if slices.ContainsFunc(results, func(r Result) bool { return r.Arm == arm.Name }) {
+			ran = append(ran, arm)
+		}
+	}
 	for _, set := range sets {
-		for _, arm := range Arms {
+		for _, arm := range ran {
 			s := Summarize(results, set, arm.Name)
 			f20, f40 := F1After(results, set, arm.Name, 20), F1After(results, set, arm.Name, 40)
 			fmt.Fprintf(w, "%-10s %-7s %10.3f %9.0f %8.0f %7.2f %8.4f %8.4f %8.4f %6.3f %8.1f\n",
@@ -143,12 +150,15 @@ func PrintSummary(w io.Writer, results []Result, sets []string, count int) {
 		}
 	}
 	k := float64(len(sets))
-	for _, arm := range Arms {
+	for _, arm := range ran {
 		m := means[arm.Name]
 		fmt.Fprintf(w, "%-10s %-7s %10.3f %9.0f %8.0f %7.2f %8.4f %8.4f %8.4f %6.3f %8.1f\n",
 			"MEAN", arm.Name, m.notFalling/k, m.repaired/k, m.broken/k, ratio(m.repaired, m.broken), m.f20/k, m.f40/k, m.rec/k, m.auc/k, m.resolved/k)
 	}
 	d, r := means["default"], means["random"]
+	if d == nil || r == nil {
+		return // the targets compare the two arms
+	}
 	fmt.Fprintf(w, "\ntargets (default arm, means over %d sets, %d packets a round):\n", len(sets), count)
 	check := func(name string, ok bool, got string) {
 		mark := "MISSED"
