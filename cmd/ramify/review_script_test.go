@@ -27,7 +27,7 @@ import (
 // top level.
 func cmdHand(ts *testscript.TestScript, neg bool, args []string) {
 	if neg || len(args) < 1 {
-		ts.Fatalf("usage: hand verdict VERDICT REVIEWER FILE... | hand move FILE ITEM NEIGHBOUR")
+		ts.Fatalf("usage: hand verdict VERDICT REVIEWER FILE... (VERDICT fixed, fixed-flat, fixed-as-drawn or as written) | hand move FILE ITEM NEIGHBOUR")
 	}
 	switch args[0] {
 	case "verdict":
@@ -68,7 +68,8 @@ func cmdHand(ts *testscript.TestScript, neg bool, args []string) {
 
 func answerPacket(text, verdict, reviewer string) string {
 	rearrange := verdict == "fixed"
-	if verdict == "fixed-as-drawn" {
+	flatten := verdict == "fixed-flat"
+	if verdict == "fixed-as-drawn" || flatten {
 		verdict = "fixed"
 	}
 	lines := strings.Split(text, "\n")
@@ -85,7 +86,7 @@ func answerPacket(text, verdict, reviewer string) string {
 			treeStart = i + 2 // after the blank line
 		}
 	}
-	if !rearrange || treeStart < 0 || treeStart >= len(lines) {
+	if !(rearrange || flatten) || treeStart < 0 || treeStart >= len(lines) {
 		return strings.Join(lines, "\n")
 	}
 	tree := lines[treeStart:]
@@ -94,6 +95,16 @@ func answerPacket(text, verdict, reviewer string) string {
 	}
 	indent := func(l string) int { return len(l) - len(strings.TrimLeft(l, " ")) }
 	isCat := func(l string) bool { return strings.HasSuffix(l, "/") }
+	if flatten {
+		// Every item side by side: category lines go, items lose their indent.
+		var flat []string
+		for _, l := range tree {
+			if !isCat(l) {
+				flat = append(flat, strings.TrimLeft(l, " "))
+			}
+		}
+		return strings.Join(append(lines[:treeStart], flat...), "\n") + "\n"
+	}
 	firstCat, topItem := -1, -1
 	for i, l := range tree {
 		if indent(l) == 0 && isCat(l) && firstCat < 0 {
