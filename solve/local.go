@@ -77,9 +77,60 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 	}
 	r := newRepairer(g, c, prev, opt)
 	rep := &RepairReport{}
-	// What must be taken out: new items, the items of violated records,
-	// and the items the change names.
-	violated := Satisfies(prev, c)
+	groups, taken := r.takeOutViolated(prev, ch)
+	singles, err := r.placeGroups(r.units(groups, taken.out), taken.oldParent, rep)
+	if err != nil {
+		return nil, nil, err
+	}
+	r.pinHandEdits(ch)
+	late := r.mendBroken(ch, taken, rep)
+	rep.Placed += len(taken.out)
+	if len(late) > 0 {
+		singles = append(singles, r.singleUnits(late)...)
+		slices.SortStableFunc(singles, func(a, b unit) int {
+			return cmp.Or(cmp.Compare(len(r.touch[a.root]), len(r.touch[b.root])), cmp.Compare(a.root, b.root))
+		})
+	}
+	if err := r.placeSingles(singles, taken.oldParent, rep); err != nil {
+		return nil, nil, err
+	}
+	tree := r.t.compact()
+	if len(Satisfies(tree, c)) > 0 {
+		// Not reached when every placement was checked; kept so that a
+		// flaw here can never write a tree that breaks a record.
+		res, err := Solve(g, c, opt)
+		if err != nil {
+			return nil, nil, err
+		}
+		rep.Rebuilt = true
+		return res.Taxonomy, rep, nil
+	}
+	return tree, rep, nil
+}
+
+// takenOut is what Repair has taken out of the tree: out holds every
+// such item; a stay item remembers its old parent in oldParent, where it
+// may go back.
+type takenOut struct {
+	out, stay map[int32]bool
+	oldParent map[int32]int32
+}
+
+// take detaches x if it is still placed.
+func (tk *takenOut) take(r *repairer, x int32) {
+	if r.t.placed(x) {
+		if tk.stay[x] {
+			tk.oldParent[x] = r.t.parent[x]
+		}
+		r.t.detach(x)
+	}
+}
+
+// takeOutViolated takes out what must be placed again: new items, the
+// items of the clusters prev violates and the items ch frees. It returns
+// the violated clusters, each to become one unit.
+func (r *repairer) takeOutViolated(prev *Tree, ch Change) ([][]int32, *takenOut) {
+	violated := Satisfies(prev, r.c)
 	bad := map[int]bool{}
 	for _, rec := range violated {
 		bad[rec] = true
@@ -90,7 +141,7 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 		out[x] = true
 	}
 	var groups [][]int32 // violated clusters, each becomes one unit
-	for _, cl := range c.Clusters {
+	for _, cl := range r.c.Clusters {
 		if bad[cl.Record] && len(cl.Leaves) > 1 {
 			groups = append(groups, cl.Leaves)
 			for _, x := range cl.Leaves {
@@ -98,24 +149,21 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 			}
 		}
 	}
-	for x := int32(0); x < int32(g.N); x++ {
+	for x := int32(0); x < int32(r.g.N); x++ {
 		if !r.t.placed(x) {
 			out[x] = true
 		}
 	}
-	oldParent := make(map[int32]int32, len(out))
-	takeOut := func(x int32) {
-		if r.t.placed(x) {
-			if stay[x] {
-				oldParent[x] = r.t.parent[x]
-			}
-			r.t.detach(x)
-		}
-	}
+	taken := &takenOut{out: out, stay: stay, oldParent: make(map[int32]int32, len(out))}
 	for x := range out {
-		takeOut(x)
+		taken.take(r, x)
 	}
-	units := r.units(groups, out)
+	return groups, taken
+}
+
+// placeGroups places the units built from violated groups and returns the
+// single items, which wait until the broken records are mended.
+func (r *repairer) placeGroups(units []unit, oldParent map[int32]int32, rep *RepairReport) ([]unit, error) {
 	var singles []unit
 	for _, u := range units {
 		if u.root >= 0 {
@@ -123,24 +171,32 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 			continue
 		}
 		if err := r.place(u, oldParent, rep); err != nil {
-			return nil, nil, err
+			return nil, err
 		}
 	}
-	// Items a hand edit names stay where the editor put them while other
-	// records are mended around them.
+	return singles, nil
+}
+
+// pinHandEdits marks the items of the records a hand edit names: they stay
+// where the editor put them while other records are mended around them.
+func (r *repairer) pinHandEdits(ch Change) {
 	r.pinned = map[int32]bool{}
 	for _, rec := range r.tripletRecords() {
 		if ch.Whole[rec] {
 			for _, k := range r.recordTriplets(rec) {
-				for _, x := range uniqueTriple(c.Triplets[k]) {
+				for _, x := range uniqueTriple(r.c.Triplets[k]) {
 					r.pinned[x] = true
 				}
 			}
 		}
 	}
-	// Broken triplets: move the fewest items that mend them, or else join
-	// categories under a new one (wrap); where both fail, take out every
-	// item they name and place them as before.
+}
+
+// mendBroken mends the broken triplet records: it moves the fewest items
+// that mend one, or else joins categories under a new one (wrap); where
+// both fail, it takes out every item the record names and returns them, to
+// be placed like the others.
+func (r *repairer) mendBroken(ch Change, taken *takenOut, rep *RepairReport) []int32 {
 	var late []int32
 	for _, s := range r.brokenRecords() {
 		if !slices.ContainsFunc(s.records, func(rs recordShape) bool { return ch.Whole[rs.record] }) {
@@ -162,18 +218,17 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 			continue
 		}
 		for _, x := range s.items {
-			stay[x], out[x] = true, true
-			takeOut(x)
+			taken.stay[x], taken.out[x] = true, true
+			taken.take(r, x)
 			late = append(late, x)
 		}
 	}
-	rep.Placed += len(out)
-	if len(late) > 0 {
-		singles = append(singles, r.singleUnits(late)...)
-		slices.SortStableFunc(singles, func(a, b unit) int {
-			return cmp.Or(cmp.Compare(len(r.touch[a.root]), len(r.touch[b.root])), cmp.Compare(a.root, b.root))
-		})
-	}
+	return late
+}
+
+// placeSingles places the single items that records name, one by one, and
+// then the free ones (no record names them) all against one tree.
+func (r *repairer) placeSingles(singles []unit, oldParent map[int32]int32, rep *RepairReport) error {
 	var free []int32
 	for _, u := range singles {
 		if len(r.touch[u.root]) == 0 {
@@ -181,22 +236,11 @@ func Repair(g *graph.CSR, c *Constraints, prev *Tree, ch Change, opt Options) (*
 			continue
 		}
 		if err := r.place(u, oldParent, rep); err != nil {
-			return nil, nil, err
+			return err
 		}
 	}
 	r.placeFree(free, oldParent)
-	tree := r.t.compact()
-	if len(Satisfies(tree, c)) > 0 {
-		// Not reached when every placement was checked; kept so that a
-		// flaw here can never write a tree that breaks a record.
-		res, err := Solve(g, c, opt)
-		if err != nil {
-			return nil, nil, err
-		}
-		rep.Rebuilt = true
-		return res.Taxonomy, rep, nil
-	}
-	return tree, rep, nil
+	return nil
 }
 
 // placeFree puts items that no record names where the cost rises least,
