@@ -196,122 +196,170 @@ type buildTask struct {
 // run executes BUILD. On failure it returns the records whose Aho edges
 // connect the failing set (ascending, without repeats).
 func (p *buildProblem) run(wantTree bool) (*Tree, []int) {
-	n := p.n
-	if n == 0 {
+	if p.n == 0 {
 		return NewTree(0), nil
 	}
-	order := make([]int32, n)
-	for i := range order {
-		order[i] = int32(i)
-	}
-	trip := make([]int32, len(p.trips))
-	for i := range trip {
-		trip[i] = int32(i)
-	}
-	clus := make([]int32, 0, len(p.clusters))
-	for i, cl := range p.clusters {
-		if len(cl) < n {
-			clus = append(clus, int32(i))
-		}
-	}
-	uf := make(disjoint.Sets, n)
-	compOf := make([]int32, n) // leaf → child index within the current set
-	firstOf := make([]int32, n)
-	var tmp []int32
-	var counts, tripCounts, clusCounts []int
-	var t *Tree
-	if wantTree {
-		t = NewTree(n)
-	}
-	var stack []buildTask
+	br := newBuildRun(p, wantTree)
 	root := int32(0)
-	if n > 1 && wantTree {
-		root = t.Add()
+	if p.n > 1 && wantTree {
+		root = br.t.Add()
 	}
-	stack = append(stack, buildTask{0, n, 0, len(trip), 0, len(clus), root})
+	stack := []buildTask{{0, p.n, 0, len(br.trip), 0, len(br.clus), root}}
 	for len(stack) > 0 {
 		tk := stack[len(stack)-1]
 		stack = stack[:len(stack)-1]
-		set := order[tk.lo:tk.hi]
-		if len(set) < 2 {
+		if tk.hi-tk.lo < 2 {
 			continue
 		}
-		for _, l := range set {
-			uf[l] = l
-		}
-		var witness []int
-		for _, ti := range trip[tk.tlo:tk.thi] {
-			tr := p.trips[ti]
-			if uf.Union(tr.A, tr.B) {
-				witness = append(witness, tr.Record)
-			}
-		}
-		for _, ci := range clus[tk.clo:tk.chi] {
-			cl := p.clusters[ci]
-			for _, l := range cl[1:] {
-				if uf.Union(cl[0], l) {
-					witness = append(witness, p.clusRec[ci])
-				}
-			}
-		}
-		// Children in order of their smallest leaf: set is ascending, so
-		// first appearance of a root gives that order.
-		nc := int32(0)
-		for _, l := range set {
-			r := uf.Find(l)
-			if r == l {
-				firstOf[l] = nc
-				nc++
-			}
-		}
+		nc, witness := br.ahoComponents(tk)
 		if nc == 1 {
 			return nil, uniqueInts(witness)
 		}
-		for _, l := range set {
-			compOf[l] = firstOf[uf.Find(l)]
-		}
-		counts = stablePartition(set, int(nc), func(l int32) int32 { return compOf[l] }, &tmp, counts)
-		// Constraints go to the child that holds them whole.
-		tripCounts = stablePartition(trip[tk.tlo:tk.thi], int(nc), func(ti int32) int32 {
-			if tr := p.trips[ti]; compOf[tr.A] == compOf[tr.C] {
-				return compOf[tr.A]
-			}
-			return -1
-		}, &tmp, tripCounts)
-		clusCounts = stablePartition(clus[tk.clo:tk.chi], int(nc), func(ci int32) int32 {
-			if cl := p.clusters[ci]; len(cl) < counts[compOf[cl[0]]] {
-				return compOf[cl[0]]
-			}
-			return -1
-		}, &tmp, clusCounts)
-		lo, tlo, clo := tk.lo, tk.tlo, tk.clo
-		var kids []int32
-		var childTasks []buildTask
-		for k := 0; k < int(nc); k++ {
-			sz := counts[k]
-			child := buildTask{lo, lo + sz, tlo, tlo + tripCounts[k], clo, clo + clusCounts[k], -1}
-			if sz == 1 {
-				child.node = order[lo]
-			} else if wantTree {
-				child.node = t.Add()
-			}
-			kids = append(kids, child.node)
-			if sz > 1 {
-				childTasks = append(childTasks, child)
-			}
-			lo += sz
-			tlo += tripCounts[k]
-			clo += clusCounts[k]
-		}
-		if wantTree {
-			t.Kids[tk.node] = kids
-		}
+		br.partition(tk, nc)
+		childTasks := br.children(tk, nc)
 		for k := len(childTasks) - 1; k >= 0; k-- {
 			stack = append(stack, childTasks[k])
 		}
 	}
 	if wantTree {
-		t.Root = root
+		br.t.Root = root
 	}
-	return t, nil
+	return br.t, nil
+}
+
+// buildRun is the state of one run of BUILD: the leaf order and the
+// active constraints, whose segments the recursion sets own, and the
+// scratch of the current set.
+type buildRun struct {
+	p          *buildProblem
+	order      []int32
+	trip       []int32
+	clus       []int32
+	uf         disjoint.Sets
+	compOf     []int32 // leaf → child index within the current set
+	firstOf    []int32
+	tmp        []int32
+	counts     []int
+	tripCounts []int
+	clusCounts []int
+	t          *Tree // nil unless a tree is wanted
+}
+
+func newBuildRun(p *buildProblem, wantTree bool) *buildRun {
+	n := p.n
+	br := &buildRun{p: p}
+	br.order = make([]int32, n)
+	for i := range br.order {
+		br.order[i] = int32(i)
+	}
+	br.trip = make([]int32, len(p.trips))
+	for i := range br.trip {
+		br.trip[i] = int32(i)
+	}
+	br.clus = make([]int32, 0, len(p.clusters))
+	for i, cl := range p.clusters {
+		if len(cl) < n {
+			br.clus = append(br.clus, int32(i))
+		}
+	}
+	br.uf = make(disjoint.Sets, n)
+	br.compOf = make([]int32, n)
+	br.firstOf = make([]int32, n)
+	if wantTree {
+		br.t = NewTree(n)
+	}
+	return br
+}
+
+// ahoComponents joins the Aho graph's edges on the set and numbers its
+// components, which are the children, in order of their smallest leaf
+// (in compOf). It returns their number and the records of the edges that
+// joined two components.
+func (br *buildRun) ahoComponents(tk buildTask) (int32, []int) {
+	p, uf := br.p, br.uf
+	set := br.order[tk.lo:tk.hi]
+	for _, l := range set {
+		uf[l] = l
+	}
+	var witness []int
+	for _, ti := range br.trip[tk.tlo:tk.thi] {
+		tr := p.trips[ti]
+		if uf.Union(tr.A, tr.B) {
+			witness = append(witness, tr.Record)
+		}
+	}
+	for _, ci := range br.clus[tk.clo:tk.chi] {
+		cl := p.clusters[ci]
+		for _, l := range cl[1:] {
+			if uf.Union(cl[0], l) {
+				witness = append(witness, p.clusRec[ci])
+			}
+		}
+	}
+	// Children in order of their smallest leaf: set is ascending, so
+	// first appearance of a root gives that order.
+	nc := int32(0)
+	for _, l := range set {
+		r := uf.Find(l)
+		if r == l {
+			br.firstOf[l] = nc
+			nc++
+		}
+	}
+	if nc == 1 {
+		return nc, witness
+	}
+	for _, l := range set {
+		br.compOf[l] = br.firstOf[uf.Find(l)]
+	}
+	return nc, witness
+}
+
+// partition groups the set's leaves by child, and hands each constraint to
+// the child that holds it whole.
+func (br *buildRun) partition(tk buildTask, nc int32) {
+	p, compOf := br.p, br.compOf
+	set := br.order[tk.lo:tk.hi]
+	br.counts = stablePartition(set, int(nc), func(l int32) int32 { return compOf[l] }, &br.tmp, br.counts)
+	br.tripCounts = stablePartition(br.trip[tk.tlo:tk.thi], int(nc), func(ti int32) int32 {
+		if tr := p.trips[ti]; compOf[tr.A] == compOf[tr.C] {
+			return compOf[tr.A]
+		}
+		return -1
+	}, &br.tmp, br.tripCounts)
+	br.clusCounts = stablePartition(br.clus[tk.clo:tk.chi], int(nc), func(ci int32) int32 {
+		if cl := p.clusters[ci]; len(cl) < br.counts[compOf[cl[0]]] {
+			return compOf[cl[0]]
+		}
+		return -1
+	}, &br.tmp, br.clusCounts)
+}
+
+// children makes the set's children (a leaf, or a new node when a tree is
+// wanted), hangs them under the set's node and returns the tasks of those
+// with more than one leaf, in order.
+func (br *buildRun) children(tk buildTask, nc int32) []buildTask {
+	lo, tlo, clo := tk.lo, tk.tlo, tk.clo
+	var kids []int32
+	var childTasks []buildTask
+	for k := 0; k < int(nc); k++ {
+		sz := br.counts[k]
+		child := buildTask{lo, lo + sz, tlo, tlo + br.tripCounts[k], clo, clo + br.clusCounts[k], -1}
+		if sz == 1 {
+			child.node = br.order[lo]
+		} else if br.t != nil {
+			child.node = br.t.Add()
+		}
+		kids = append(kids, child.node)
+		if sz > 1 {
+			childTasks = append(childTasks, child)
+		}
+		lo += sz
+		tlo += br.tripCounts[k]
+		clo += br.clusCounts[k]
+	}
+	if br.t != nil {
+		br.t.Kids[tk.node] = kids
+	}
+	return childTasks
 }
