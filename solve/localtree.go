@@ -302,7 +302,17 @@ func (t *mutableTree) index(g *graph.CSR, keys []uint64, c *Constraints) *treeIn
 		hash: make([]uint64, nodes), byHash: map[uint64]int32{}, locked: make([]bool, nodes),
 		upper: make([]float64, nodes), under: make([]float64, nodes), unitRoot: -1,
 	}
-	// Pre-order for depth and entry times; post-order for sizes.
+	order := ix.walk(t, keys)
+	ix.lockGroups(t, keys, c)
+	ix.sumUpper(t, g, order)
+	return ix
+}
+
+// walk fills the node measures: depth and entry times in pre-order;
+// sizes, leaf-set hashes, heights, exit times and subcategory counts in
+// post-order; and byHash, the shallowest node of each hash. It returns the
+// pre-order.
+func (ix *treeIndex) walk(t *mutableTree, keys []uint64) []int32 {
 	var order []int32
 	stack := []int32{t.root}
 	clock := int32(0)
@@ -340,8 +350,13 @@ func (t *mutableTree) index(g *graph.CSR, keys []uint64, c *Constraints) *treeIn
 			ix.byHash[ix.hash[v]] = v
 		}
 	}
-	// A group whose items are all placed locks the deepest node holding
-	// exactly its items: nothing may join that node or anything below.
+	return order
+}
+
+// lockGroups marks, for each group whose items are all placed, the
+// deepest node holding exactly its items: nothing may join that node or
+// anything below.
+func (ix *treeIndex) lockGroups(t *mutableTree, keys []uint64, c *Constraints) {
 	for _, cl := range c.Clusters {
 		var h uint64
 		all := true
@@ -364,9 +379,13 @@ func (t *mutableTree) index(g *graph.CSR, keys []uint64, c *Constraints) *treeIn
 		}
 		ix.locked[v] = true
 	}
-	// Dasgupta weights: each placed pair with an edge adds its weight at
-	// its lca; upper accumulates them down every root path.
-	wlca := make([]float64, nodes)
+}
+
+// sumUpper fills the Dasgupta weights: each placed pair with an edge adds
+// its weight at its lca; upper accumulates them down every root path
+// (order is the pre-order).
+func (ix *treeIndex) sumUpper(t *mutableTree, g *graph.CSR, order []int32) {
+	wlca := make([]float64, len(t.kids))
 	for _, v := range order {
 		if !t.isLeaf(v) {
 			continue
@@ -385,7 +404,6 @@ func (t *mutableTree) index(g *graph.CSR, keys []uint64, c *Constraints) *treeIn
 			ix.upper[v] += ix.upper[p]
 		}
 	}
-	return ix
 }
 
 // inMain reports whether leaf y was in the main tree when ix was built.
