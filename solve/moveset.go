@@ -353,10 +353,28 @@ func (r *repairer) tryMove(h []int32, records []recordShape) (*mutableTree, floa
 	slices.SortFunc(order, func(a, b int32) int {
 		return cmp.Or(cmp.Compare(len(r.touch[a]), len(r.touch[b])), cmp.Compare(a, b))
 	})
-	// Records are checked whole at each step, not only through their
-	// triplets: a shape's triplets say everything only once all its items
-	// are placed, and a step that keeps them but not the shape would leave
-	// a later item of the shape with no place.
+	shapes := r.shapesAround(h, records)
+	gone := func(x int32) bool { return !r.t.placed(x) }
+	for _, x := range order {
+		cost, beside, placed := r.placeKeeping(x, shapes, gone)
+		if !placed {
+			return nil, 0, 0, false
+		}
+		if beside {
+			created++
+		}
+		rise += cost
+	}
+	return r.t, rise, created, true
+}
+
+// shapesAround returns records and the shapes of every other triplet
+// record that names an item of h. Records are checked whole at each step
+// of a move, not only through their triplets: a shape's triplets say
+// everything only once all its items are placed, and a step that keeps
+// them but not the shape would leave a later item of the shape with no
+// place.
+func (r *repairer) shapesAround(h []int32, records []recordShape) []recordShape {
 	shapes := slices.Clone(records)
 	for _, x := range h {
 		for _, k := range r.touch[x] {
@@ -371,53 +389,49 @@ func (r *repairer) tryMove(h []int32, records []recordShape) (*mutableTree, floa
 			}
 		}
 	}
-	gone := func(x int32) bool { return !r.t.placed(x) }
-	for _, x := range order {
-		u := unit{items: []int32{x}, root: x}
-		ix := r.t.index(r.g, r.keys, r.c)
-		type scored struct {
-			s    spot
-			cost float64
-		}
-		var ok []scored
-		var near []int32
-		for _, rs := range shapes {
-			if _, in := slices.BinarySearch(rs.items, x); in {
-				near = append(near, rs.items...)
-			}
-		}
-		for _, sp := range r.candidatesNear(ix, u, near) {
-			if r.allowed(ix, u, sp) {
-				ok = append(ok, scored{sp, r.cost(ix, u, sp)})
-			}
-		}
-		slices.SortStableFunc(ok, func(a, b scored) int {
-			if a.s.beside != b.s.beside {
-				if a.s.beside {
-					return 1
-				}
-				return -1
-			}
-			return cmp.Compare(a.cost, b.cost)
-		})
-		placed := false
-		for _, c := range ok {
-			r.t.attach(x, c.s)
-			if r.keepsAll(shapes, gone) {
-				if c.s.beside {
-					created++
-				}
-				rise += c.cost
-				placed = true
-				break
-			}
-			r.t.unattach(x, c.s)
-		}
-		if !placed {
-			return nil, 0, 0, false
+	return shapes
+}
+
+// placeKeeping attaches item x at its cheapest allowed place that keeps
+// every shape (places in existing categories before new ones beside a
+// node) and returns that place's cost and whether it made a category, or
+// false when no place keeps them.
+func (r *repairer) placeKeeping(x int32, shapes []recordShape, gone func(int32) bool) (float64, bool, bool) {
+	u := unit{items: []int32{x}, root: x}
+	ix := r.t.index(r.g, r.keys, r.c)
+	type scored struct {
+		s    spot
+		cost float64
+	}
+	var ok []scored
+	var near []int32
+	for _, rs := range shapes {
+		if _, in := slices.BinarySearch(rs.items, x); in {
+			near = append(near, rs.items...)
 		}
 	}
-	return r.t, rise, created, true
+	for _, sp := range r.candidatesNear(ix, u, near) {
+		if r.allowed(ix, u, sp) {
+			ok = append(ok, scored{sp, r.cost(ix, u, sp)})
+		}
+	}
+	slices.SortStableFunc(ok, func(a, b scored) int {
+		if a.s.beside != b.s.beside {
+			if a.s.beside {
+				return 1
+			}
+			return -1
+		}
+		return cmp.Compare(a.cost, b.cost)
+	})
+	for _, c := range ok {
+		r.t.attach(x, c.s)
+		if r.keepsAll(shapes, gone) {
+			return c.cost, c.s.beside, true
+		}
+		r.t.unattach(x, c.s)
+	}
+	return 0, false, false
 }
 
 func (r *repairer) keepsAll(shapes []recordShape, gone func(int32) bool) bool {
