@@ -111,7 +111,7 @@ type LimitsSettings struct {
 
 // The default budgets are the documented capacity, which loads and solves
 // inside the 8 GB memory target: a million items with tags and text and
-// ten million links peak at 7.3 GB resident (bench/genrepo -n 1000000
+// ten million links peak at 7.3 GB resident (cmd/bench/genrepo -n 1000000
 // -text; README, "Capacity"). Records and bytes leave the rest of the
 // target as headroom: the capacity's input files are 0.4 GB (items 0.18,
 // links 0.22), so 512 MiB admits them and refuses a 1 GB items file, and

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/ramify-tax/ramify/bench/realdata"
+	"github.com/ramify-tax/ramify/internal/realdata"
 )
 
 // solveItems writes a repository whose items are the given TSV files and
@@ -49,7 +49,7 @@ func regenerateDir(t *testing.T, dir string) []byte {
 
 // Property: the outline depends on the items, not on the order of their
 // lines nor on how they are split over files. On a real dev taxonomy
-// (bench/realdata, WordNet 3.0 furniture), shuffled lines and a random
+// (internal/realdata, WordNet 3.0 furniture), shuffled lines and a random
 // split over two files give the same outline bytes as the file as shipped.
 func TestOutlineIndependentOfItemOrder(t *testing.T) {
 	set, err := realdata.Load("furniture")

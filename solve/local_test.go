@@ -275,7 +275,7 @@ func TestRepairMendsAShapeInPlace(t *testing.T) {
 			}
 			// Random packets on a random hidden tree disagree with the
 			// solved tree far more than a reviewer's do; how often a round
-			// still needs a subtree re-solved is measured by bench/reviewloop.
+			// still needs a subtree re-solved is measured by cmd/bench/reviewloop.
 			t.Logf("%d of %d rounds needed a subtree re-solved", regions, packets/2)
 			if moved > 0 {
 				t.Errorf("%d items outside the packets changed category", moved)

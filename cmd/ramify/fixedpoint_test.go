@@ -13,7 +13,7 @@ import (
 )
 
 // writePlantedRepo writes a repository whose similarities are the edge
-// list of a seeded planted hierarchy (solve/planted), as bench/genrepo does.
+// list of a seeded planted hierarchy (solve/planted), as cmd/bench/genrepo does.
 func writePlantedRepo(t *testing.T, dir string, n int, seed uint64) {
 	t.Helper()
 	depth := 1

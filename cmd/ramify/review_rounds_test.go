@@ -9,7 +9,7 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/ramify-tax/ramify/bench/reviewloop/loop"
+	"github.com/ramify-tax/ramify/cmd/bench/reviewloop/loop"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"

@@ -8,8 +8,8 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/ramify-tax/ramify/bench/realdata"
-	"github.com/ramify-tax/ramify/bench/reviewloop/loop"
+	"github.com/ramify-tax/ramify/cmd/bench/reviewloop/loop"
+	"github.com/ramify-tax/ramify/internal/realdata"
 )
 
 // inProcess runs ramify commands through run, as the review-loop benchmark
@@ -22,8 +22,8 @@ func inProcess(args ...string) (string, error) {
 	return out.String(), nil
 }
 
-// TestReviewLoopOnRealData runs the review loop of bench/reviewloop on the
-// WordNet furniture dev set (bench/realdata) for three rounds of both
+// TestReviewLoopOnRealData runs the review loop of cmd/bench/reviewloop on the
+// WordNet furniture dev set (internal/realdata) for three rounds of both
 // arms, with the scripted reviewer answering from the reference. Answers
 // from the reference can only be consistent with each other, so every
 // round must absorb and solve cleanly, `check` must pass, and the tree

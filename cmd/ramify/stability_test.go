@@ -6,11 +6,11 @@ import (
 	"path/filepath"
 	"testing"
 
-	"github.com/ramify-tax/ramify/bench/stability/stable"
+	"github.com/ramify-tax/ramify/cmd/bench/stability/stable"
 )
 
 // TestOneDecisionMovesLittle runs the stability benchmark of
-// bench/stability in-process on the demo: each kind of decision (a
+// cmd/bench/stability in-process on the demo: each kind of decision (a
 // triplet, a group, a fixed packet, an absorbed hand move), added alone
 // to the solved demo, must move at most 1% of the other items in the
 // median and dissolve no top-level category it names no item of (the

@@ -27,8 +27,8 @@ type TextMix struct {
 
 // DefaultTextMix weighs label heads, label character grams and description
 // 1:1:2: chosen on items with a name and a short description (the real
-// dev taxonomies of bench/realdata), where it raised triplet recall and F1
-// over TF-IDF on label and description together (see bench/quality).
+// dev taxonomies of internal/realdata), where it raised triplet recall and F1
+// over TF-IDF on label and description together (see cmd/bench/quality).
 var DefaultTextMix = TextMix{Heads: 1, Grams: 1, Words: 2}
 
 // Check reports a weight that is negative or not finite, or all zero.

@@ -2,7 +2,7 @@
 // similarity source is an edge list (links.tsv) drawn from a seeded planted
 // hierarchy (solve/planted), for timing `ramify solve` end to end:
 //
-//	go run ./bench/genrepo -n 100000 -out big-repo
+//	go run ./cmd/bench/genrepo -n 100000 -out big-repo
 //	ramify solve --dir big-repo
 //
 // With -text the items also get tags, a label and a description drawn from
@@ -10,7 +10,7 @@
 // tags and text besides the links: the documented capacity (a million items
 // with tags and text, ten million links) is
 //
-//	go run ./bench/genrepo -n 1000000 -text -out capacity-repo
+//	go run ./cmd/bench/genrepo -n 1000000 -text -out capacity-repo
 package main
 
 import (

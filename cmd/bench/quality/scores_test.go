@@ -3,8 +3,8 @@ package main
 import (
 	"testing"
 
-	"github.com/ramify-tax/ramify/bench/realdata"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/internal/realdata"
 )
 
 func outline(t *testing.T, text string) *format.Category {

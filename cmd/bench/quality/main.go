@@ -1,11 +1,11 @@
 // Command quality measures ramify's first draft on the real dev taxonomies
-// bundled in bench/realdata and prints a table per method: for each set,
+// bundled in internal/realdata and prints a table per method: for each set,
 // triplet precision, recall and F1 against the reference (exact), cluster
 // F1, the largest top-level category's share of the items, the number of
 // top-level entries and of chains, and the means over the sets.
 //
-//	go run ./bench/quality
-//	go run ./bench/quality -method constrained
+//	go run ./cmd/bench/quality
+//	go run ./cmd/bench/quality -method constrained
 //
 // Each set is written to a temporary repository (the items file and a
 // ramify.toml with the default settings, similarity from the text source
@@ -20,8 +20,8 @@ import (
 	"path/filepath"
 	"strings"
 
-	"github.com/ramify-tax/ramify/bench/realdata"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/internal/realdata"
 	"github.com/ramify-tax/ramify/project"
 )
 

@@ -1,21 +1,28 @@
 // Package realdata bundles the real taxonomies that ramify is developed and
-// tuned on (eight WordNet 3.0 noun subtrees, see wordnet-dev/README.md for
-// their provenance and licence), so that benchmarks and tests run without
-// anything outside the module.
+// tuned on (eight WordNet 3.0 noun subtrees in the module's
+// testdata/wordnet-dev, whose README.md gives their provenance and
+// licence), so that benchmarks and tests run without anything outside the
+// module.
 package realdata
 
 import (
-	"embed"
 	"fmt"
 	"io/fs"
 	"path"
 	"slices"
 
+	"github.com/ramify-tax/ramify"
 	"github.com/ramify-tax/ramify/format"
 )
 
-//go:embed wordnet-dev
-var files embed.FS
+// files is the module root's embedded testdata/wordnet-dev.
+var files = func() fs.FS {
+	sub, err := fs.Sub(ramify.DevTaxonomies, "testdata")
+	if err != nil {
+		panic(err) // the embedded folder is part of the build
+	}
+	return sub
+}()
 
 // Set is one real taxonomy: its items and the reference tree over them.
 type Set struct {
@@ -50,11 +57,11 @@ func Names() []string {
 // Load reads one bundled set by name.
 func Load(name string) (*Set, error) {
 	dir := path.Join("wordnet-dev", name)
-	items, err := files.ReadFile(path.Join(dir, "items.tsv"))
+	items, err := fs.ReadFile(files, path.Join(dir, "items.tsv"))
 	if err != nil {
 		return nil, fmt.Errorf("realdata: no set %q", name)
 	}
-	ref, err := files.ReadFile(path.Join(dir, "reference.outline"))
+	ref, err := fs.ReadFile(files, path.Join(dir, "reference.outline"))
 	if err != nil {
 		return nil, fmt.Errorf("realdata: set %q has no reference: %v", name, err)
 	}

@@ -16,9 +16,9 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/ramify-tax/ramify/bench/realdata"
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/internal/realdata"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve"

@@ -5,8 +5,8 @@
 // also builds the similarity graph, and prints a table of the seconds and
 // the peak resident memory of each child:
 //
-//	go run ./bench/vectorload -n 1000000 -dim 384 -dir big-vectors
-//	go run ./bench/vectorload -n 1000000 -dim 384 -dir big-vectors -graph
+//	go run ./cmd/bench/vectorload -n 1000000 -dim 384 -dir big-vectors
+//	go run ./cmd/bench/vectorload -n 1000000 -dim 384 -dir big-vectors -graph
 //
 // An existing -dir with a ramify.toml is reused as it is.
 package main

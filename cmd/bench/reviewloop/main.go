@@ -5,8 +5,8 @@
 // repaired and broke, and how well the committee's per-item uncertainty
 // predicts the misplaced items — then a summary with the targets:
 //
-//	go run ./bench/reviewloop                      # all sets, both arms, 3 orders, 10 rounds
-//	go run ./bench/reviewloop -sets furniture -orders 1 -rounds 3
+//	go run ./cmd/bench/reviewloop                      # all sets, both arms, 3 orders, 10 rounds
+//	go run ./cmd/bench/reviewloop -sets furniture -orders 1 -rounds 3
 //
 // It builds the ramify command once and runs it as a user would.
 package main
@@ -21,8 +21,8 @@ import (
 	"strings"
 	"time"
 
-	"github.com/ramify-tax/ramify/bench/realdata"
-	"github.com/ramify-tax/ramify/bench/reviewloop/loop"
+	"github.com/ramify-tax/ramify/cmd/bench/reviewloop/loop"
+	"github.com/ramify-tax/ramify/internal/realdata"
 )
 
 func main() {

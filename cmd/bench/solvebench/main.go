@@ -3,9 +3,9 @@
 // cost against average linkage on the same graph, and rooted triplet
 // agreement with the planted tree.
 //
-//	go run ./bench/solvebench                  # n = 1,000 and 10,000
-//	go run ./bench/solvebench -n 1000,10000,100000
-//	go run ./bench/solvebench -peer            # beside fastcluster at 10k, 20k, 40k
+//	go run ./cmd/bench/solvebench                  # n = 1,000 and 10,000
+//	go run ./cmd/bench/solvebench -n 1000,10000,100000
+//	go run ./cmd/bench/solvebench -peer            # beside fastcluster at 10k, 20k, 40k
 //
 // Each size runs in a child process of its own, so the peak resident
 // memory reported is that size's alone.

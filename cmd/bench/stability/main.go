@@ -6,7 +6,7 @@
 // category changed beyond those the record names, and the top-level
 // categories that vanished although the record names none of their items.
 //
-//	go run ./bench/stability [-sizes 1000,20000] [-trials 15] [-ramify BIN]
+//	go run ./cmd/bench/stability [-sizes 1000,20000] [-trials 15] [-ramify BIN]
 //
 // Target (the project's stability goal): median at most 1% of the items per
 // record, and no top-level category dissolved by a record that does not
@@ -24,7 +24,7 @@ import (
 	"strings"
 	"text/tabwriter"
 
-	"github.com/ramify-tax/ramify/bench/stability/stable"
+	"github.com/ramify-tax/ramify/cmd/bench/stability/stable"
 )
 
 func main() {
@@ -49,7 +49,7 @@ func main() {
 			continue
 		}
 		d := filepath.Join(tmp, "gen"+s)
-		run("go", "run", "./bench/genrepo", "-n", s, "-out", d)
+		run("go", "run", "./cmd/bench/genrepo", "-n", s, "-out", d)
 		repos = append(repos, repo{"generated " + s, d})
 	}
 	binary := func(args ...string) (string, error) {

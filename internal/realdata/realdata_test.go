@@ -2,7 +2,7 @@ package realdata
 
 import "testing"
 
-// The sizes are those of the set table in wordnet-dev/README.md (copied
+// The sizes are those of the set table in testdata/wordnet-dev/README.md (copied
 // from the data's own README): every item appears once in its reference.
 func TestSetsMatchTheirReadme(t *testing.T) {
 	want := map[string]int{
