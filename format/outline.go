@@ -100,171 +100,228 @@ func parseRecordLine(rest string, at func(int) Pos, off int, ds *Diags) (Outline
 // at column 1 or follow one another in the file. onItem, if not nil, hears
 // of every item accepted, with its place, in file order.
 func parseTreeLines(file string, lines []string, start func(i int) lineCol, header bool, onItem func(id string, at Pos), meta *outlineMeta) (*Category, string, Diags) {
-	var ds Diags
 	root := &Category{}
-	// stack[d] is the open category at depth d; stack[0] is the root.
-	stack := []*Category{root}
-	seenItem := map[string]int{}
-	// siblingNames[cat] maps child names to their line, to catch duplicates.
-	siblingNames := map[*Category]map[string]int{}
-	// catPos is where each category line starts, for the empty check.
-	catPos := map[*Category]Pos{}
-	// damaged marks categories under which a line was dropped for an
-	// error; they are not also reported as empty.
-	damaged := map[*Category]bool{}
-	// After an indentation error, lines indented deeper than skipDeeper
-	// levels are dropped silently: they belong to the bad line, and
-	// reporting each of them would bury the one mistake.
-	skipDeeper := -1
-	structure := ""
-	inHeader := header
+	p := &outlineParser{
+		file: file, onItem: onItem, meta: meta, inHeader: header,
+		root: root, stack: []*Category{root},
+		seenItem: map[string]int{}, siblingNames: map[*Category]map[string]int{},
+		catPos: map[*Category]Pos{}, damaged: map[*Category]bool{},
+		skipDeeper: -1,
+	}
 	if len(lines) > 0 && lines[len(lines)-1] == "" {
 		lines = lines[:len(lines)-1]
 	}
 	for i, line := range lines {
 		first := start(i)
-		lineNo := first.Line
-		if ds.Full() {
-			ds.StopAt(Pos{file, lineNo, 1})
+		if p.ds.Full() {
+			p.ds.StopAt(Pos{file, first.Line, 1})
 			break
 		}
-		at := func(byteCol int) Pos { return Pos{file, lineNo, first.Col - 1 + RuneCol(line, byteCol)} }
-		if t := strings.IndexByte(line, '\t'); t >= 0 {
-			if strings.TrimLeft(line[:t], " ") == "" {
-				ds.Add(at(t), "tab in the indentation; indent with two spaces per level")
-			} else {
-				ds.Add(at(t), "tab character; category names and item ids cannot hold tabs")
-			}
-			damaged[stack[len(stack)-1]] = true
-			continue
-		}
-		trimmed := strings.TrimRight(line, " ")
-		if trimmed == "" {
-			continue
-		}
-		body := strings.TrimLeft(trimmed, " ")
-		indent := len(trimmed) - len(body)
-		if strings.HasPrefix(body, "#") {
-			if rest, ok := strings.CutPrefix(body, "# record "); ok && meta != nil && indent == 0 {
-				if rec, ok := parseRecordLine(rest, at, len("# record "), &ds); ok {
-					meta.records = append(meta.records, rec)
-				}
-				continue
-			}
-			if inHeader && indent == 0 {
-				if v, ok := strings.CutPrefix(body, "# ramify outline "); ok {
-					if v != "1" {
-						ds.Add(at(0), "unsupported outline version %q; this ramify reads version 1", clip(v))
-					}
-				} else if v, ok := strings.CutPrefix(body, "# structure "); ok {
-					v = strings.TrimSpace(v)
-					if !isHex(v) || len(v) != 12 {
-						ds.Add(at(len("# structure ")), "structure hash %q is not 12 hex digits", clip(v))
-					} else {
-						structure = v
-					}
-				}
-			}
-			continue
-		}
-		inHeader = false
-		if indent%2 != 0 {
-			ds.Add(at(0), "indentation of %s; use exactly two spaces per level", plural(indent, "space"))
-			damaged[stack[len(stack)-1]] = true
-			if skipDeeper < 0 {
-				skipDeeper = len(stack) - 1
-			}
-			continue
-		}
-		depth := indent / 2
-		if skipDeeper >= 0 {
-			if depth > skipDeeper {
-				continue
-			}
-			skipDeeper = -1
-		}
-		if depth >= len(stack) {
-			ds.Add(at(0), "indented %s, but here a line can be indented at most %s (one level deeper than the category above it)", plural(depth, "level"), plural(len(stack)-1, "level"))
-			damaged[stack[len(stack)-1]] = true
-			skipDeeper = len(stack) - 1
-			continue
-		}
-		if depth >= MaxDepth {
-			ds.Add(at(0), "nesting deeper than %d levels", MaxDepth)
-			damaged[stack[len(stack)-1]] = true
-			skipDeeper = MaxDepth - 1
-			continue
-		}
-		stack = stack[:depth+1]
-		parent := stack[depth]
-		if name, ok := strings.CutSuffix(body, "/"); ok {
-			cat := &Category{Line: lineNo}
-			catPos[cat] = at(indent)
-			name = strings.TrimSpace(name)
-			if rest, ok := strings.CutPrefix(name, "~ "); ok {
-				cat.Provisional = true
-				name = strings.TrimSpace(rest)
-			} else if name == "~" { // "~ /": a provisional marker with no name
-				cat.Provisional = true
-				name = ""
-			}
-			cat.Name = name
-			if msg := CheckCategoryName(name); msg != "" {
-				where := indent
-				if k, _ := FirstInvisible(body); k >= 0 && strings.Contains(msg, "invisible") {
-					where += k
-				}
-				ds.Add(at(where), "%s", msg)
-			}
-			names := siblingNames[parent]
-			if names == nil {
-				names = map[string]int{}
-				siblingNames[parent] = names
-			}
-			if prev, dup := names[name]; dup && name != "" {
-				ds.Add(at(indent), "category %q appears twice in the same parent (first at line %d)", clip(name), prev)
-			} else {
-				names[name] = lineNo
-			}
-			parent.Children = append(parent.Children, cat)
-			stack = append(stack, cat)
-			continue
-		}
-		if !ValidItemID(body) {
-			switch {
-			case strings.Contains(body, " "):
-				ds.Add(at(indent), "%q is not an item id (ids have no spaces); a category line ends with \"/\"", clip(body))
-			case len(body) > MaxIDLen:
-				ds.Add(at(indent), "item id is %d bytes long; the limit is %d", len(body), MaxIDLen)
-			default:
-				ds.Add(at(indent), "%q is not a valid item id: %s", clip(body), ItemIDRule)
-			}
-			damaged[parent] = true
-			continue
-		}
-		if prev, dup := seenItem[body]; dup {
-			ds.Add(at(indent), "item %q appears twice (first at line %d); every item appears exactly once", body, prev)
-			damaged[parent] = true
-			continue
-		}
-		seenItem[body] = lineNo
-		if onItem != nil {
-			onItem(body, at(indent))
-		}
-		parent.Items = append(parent.Items, body)
-		parent.ItemLines = append(parent.ItemLines, lineNo)
+		p.line(line, first)
 	}
-	root.Walk(func(c *Category, depth int) bool {
-		if depth > 0 && len(c.Children) == 0 && len(c.Items) == 0 && !damaged[c] {
-			ds.Add(catPos[c], "category %q is empty; a category needs at least one item or subcategory", clip(c.Name))
+	p.reportEmpty()
+	p.ds.Sort()
+	if meta != nil {
+		meta.structure = p.structure
+	}
+	return root, p.structure, p.ds
+}
+
+// outlineParser is the state of parseTreeLines between lines.
+type outlineParser struct {
+	file   string
+	onItem func(id string, at Pos)
+	meta   *outlineMeta
+	ds     Diags
+	root   *Category
+	// stack[d] is the open category at depth d; stack[0] is the root.
+	stack    []*Category
+	seenItem map[string]int
+	// siblingNames[cat] maps child names to their line, to catch duplicates.
+	siblingNames map[*Category]map[string]int
+	// catPos is where each category line starts, for the empty check.
+	catPos map[*Category]Pos
+	// damaged marks categories under which a line was dropped for an
+	// error; they are not also reported as empty.
+	damaged map[*Category]bool
+	// After an indentation error, lines indented deeper than skipDeeper
+	// levels are dropped silently: they belong to the bad line, and
+	// reporting each of them would bury the one mistake.
+	skipDeeper int
+	structure  string
+	inHeader   bool
+}
+
+// line reads one line that starts at first.
+func (p *outlineParser) line(line string, first lineCol) {
+	lineNo := first.Line
+	at := func(byteCol int) Pos { return Pos{p.file, lineNo, first.Col - 1 + RuneCol(line, byteCol)} }
+	if t := strings.IndexByte(line, '\t'); t >= 0 {
+		if strings.TrimLeft(line[:t], " ") == "" {
+			p.ds.Add(at(t), "tab in the indentation; indent with two spaces per level")
+		} else {
+			p.ds.Add(at(t), "tab character; category names and item ids cannot hold tabs")
+		}
+		p.damaged[p.stack[len(p.stack)-1]] = true
+		return
+	}
+	trimmed := strings.TrimRight(line, " ")
+	if trimmed == "" {
+		return
+	}
+	body := strings.TrimLeft(trimmed, " ")
+	indent := len(trimmed) - len(body)
+	if strings.HasPrefix(body, "#") {
+		p.comment(body, indent, at)
+		return
+	}
+	p.inHeader = false
+	depth, ok := p.depth(indent, at)
+	if !ok {
+		return
+	}
+	p.stack = p.stack[:depth+1]
+	parent := p.stack[depth]
+	if name, ok := strings.CutSuffix(body, "/"); ok {
+		p.category(name, body, indent, parent, lineNo, at)
+		return
+	}
+	p.item(body, indent, parent, lineNo, at)
+}
+
+// comment reads a comment line: a record line, or in the header the
+// format line and the structure hash; any other comment says nothing.
+func (p *outlineParser) comment(body string, indent int, at func(int) Pos) {
+	if rest, ok := strings.CutPrefix(body, "# record "); ok && p.meta != nil && indent == 0 {
+		if rec, ok := parseRecordLine(rest, at, len("# record "), &p.ds); ok {
+			p.meta.records = append(p.meta.records, rec)
+		}
+		return
+	}
+	if !p.inHeader || indent != 0 {
+		return
+	}
+	if v, ok := strings.CutPrefix(body, "# ramify outline "); ok {
+		if v != "1" {
+			p.ds.Add(at(0), "unsupported outline version %q; this ramify reads version 1", clip(v))
+		}
+	} else if v, ok := strings.CutPrefix(body, "# structure "); ok {
+		v = strings.TrimSpace(v)
+		if !isHex(v) || len(v) != 12 {
+			p.ds.Add(at(len("# structure ")), "structure hash %q is not 12 hex digits", clip(v))
+		} else {
+			p.structure = v
+		}
+	}
+}
+
+// depth turns a line's indentation into its depth, or reports why the
+// line is dropped (false): odd indentation, a jump of more than one
+// level, nesting past MaxDepth, or a line under an earlier bad one.
+func (p *outlineParser) depth(indent int, at func(int) Pos) (int, bool) {
+	open := p.stack[len(p.stack)-1]
+	if indent%2 != 0 {
+		p.ds.Add(at(0), "indentation of %s; use exactly two spaces per level", plural(indent, "space"))
+		p.damaged[open] = true
+		if p.skipDeeper < 0 {
+			p.skipDeeper = len(p.stack) - 1
+		}
+		return 0, false
+	}
+	depth := indent / 2
+	if p.skipDeeper >= 0 {
+		if depth > p.skipDeeper {
+			return 0, false
+		}
+		p.skipDeeper = -1
+	}
+	if depth >= len(p.stack) {
+		p.ds.Add(at(0), "indented %s, but here a line can be indented at most %s (one level deeper than the category above it)", plural(depth, "level"), plural(len(p.stack)-1, "level"))
+		p.damaged[open] = true
+		p.skipDeeper = len(p.stack) - 1
+		return 0, false
+	}
+	if depth >= MaxDepth {
+		p.ds.Add(at(0), "nesting deeper than %d levels", MaxDepth)
+		p.damaged[open] = true
+		p.skipDeeper = MaxDepth - 1
+		return 0, false
+	}
+	return depth, true
+}
+
+// category opens the category line body ("name/", name without the
+// slash) under parent.
+func (p *outlineParser) category(name, body string, indent int, parent *Category, lineNo int, at func(int) Pos) {
+	cat := &Category{Line: lineNo}
+	p.catPos[cat] = at(indent)
+	name = strings.TrimSpace(name)
+	if rest, ok := strings.CutPrefix(name, "~ "); ok {
+		cat.Provisional = true
+		name = strings.TrimSpace(rest)
+	} else if name == "~" { // "~ /": a provisional marker with no name
+		cat.Provisional = true
+		name = ""
+	}
+	cat.Name = name
+	if msg := CheckCategoryName(name); msg != "" {
+		where := indent
+		if k, _ := FirstInvisible(body); k >= 0 && strings.Contains(msg, "invisible") {
+			where += k
+		}
+		p.ds.Add(at(where), "%s", msg)
+	}
+	names := p.siblingNames[parent]
+	if names == nil {
+		names = map[string]int{}
+		p.siblingNames[parent] = names
+	}
+	if prev, dup := names[name]; dup && name != "" {
+		p.ds.Add(at(indent), "category %q appears twice in the same parent (first at line %d)", clip(name), prev)
+	} else {
+		names[name] = lineNo
+	}
+	parent.Children = append(parent.Children, cat)
+	p.stack = append(p.stack, cat)
+}
+
+// item places the item line body under parent, unless it is not a valid
+// id or the item came before.
+func (p *outlineParser) item(body string, indent int, parent *Category, lineNo int, at func(int) Pos) {
+	if !ValidItemID(body) {
+		switch {
+		case strings.Contains(body, " "):
+			p.ds.Add(at(indent), "%q is not an item id (ids have no spaces); a category line ends with \"/\"", clip(body))
+		case len(body) > MaxIDLen:
+			p.ds.Add(at(indent), "item id is %d bytes long; the limit is %d", len(body), MaxIDLen)
+		default:
+			p.ds.Add(at(indent), "%q is not a valid item id: %s", clip(body), ItemIDRule)
+		}
+		p.damaged[parent] = true
+		return
+	}
+	if prev, dup := p.seenItem[body]; dup {
+		p.ds.Add(at(indent), "item %q appears twice (first at line %d); every item appears exactly once", body, prev)
+		p.damaged[parent] = true
+		return
+	}
+	p.seenItem[body] = lineNo
+	if p.onItem != nil {
+		p.onItem(body, at(indent))
+	}
+	parent.Items = append(parent.Items, body)
+	parent.ItemLines = append(parent.ItemLines, lineNo)
+}
+
+// reportEmpty reports the categories left with no item and no
+// subcategory, unless a dropped line may have been theirs.
+func (p *outlineParser) reportEmpty() {
+	p.root.Walk(func(c *Category, depth int) bool {
+		if depth > 0 && len(c.Children) == 0 && len(c.Items) == 0 && !p.damaged[c] {
+			p.ds.Add(p.catPos[c], "category %q is empty; a category needs at least one item or subcategory", clip(c.Name))
 		}
 		return true
 	})
-	ds.Sort()
-	if meta != nil {
-		meta.structure = structure
-	}
-	return root, structure, ds
 }
 
 func isHex(s string) bool {
