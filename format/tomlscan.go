@@ -296,18 +296,17 @@ type tomlFrame struct {
 // value scans the value of key k, which may be an array or inline table
 // nested to any depth; the nesting is followed with an explicit stack.
 func (s *tomlScanner) value(k int) {
-	var stack []tomlFrame
+	v := &valueScan{needValue: true}
 	defer func() {
 		if s.confused {
-			s.depth = len(stack) // crude goes on counting from here
+			s.depth = len(v.stack) // crude goes on counting from here
 		}
 	}()
-	needValue := true
 	for s.limit == nil && !s.confused {
-		if !needValue && len(stack) == 0 {
+		if !v.needValue && len(v.stack) == 0 {
 			return
 		}
-		if len(stack) > 0 {
+		if len(v.stack) > 0 {
 			s.skipBlank()
 		} else {
 			s.skipSpace()
@@ -317,78 +316,114 @@ func (s *tomlScanner) value(k int) {
 			return
 		}
 		c := s.data[s.i]
-		top := len(stack) - 1
-		if !needValue {
-			switch {
-			case c == ',':
-				s.i++
-				needValue = true
-				if stack[top].table {
-					s.skipBlank()
-					if s.peek(0) == '}' {
-						needValue = false
-						continue
-					}
-					if !s.inlineKey() {
-						return
-					}
-				}
-			case c == ']' && !stack[top].table, c == '}' && stack[top].table:
-				s.i++
-				stack = stack[:top]
-			default:
-				s.confused = true
-			}
-			continue
+		var more bool
+		if v.needValue {
+			more = s.element(v, c, k)
+		} else {
+			more = s.afterElement(v, c)
 		}
-		if top >= 0 && !stack[top].table {
-			if c == ']' { // empty array, or a trailing comma
-				s.i++
-				stack = stack[:top]
-				needValue = false
-				continue
-			}
-			stack[top].n++
-			if stack[top].n > s.lim.MaxArray {
-				s.fail(stack[top].at, "array has more than "+grouped(s.lim.MaxArray)+" elements")
-				return
-			}
+		if !more {
+			return
 		}
-		if top >= 0 && stack[top].table && c == '}' {
-			s.i++
-			stack = stack[:top]
-			needValue = false
-			continue
-		}
-		switch c {
-		case '[', '{':
-			at := s.here()
-			if len(stack) >= s.lim.MaxNesting {
-				s.fail(at, "arrays or tables nested more than "+strconv.Itoa(s.lim.MaxNesting)+" deep")
-				return
-			}
-			stack = append(stack, tomlFrame{table: c == '{', at: at})
-			s.i++
-			if c == '{' {
-				s.skipBlank()
-				if s.peek(0) == '}' {
-					continue // the loop sees the close as an empty table
-				}
-				if !s.inlineKey() {
-					return
-				}
-			}
-			continue
-		case '"', '\'':
-			str := s.str()
-			if s.lim.WantStrings && !s.confused {
-				s.out.Keys[k].Strings = append(s.out.Keys[k].Strings, str)
-			}
-		default:
-			s.scalar()
-		}
-		needValue = false
 	}
+}
+
+// valueScan is where value is inside a value: the open arrays and inline
+// tables, and whether an element (or a table's key) comes next rather
+// than a comma or a close.
+type valueScan struct {
+	stack     []tomlFrame
+	needValue bool
+}
+
+// afterElement reads what may follow an element inside an array or
+// inline table at c: a comma, or the bracket that closes it. It reports
+// false when value must stop.
+func (s *tomlScanner) afterElement(v *valueScan, c byte) bool {
+	top := len(v.stack) - 1
+	switch {
+	case c == ',':
+		s.i++
+		v.needValue = true
+		if v.stack[top].table {
+			s.skipBlank()
+			if s.peek(0) == '}' {
+				v.needValue = false
+				return true
+			}
+			if !s.inlineKey() {
+				return false
+			}
+		}
+	case c == ']' && !v.stack[top].table, c == '}' && v.stack[top].table:
+		s.i++
+		v.stack = v.stack[:top]
+	default:
+		s.confused = true
+	}
+	return true
+}
+
+// element reads one element at c: a string (recorded for key k when
+// strings are wanted), a scalar, or the opening of a nested array or
+// table; or the close of an empty array or table, or after a trailing
+// comma. It reports false when value must stop.
+func (s *tomlScanner) element(v *valueScan, c byte, k int) bool {
+	top := len(v.stack) - 1
+	if top >= 0 && !v.stack[top].table {
+		if c == ']' { // empty array, or a trailing comma
+			s.i++
+			v.stack = v.stack[:top]
+			v.needValue = false
+			return true
+		}
+		v.stack[top].n++
+		if v.stack[top].n > s.lim.MaxArray {
+			s.fail(v.stack[top].at, "array has more than "+grouped(s.lim.MaxArray)+" elements")
+			return false
+		}
+	}
+	if top >= 0 && v.stack[top].table && c == '}' {
+		s.i++
+		v.stack = v.stack[:top]
+		v.needValue = false
+		return true
+	}
+	switch c {
+	case '[', '{':
+		return s.open(v, c)
+	case '"', '\'':
+		str := s.str()
+		if s.lim.WantStrings && !s.confused {
+			s.out.Keys[k].Strings = append(s.out.Keys[k].Strings, str)
+		}
+	default:
+		s.scalar()
+	}
+	v.needValue = false
+	return true
+}
+
+// open pushes the array or inline table that c opens; an element (or the
+// table's first key) comes next. It reports false when value must stop.
+func (s *tomlScanner) open(v *valueScan, c byte) bool {
+	at := s.here()
+	if len(v.stack) >= s.lim.MaxNesting {
+		s.fail(at, "arrays or tables nested more than "+strconv.Itoa(s.lim.MaxNesting)+" deep")
+		return false
+	}
+	v.stack = append(v.stack, tomlFrame{table: c == '{', at: at})
+	s.i++
+	if c == '{' {
+		s.skipBlank()
+		if s.peek(0) == '}' {
+			return true // the loop sees the close as an empty table
+		}
+		if !s.inlineKey() {
+			return false
+		}
+	}
+	return true
 }
 
 // inlineKey reads `key =` inside an inline table.
