@@ -52,6 +52,16 @@ func checkVectorBudget(rows, cols, size int64) string {
 	return ""
 }
 
+// numberedFeatures names dim features f1, f2, …, for binary files that
+// carry no feature names.
+func numberedFeatures(dim int) []string {
+	names := make([]string, dim)
+	for j := range dim {
+		names[j] = "f" + strconv.Itoa(j+1)
+	}
+	return names
+}
+
 // ParseVectors reads a vectors.tsv: a header "id" followed by feature
 // names, then one row per item with a finite number in every cell.
 func ParseVectors(file string, data []byte) (*Vectors, error) {

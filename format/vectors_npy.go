@@ -2,6 +2,7 @@ package format
 
 import (
 	"bufio"
+	"fmt"
 	"io"
 	"math"
 	"strconv"
@@ -43,36 +44,57 @@ func ReadNPYVectors(file string, r io.ReaderAt, size int64, idsFile string, ids 
 		ds.Add(at, "not a NumPy .npy file: %s", clip(err.Error()))
 		return nil, ds
 	}
-	h := nr.Header.Descr
-	if len(h.Shape) != 2 {
-		ds.Add(at, "the array has %d dimensions; vectors need a matrix of rows by features", len(h.Shape))
+	rows, cols, width, msg := checkNPYShape(nr.Header, size)
+	if msg != "" {
+		ds.Add(at, "%s", msg)
 		return nil, ds
 	}
-	rows, cols := h.Shape[0], h.Shape[1]
-	width := 0
+	v = &Vectors{Features: numberedFeatures(cols)}
+	if msg := readNPYMatrix(nr, v, rows, cols, width); msg != "" {
+		ds.Add(at, "%s", msg)
+		return nil, ds
+	}
+	v.IDs, v.RowPos = parseRowIDs(idsFile, ids, rows, &ds)
+	if len(ds) > 0 {
+		return nil, ds
+	}
+	return v, nil
+}
+
+// checkNPYShape reads the matrix's rows, columns and value width (4 or 8
+// bytes) off the header, or says why it cannot be vectors: not a matrix,
+// not floats, past the budgets, larger than the file, or in column order.
+func checkNPYShape(hd npyio.Header, size int64) (rows, cols, width int, msg string) {
+	h := hd.Descr
+	if len(h.Shape) != 2 {
+		return 0, 0, 0, fmt.Sprintf("the array has %d dimensions; vectors need a matrix of rows by features", len(h.Shape))
+	}
+	rows, cols = h.Shape[0], h.Shape[1]
 	switch h.Type {
 	case "<f4", "|f4", ">f4":
 		width = 4
 	case "<f8", "|f8", ">f8":
 		width = 8
 	default:
-		ds.Add(at, "the array holds %q; vectors must be float32 or float64", clip(h.Type))
-		return nil, ds
+		return 0, 0, 0, fmt.Sprintf("the array holds %q; vectors must be float32 or float64", clip(h.Type))
 	}
 	if msg := checkVectorBudget(int64(rows), int64(cols), int64(width)); msg != "" {
-		ds.Add(at, "%s", msg)
-		return nil, ds
+		return 0, 0, 0, msg
 	}
 	switch {
 	case int64(rows)*int64(cols)*int64(width) > size:
-		ds.Add(at, "the header says %d by %d values but the file is only %d bytes long", rows, cols, size)
+		return 0, 0, 0, fmt.Sprintf("the header says %d by %d values but the file is only %d bytes long", rows, cols, size)
 	case h.Fortran:
-		ds.Add(at, "the matrix is in column order (Fortran); save it in row order (numpy.ascontiguousarray)")
+		return 0, 0, 0, "the matrix is in column order (Fortran); save it in row order (numpy.ascontiguousarray)"
 	}
-	if len(ds) > 0 {
-		return nil, ds
-	}
-	v = &Vectors{Features: make([]string, cols)}
+	return rows, cols, width, ""
+}
+
+// readNPYMatrix decodes the rows × cols matrix into v at its width and
+// says what is wrong when it cannot be read or holds a value that is not
+// finite.
+func readNPYMatrix(nr *npyio.Reader, v *Vectors, rows, cols, width int) string {
+	var err error
 	bad := -1
 	if width == 4 {
 		v.Values32 = make([]float32, 0, rows*cols)
@@ -84,21 +106,12 @@ func ReadNPYVectors(file string, r io.ReaderAt, size int64, idsFile string, ids 
 		bad = firstNonFinite(v.Values)
 	}
 	if err != nil {
-		ds.Add(at, "cannot read the matrix: %s", clip(err.Error()))
-		return nil, ds
+		return fmt.Sprintf("cannot read the matrix: %s", clip(err.Error()))
 	}
 	if bad >= 0 {
-		ds.Add(at, "row %d, feature %d is %v; every value must be a finite number", bad/cols+1, bad%cols+1, v.value(bad))
-		return nil, ds
+		return fmt.Sprintf("row %d, feature %d is %v; every value must be a finite number", bad/cols+1, bad%cols+1, v.value(bad))
 	}
-	for j := range cols {
-		v.Features[j] = "f" + strconv.Itoa(j+1)
-	}
-	v.IDs, v.RowPos = parseRowIDs(idsFile, ids, rows, &ds)
-	if len(ds) > 0 {
-		return nil, ds
-	}
-	return v, nil
+	return ""
 }
 
 // firstNonFinite is the index of the first NaN or infinite value, or -1.
