@@ -61,47 +61,66 @@ func ReadParquetVectors(file string, r io.ReaderAt, size int64, column string) (
 	if rows > MaxItems {
 		return fail("%d rows; at most %s are allowed", rows, grouped(MaxItems))
 	}
-	width := int64(8)
-	if vecCol.Type().Kind() == parquet.Float {
-		width = 4
-	}
-	// Decoded pages are as large as the chunks say they are uncompressed:
-	// bound those before reading them.
-	var decoded int64
-	for _, rg := range pf.Metadata().RowGroups {
-		for _, cc := range rg.Columns {
-			if cc.MetaData.TotalCompressedSize > size || cc.MetaData.TotalCompressedSize < 0 {
-				return fail("a column chunk says it is %d bytes long but the file is only %d", cc.MetaData.TotalCompressedSize, size)
-			}
-			decoded += max(cc.MetaData.TotalUncompressedSize, 0)
-		}
-	}
-	if decoded > 2*MaxVectorBytes {
-		return fail("the columns take %d bytes uncompressed; the limit is %d", decoded, int64(2*MaxVectorBytes))
+	if msg := checkParquetChunks(pf, size); msg != "" {
+		return fail("%s", msg)
 	}
 	ids, msg := readParquetIDs(idCol, rows)
 	if msg != "" {
 		return fail("%s", msg)
 	}
 	v = &Vectors{IDs: ids}
-	var dim int
-	if width == 4 {
-		v.Values32, dim, msg = readParquetLists(vecCol, rows, width, ids, func(x parquet.Value) float32 { return x.Float() })
-	} else {
-		v.Values, dim, msg = readParquetLists(vecCol, rows, width, ids, func(x parquet.Value) float64 { return x.Double() })
-	}
+	dim, msg := readParquetMatrix(vecCol, rows, ids, v)
 	if msg != "" {
 		return fail("%s", msg)
 	}
-	v.Features = make([]string, dim)
-	for j := range dim {
-		v.Features[j] = "f" + strconv.Itoa(j+1)
+	v.Features = numberedFeatures(dim)
+	if ds := checkParquetIDs(at, ids); len(ds) > 0 {
+		return nil, ds
 	}
+	v.RowPos = make([]Pos, len(ids))
+	for i := range v.RowPos {
+		v.RowPos[i] = at
+	}
+	return v, nil
+}
+
+// checkParquetChunks bounds the column chunks before any page is read:
+// decoded pages are as large as the chunks say they are uncompressed.
+func checkParquetChunks(pf *parquet.File, size int64) string {
+	var decoded int64
+	for _, rg := range pf.Metadata().RowGroups {
+		for _, cc := range rg.Columns {
+			if cc.MetaData.TotalCompressedSize > size || cc.MetaData.TotalCompressedSize < 0 {
+				return fmt.Sprintf("a column chunk says it is %d bytes long but the file is only %d", cc.MetaData.TotalCompressedSize, size)
+			}
+			decoded += max(cc.MetaData.TotalUncompressedSize, 0)
+		}
+	}
+	if decoded > 2*MaxVectorBytes {
+		return fmt.Sprintf("the columns take %d bytes uncompressed; the limit is %d", decoded, int64(2*MaxVectorBytes))
+	}
+	return ""
+}
+
+// readParquetMatrix reads the vector column into v, float values as
+// float32 and doubles as float64, and returns the vectors' length.
+func readParquetMatrix(vecCol *parquet.Column, rows int64, ids []string, v *Vectors) (int, string) {
+	var dim int
+	var msg string
+	if vecCol.Type().Kind() == parquet.Float {
+		v.Values32, dim, msg = readParquetLists(vecCol, rows, 4, ids, func(x parquet.Value) float32 { return x.Float() })
+	} else {
+		v.Values, dim, msg = readParquetLists(vecCol, rows, 8, ids, func(x parquet.Value) float64 { return x.Double() })
+	}
+	return dim, msg
+}
+
+// checkParquetIDs reports the rows whose id is not a valid item id or
+// repeats an earlier row's, up to maxParquetDiags of them.
+func checkParquetIDs(at Pos, ids []string) Diags {
 	var ds Diags
 	first := make(map[string]int, len(ids))
-	v.RowPos = make([]Pos, len(ids))
 	for i, id := range ids {
-		v.RowPos[i] = at
 		switch {
 		case !ValidItemID(id):
 			ds.Add(at, "row %d: %q is not a valid item id: %s", i+1, clip(id), ItemIDRule)
@@ -114,10 +133,7 @@ func ReadParquetVectors(file string, r io.ReaderAt, size int64, column string) (
 			break
 		}
 	}
-	if len(ds) > 0 {
-		return nil, ds
-	}
-	return v, nil
+	return ds
 }
 
 // maxParquetFooter bounds the footer (the file's metadata), which the
