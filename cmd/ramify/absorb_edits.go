@@ -56,27 +56,51 @@ func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewer
 	if by == "" {
 		return nil, usagef("who made the hand edit of %s? pass --by NAME (or set git's user.name)", rel)
 	}
-	// Similarities pick the representatives the solver will find hardest
-	// to move (see review.PinMoves).
+	affinity, err := itemAffinity(p)
+	if err != nil {
+		return nil, err
+	}
+	h := &handEdit{base: where, moves: review.PinMoves(base, edited, affinity),
+		catMoves: review.PinCategoryMoves(base, edited, affinity),
+		from:     p.Outline.Structure, to: format.StructureHash(edited)}
+	cf, pinOf, shapeOf := h.pins(by, date)
+	if len(cf.Triplets)+len(cf.Shapes) > 0 {
+		if err := h.placeFile(cf, pinOf, shapeOf, rel, edited); err != nil {
+			return nil, err
+		}
+	}
+	// The edited outline now holds the new records too: listing them makes
+	// a later removal of the edit file let the moved items go again.
+	records := append(slices.Clone(p.Outline.Records), project.RecordKeysOf(h.file)...)
+	h.outline = format.FormatOutlineRecords(edited.Clone(), records)
+	h.overridden = brokenByEdit(p, edited)
+	return h, nil
+}
+
+// itemAffinity is the similarity of two items by id (0 for an unknown
+// one); the similarities pick the representatives the solver will find
+// hardest to move (see review.PinMoves).
+func itemAffinity(p *project.Project) (func(a, b string) float64, error) {
 	g, err := p.Graph(project.Seed)
 	if err != nil {
 		return nil, err
 	}
-	affinity := func(a, b string) float64 {
+	return func(a, b string) float64 {
 		i, okA := p.Index[a]
 		j, okB := p.Index[b]
 		if !okA || !okB {
 			return 0
 		}
 		return g.Weight(i, j)
-	}
-	h := &handEdit{base: where, moves: review.PinMoves(base, edited, affinity),
-		catMoves: review.PinCategoryMoves(base, edited, affinity),
-		from:     p.Outline.Structure, to: format.StructureHash(edited)}
-	cf := &format.ConstraintFile{}
-	// pinOf names, per triplet, the moved item it pins; per shape, the
-	// moved category's first item.
-	var pinOf, shapeOf []string
+	}, nil
+}
+
+// pins writes the edit's decisions as records by by on date: the triplets
+// that pin each moved item and a shape for each category moved whole.
+// pinOf names, per triplet, the moved item it pins; shapeOf, per shape,
+// the moved category's first item.
+func (h *handEdit) pins(by, date string) (cf *format.ConstraintFile, pinOf, shapeOf []string) {
+	cf = &format.ConstraintFile{}
 	for _, m := range h.moves {
 		note := fmt.Sprintf("moved by hand from %s to %s", pathOrTop(m.From), pathOrTop(m.To))
 		for _, t := range m.Pins {
@@ -99,30 +123,29 @@ func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewer
 	// Two moves can pick the same triplet, and one can say what others
 	// imply: keep each decision once.
 	pinOf = prunePins(cf, pinOf)
-	if len(cf.Triplets)+len(cf.Shapes) > 0 {
-		sum := sha256.Sum256([]byte("ramify edit\n" + h.from + "\n" + h.to))
-		frel := format.ConstraintsDir + "/" + project.HandEditPrefix + hex.EncodeToString(sum[:6]) + ".toml"
-		parsed, text, ds := parsedConstraintFile(frel, cf)
-		if len(ds) > 0 {
-			return nil, ds
-		}
-		// A conflict names the moved item's line in the outline, where the
-		// editor can change it.
-		lines := itemLines(edited)
-		for i := range parsed.Triplets {
-			parsed.Triplets[i].Pos = format.Pos{File: rel, Line: lines[pinOf[i]], Col: 1}
-		}
-		for i := range parsed.Shapes {
-			parsed.Shapes[i].Pos = format.Pos{File: rel, Line: lines[shapeOf[i]], Col: 1}
-		}
-		h.file, h.text = parsed, text
+	return cf, pinOf, shapeOf
+}
+
+// placeFile names the edit's constraint file by the two structure hashes,
+// parses what will be written, and points each record at the moved item's
+// line in the outline (rel), where the editor can change it when it
+// conflicts.
+func (h *handEdit) placeFile(cf *format.ConstraintFile, pinOf, shapeOf []string, rel string, edited *format.Category) error {
+	sum := sha256.Sum256([]byte("ramify edit\n" + h.from + "\n" + h.to))
+	frel := format.ConstraintsDir + "/" + project.HandEditPrefix + hex.EncodeToString(sum[:6]) + ".toml"
+	parsed, text, ds := parsedConstraintFile(frel, cf)
+	if len(ds) > 0 {
+		return ds
 	}
-	// The edited outline now holds the new records too: listing them makes
-	// a later removal of the edit file let the moved items go again.
-	records := append(slices.Clone(p.Outline.Records), project.RecordKeysOf(h.file)...)
-	h.outline = format.FormatOutlineRecords(edited.Clone(), records)
-	h.overridden = brokenByEdit(p, edited)
-	return h, nil
+	lines := itemLines(edited)
+	for i := range parsed.Triplets {
+		parsed.Triplets[i].Pos = format.Pos{File: rel, Line: lines[pinOf[i]], Col: 1}
+	}
+	for i := range parsed.Shapes {
+		parsed.Shapes[i].Pos = format.Pos{File: rel, Line: lines[shapeOf[i]], Col: 1}
+	}
+	h.file, h.text = parsed, text
+	return nil
 }
 
 // brokenByEdit lists the recorded decisions the edited outline itself
