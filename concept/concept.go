@@ -36,6 +36,25 @@ type Counts struct {
 // branch keeps the identifier that branch gave it, and one made on both
 // alike has the same identifier on both (it is made from the members).
 func Carry(root *format.Category, prevs ...*format.Category) Counts {
+	matched := make([]Matched, 0, len(prevs))
+	for _, prev := range prevs {
+		if prev != nil {
+			matched = append(matched, Matched{Prev: prev, Pairs: naming.Carried(prev, root)})
+		}
+	}
+	return CarryMatched(root, matched...)
+}
+
+// Matched is a previous version of a tree with its matching to the
+// current one, naming.Carried(Prev, root).
+type Matched struct {
+	Prev  *format.Category
+	Pairs []match.Pair
+}
+
+// CarryMatched is Carry with each previous version's matching already
+// made: solve names the tree and carries identifiers by one matching.
+func CarryMatched(root *format.Category, prevs ...Matched) Counts {
 	var counts Counts
 	cur := walkOrder(root)
 	taken := map[string]bool{}
@@ -45,13 +64,9 @@ func Carry(root *format.Category, prevs ...*format.Category) Counts {
 			counts.Kept++
 		}
 	}
-	for _, prev := range prevs {
-		if prev == nil {
-			continue
-		}
-		old := walkOrder(prev)
-		oldSets, curSets := naming.CommonSets(prev, root)
-		for _, p := range match.Clusters(oldSets, curSets, naming.CarryJaccard) {
+	for _, m := range prevs {
+		old := walkOrder(m.Prev)
+		for _, p := range m.Pairs {
 			id := old[p.Old].ID
 			if id == "" || taken[id] || cur[p.New].ID != "" {
 				continue

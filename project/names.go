@@ -2,6 +2,7 @@ package project
 
 import (
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/naming"
 )
@@ -11,8 +12,9 @@ import (
 // its name, names people typed (in answered packets, the shape records,
 // and in NameSources) replace provisional ones where the category they
 // name still exists, and the rest get a provisional name from their
-// members' tags and words.
-func (p *Project) nameCategories(root, prev *format.Category) naming.Counts {
+// members' tags and words. carried is naming.Carried(prev, root), or nil
+// without a previous outline.
+func (p *Project) nameCategories(root, prev *format.Category, carried []match.Pair) naming.Counts {
 	var fixed []naming.Fixed
 	for _, f := range p.Constraints {
 		for _, g := range f.Groups {
@@ -31,7 +33,7 @@ func (p *Project) nameCategories(root, prev *format.Category) naming.Counts {
 			typed = append(typed, TypedNames(s.Tree)...)
 		}
 	}
-	return naming.AssignTyped(root, prev, fixed, typed, words)
+	return naming.AssignMatched(root, prev, carried, fixed, typed, words)
 }
 
 // TypedNames lists the confirmed category names of a tree (a shape's

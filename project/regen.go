@@ -10,8 +10,10 @@ import (
 
 	"github.com/ramify-tax/ramify/concept"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/naming"
 )
 
 // HandEditPrefix begins the name of every constraint file that absorb
@@ -167,8 +169,21 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	if p.Outline != nil {
 		prev = p.Outline.Root
 	}
-	p.nameCategories(root, prev)
-	concept.Carry(root, append([]*format.Category{prev}, p.NameSources...)...)
+	// Names and concept identifiers pass from the previous outline by one
+	// matching; it depends only on the members, which naming leaves alone.
+	var carried []match.Pair
+	matched := make([]concept.Matched, 0, 1+len(p.NameSources))
+	if prev != nil {
+		carried = naming.Carried(prev, root)
+		matched = append(matched, concept.Matched{Prev: prev, Pairs: carried})
+	}
+	p.nameCategories(root, prev, carried)
+	for _, src := range p.NameSources {
+		if src != nil {
+			matched = append(matched, concept.Matched{Prev: src, Pairs: naming.Carried(src, root)})
+		}
+	}
+	concept.CarryMatched(root, matched...)
 	sol.Root, sol.Tree = root, tree
 	sol.Text = format.FormatOutlineRecords(root, keys)
 	sol.Cost = solve.Cost(g, tree)

@@ -82,6 +82,25 @@ func Assign(root, prev *format.Category, fixed []Fixed, words func(item string) 
 // replaces a confirmed one, and names that format.CheckCategoryName
 // rejects are ignored.
 func AssignTyped(root, prev *format.Category, fixed []Fixed, typed []Typed, words func(item string) []string) Counts {
+	var carried []match.Pair
+	if prev != nil {
+		carried = Carried(prev, root)
+	}
+	return AssignMatched(root, prev, carried, fixed, typed, words)
+}
+
+// Carried is the matching by which names and concept identifiers pass
+// from the categories of prev to those of root (see Assign): match.Clusters
+// on CommonSets at CarryJaccard, indices in walk order below each root.
+func Carried(prev, root *format.Category) []match.Pair {
+	oldSets, newSets := CommonSets(prev, root)
+	return match.Clusters(oldSets, newSets, CarryJaccard)
+}
+
+// AssignMatched is AssignTyped with the matching to prev already made
+// (Carried(prev, root)): a re-solve names the tree and carries concept
+// identifiers by the one matching, made once for a million items.
+func AssignMatched(root, prev *format.Category, carried []match.Pair, fixed []Fixed, typed []Typed, words func(item string) []string) Counts {
 	cats := categories(root)
 	claims := make([]claim, len(cats))
 	var counts Counts
@@ -118,8 +137,7 @@ func AssignTyped(root, prev *format.Category, fixed []Fixed, typed []Typed, word
 			}
 			return true
 		})
-		oldSets, newSets := CommonSets(prev, root)
-		for _, p := range match.Clusters(oldSets, newSets, CarryJaccard) {
+		for _, p := range carried {
 			if claims[p.New] != claimNone {
 				continue
 			}
@@ -247,13 +265,8 @@ func categories(root *format.Category) []category {
 		}
 		return true
 	})
-	// Members bottom-up: walk order puts children after parents.
-	for i := len(out) - 1; i >= 0; i-- {
-		out[i].members = append(out[i].members, out[i].cat.Items...)
-		slices.Sort(out[i].members)
-		if p := out[i].parent; p >= 0 {
-			out[p].members = append(out[p].members, out[i].members...)
-		}
+	for i, members := range format.MemberLists(root) {
+		out[i].members = members
 	}
 	return out
 }
