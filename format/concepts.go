@@ -66,9 +66,19 @@ func deriveID(text string, salt int) string {
 	return "c" + hex.EncodeToString(sum[:])[:ConceptIDLen-1]
 }
 
-// memberHash is the 8-hex-digit hash of a sorted member list.
-func memberHash(sorted []string) string {
-	sum := sha256.Sum256([]byte(strings.Join(sorted, "\n")))
+// memberHash is the 8-hex-digit hash of a sorted member list, the ids
+// joined by line breaks; buf is room for the joined text, reused from one
+// list to the next.
+func memberHash(sorted []string, buf *[]byte) string {
+	b := (*buf)[:0]
+	for i, id := range sorted {
+		if i > 0 {
+			b = append(b, '\n')
+		}
+		b = append(b, id...)
+	}
+	*buf = b
+	sum := sha256.Sum256(b)
 	return hex.EncodeToString(sum[:4])
 }
 
@@ -85,24 +95,22 @@ type conceptRow struct {
 // conceptRows lists the categories below root in walk order.
 func conceptRows(root *Category) []conceptRow {
 	var rows []conceptRow
-	var rec func(c *Category, prefix string) []string
-	rec = func(c *Category, prefix string) []string {
-		members := slices.Clone(c.Items)
+	var rec func(c *Category, prefix string)
+	rec = func(c *Category, prefix string) {
 		for _, ch := range c.Children {
 			path := ch.Name
 			if prefix != "" {
 				path = prefix + ConceptPathSeparator + ch.Name
 			}
-			i := len(rows)
 			rows = append(rows, conceptRow{cat: ch, path: path})
-			sub := rec(ch, path)
-			slices.Sort(sub)
-			rows[i].members = memberHash(sub)
-			members = append(members, sub...)
+			rec(ch, path)
 		}
-		return members
 	}
 	rec(root, "")
+	var buf []byte
+	for i, members := range MemberLists(root) {
+		rows[i].members = memberHash(members, &buf)
+	}
 	return rows
 }
 

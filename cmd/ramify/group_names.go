@@ -16,23 +16,37 @@ import (
 // editor can change the name where it is decided. solve and check run it
 // before anything else.
 func checkGroupNames(p *project.Project) error {
-	if p.Outline == nil {
+	// Only a category of a named group's size can be the one it names.
+	sizes := map[int]bool{}
+	for _, f := range p.Constraints {
+		for _, g := range f.Groups {
+			if g.Name != "" {
+				sizes[len(g.Items)] = true
+			}
+		}
+	}
+	if p.Outline == nil || len(sizes) == 0 {
 		return nil
 	}
 	byItems := map[string]*format.Category{}
+	var cats []*format.Category
 	p.Outline.Root.Walk(func(c *format.Category, _ int) bool {
 		if c != p.Outline.Root {
-			ids := c.AllItems()
-			slices.Sort(ids)
-			key := strings.Join(ids, "\x00")
-			// The outer of a category and its only subcategory is the one
-			// a group names (see naming.Assign).
-			if _, seen := byItems[key]; !seen {
-				byItems[key] = c
-			}
+			cats = append(cats, c)
 		}
 		return true
 	})
+	for i, ids := range format.MemberLists(p.Outline.Root) {
+		if !sizes[len(ids)] {
+			continue
+		}
+		key := strings.Join(ids, "\x00")
+		// The outer of a category and its only subcategory is the one a
+		// group names (see naming.Assign).
+		if _, seen := byItems[key]; !seen {
+			byItems[key] = cats[i]
+		}
+	}
 	rel := p.Settings.Taxonomy.File
 	var lines []string
 	for _, f := range p.Constraints {
