@@ -119,3 +119,23 @@ func BenchmarkNNDescentTags(b *testing.B) {
 		})
 	}
 }
+
+// BenchmarkMedianWeight1M is the normalisation Combine does on a links
+// graph of a million random edges.
+func BenchmarkMedianWeight1M(b *testing.B) {
+	rng := rand.New(rand.NewPCG(5, 6))
+	const n = 200_000
+	edges := make([]Edge, 1_000_000)
+	for i := range edges {
+		u := rng.Int32N(n)
+		v := (u + 1 + rng.Int32N(n-1)) % n
+		edges[i] = Edge{u, v, rng.Float64()}
+	}
+	g, err := FromEdges(n, edges)
+	if err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		MedianWeight(g)
+	}
+}

@@ -3,7 +3,8 @@ package graph
 import (
 	"fmt"
 	"math"
-	"sort"
+	"math/bits"
+	"slices"
 )
 
 // Combine adds similarity graphs over the same items: each part is first
@@ -103,7 +104,7 @@ func Combine(parts []*CSR, weights []float64) (*CSR, error) {
 // edge counted once (the mean of the two middle ones for an even count), or
 // 0 when g has no edges.
 func MedianWeight(g *CSR) float64 {
-	var ws []float64
+	ws := make([]float64, 0, len(g.Targets)/2)
 	for u := 0; u < g.N; u++ {
 		ts, w := g.Neighbors(u)
 		for p, t := range ts {
@@ -115,10 +116,63 @@ func MedianWeight(g *CSR) float64 {
 	if len(ws) == 0 {
 		return 0
 	}
-	sort.Float64s(ws)
+	// Selection finds the middle in linear time, where sorting millions of
+	// weights took most of a re-solve's graph build; the values are the
+	// ones a sort would put there.
 	m := len(ws) / 2
+	mid := selectKth(ws, m)
 	if len(ws)%2 == 1 {
-		return ws[m]
+		return mid
 	}
-	return ws[m-1]/2 + ws[m]/2
+	return slices.Max(ws[:m])/2 + mid/2
+}
+
+// selectKth reorders ws so that ws[k] holds the value a sort would put
+// there, every value before it no greater and every value after it no
+// smaller, and returns ws[k] (Hoare's FIND, with a median-of-three pivot;
+// past 2·log₂ n rounds of bad pivots the rest is sorted, so the worst case
+// stays O(n log n)).
+func selectKth(ws []float64, k int) float64 {
+	lo, hi := 0, len(ws)-1
+	for budget := 2 * bits.Len(uint(len(ws))); lo < hi; budget-- {
+		if budget == 0 {
+			slices.Sort(ws[lo : hi+1])
+			break
+		}
+		mid := lo + (hi-lo)/2
+		if ws[mid] < ws[lo] {
+			ws[mid], ws[lo] = ws[lo], ws[mid]
+		}
+		if ws[hi] < ws[lo] {
+			ws[hi], ws[lo] = ws[lo], ws[hi]
+		}
+		if ws[hi] < ws[mid] {
+			ws[hi], ws[mid] = ws[mid], ws[hi]
+		}
+		pivot := ws[mid]
+		i, j := lo, hi
+		for i <= j {
+			for ws[i] < pivot {
+				i++
+			}
+			for ws[j] > pivot {
+				j--
+			}
+			if i <= j {
+				ws[i], ws[j] = ws[j], ws[i]
+				i++
+				j--
+			}
+		}
+		// Now ws[lo..j] <= pivot <= ws[i..hi], and ws[j+1..i-1] == pivot.
+		switch {
+		case k <= j:
+			hi = j
+		case k >= i:
+			lo = i
+		default:
+			return ws[k]
+		}
+	}
+	return ws[k]
 }

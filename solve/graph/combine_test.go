@@ -2,6 +2,7 @@ package graph
 
 import (
 	"math"
+	"math/rand/v2"
 	"slices"
 	"testing"
 )
@@ -165,5 +166,51 @@ func TestCombineOnePartAsMerged(t *testing.T) {
 	checkGraph(t, one)
 	if !slices.Equal(one.Offsets, merged.Offsets) || !slices.Equal(one.Targets, merged.Targets) || !slices.Equal(one.Weights, merged.Weights) {
 		t.Error("one part combined differs from the merge")
+	}
+}
+
+func TestSelectKthMatchesSort(t *testing.T) {
+	rng := rand.New(rand.NewPCG(3, 4))
+	for _, tc := range []struct {
+		name   string
+		n      int
+		values int // distinct values drawn from; 0 for continuous
+	}{
+		{"one", 1, 0}, {"two", 2, 0}, {"small", 7, 0}, {"ties", 50, 3},
+		{"all equal", 40, 1}, {"continuous", 1000, 0}, {"many ties", 1000, 10},
+	} {
+		t.Run(tc.name, func(t *testing.T) {
+			ws := make([]float64, tc.n)
+			for i := range ws {
+				if tc.values > 0 {
+					ws[i] = float64(rng.IntN(tc.values))
+				} else {
+					ws[i] = rng.Float64()
+				}
+			}
+			sorted := slices.Clone(ws)
+			slices.Sort(sorted)
+			for k := range ws {
+				got := selectKth(slices.Clone(ws), k)
+				if got != sorted[k] {
+					t.Fatalf("k=%d: got %v, a sort puts %v there", k, got, sorted[k])
+				}
+			}
+			// Sorted and reversed input are the classic bad cases.
+			rev := slices.Clone(sorted)
+			slices.Reverse(rev)
+			for k := range ws {
+				if a, b := selectKth(slices.Clone(sorted), k), selectKth(slices.Clone(rev), k); a != sorted[k] || b != sorted[k] {
+					t.Fatalf("k=%d: sorted input gives %v, reversed %v, want %v", k, a, b, sorted[k])
+				}
+			}
+		})
+	}
+}
+
+func TestMedianWeightEvenCountAveragesTheMiddleTwo(t *testing.T) {
+	g := mustEdges(t, 5, []Edge{{0, 1, 8}, {1, 2, 1}, {2, 3, 5}, {3, 4, 3}})
+	if m := MedianWeight(g); m != 4 {
+		t.Errorf("median of {1, 3, 5, 8} = %v, want 4", m)
 	}
 }
