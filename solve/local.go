@@ -617,7 +617,7 @@ func (r *repairer) holds(ix *treeIndex, u unit, s spot, k int) bool {
 	if inside < len(u.items) {
 		return false // the unit would straddle the group's border
 	}
-	n, ok := ix.byHash[rest]
+	n, ok := ix.nodeOfHash(rest)
 	if !ok || ix.size[n] != restSize {
 		return false
 	}

@@ -282,7 +282,8 @@ type treeIndex struct {
 	depth, size, height, subcats []int32
 	tin, tout                    []int32
 	hash                         []uint64
-	byHash                       map[uint64]int32 // leaf-set hash → shallowest node
+	order                        []int32          // the main tree's nodes in pre-order
+	byHash                       map[uint64]int32 // leaf-set hash → shallowest node; see nodeOfHash
 	locked                       []bool
 	upper                        []float64 // C(v): weight of placed pairs with lca at v or above
 
@@ -294,26 +295,36 @@ type treeIndex struct {
 	wTotal   float64
 }
 
+// index reads the main tree for placing units: its shape (shapeIndex)
+// and the Dasgupta weights that r.cost adds up (sumUpper).
 func (t *mutableTree) index(g *graph.CSR, keys []uint64, c *Constraints) *treeIndex {
+	ix := t.shapeIndex(keys, c)
+	ix.sumUpper(t, g, ix.order)
+	return ix
+}
+
+// shapeIndex reads the main tree's shape: depths, sizes, ancestor tests,
+// leaf-set hashes and locked groups, all that checking records needs. It
+// leaves out the weights (upper), a pass over every edge that only costing
+// a place needs: a cost read off a shape index fails.
+func (t *mutableTree) shapeIndex(keys []uint64, c *Constraints) *treeIndex {
 	nodes := len(t.kids)
 	ix := &treeIndex{
 		depth: make([]int32, nodes), size: make([]int32, nodes), height: make([]int32, nodes),
 		subcats: make([]int32, nodes), tin: make([]int32, nodes), tout: make([]int32, nodes),
-		hash: make([]uint64, nodes), byHash: map[uint64]int32{}, locked: make([]bool, nodes),
-		upper: make([]float64, nodes), under: make([]float64, nodes), unitRoot: -1,
+		hash: make([]uint64, nodes), locked: make([]bool, nodes),
+		under: make([]float64, nodes), unitRoot: -1,
 	}
-	order := ix.walk(t, keys)
+	ix.order = ix.walk(t, keys)
 	ix.lockGroups(t, keys, c)
-	ix.sumUpper(t, g, order)
 	return ix
 }
 
 // walk fills the node measures: depth and entry times in pre-order;
 // sizes, leaf-set hashes, heights, exit times and subcategory counts in
-// post-order; and byHash, the shallowest node of each hash. It returns the
-// pre-order.
+// post-order. It returns the pre-order.
 func (ix *treeIndex) walk(t *mutableTree, keys []uint64) []int32 {
-	var order []int32
+	order := make([]int32, 0, len(t.kids))
 	stack := []int32{t.root}
 	clock := int32(0)
 	for len(stack) > 0 {
@@ -345,12 +356,25 @@ func (ix *treeIndex) walk(t *mutableTree, keys []uint64) []int32 {
 			}
 		}
 	}
-	for _, v := range order { // pre-order: the shallowest node of a hash wins
-		if _, ok := ix.byHash[ix.hash[v]]; !ok {
+	return order
+}
+
+// nodeOfHash is the shallowest node of the main tree whose leaf set has
+// hash h. The map is made on the first call, from the hashes as the index
+// read them: only groups ask, and a tree of a million leaves without
+// groups never pays for it.
+func (ix *treeIndex) nodeOfHash(h uint64) (int32, bool) {
+	if ix.byHash == nil {
+		ix.byHash = make(map[uint64]int32, len(ix.order))
+		// Backwards through the pre-order, so the shallowest node of a
+		// hash is written last and stays.
+		for i := len(ix.order) - 1; i >= 0; i-- {
+			v := ix.order[i]
 			ix.byHash[ix.hash[v]] = v
 		}
 	}
-	return order
+	v, ok := ix.byHash[h]
+	return v, ok
 }
 
 // lockGroups marks, for each group whose items are all placed, the
@@ -370,7 +394,7 @@ func (ix *treeIndex) lockGroups(t *mutableTree, keys []uint64, c *Constraints) {
 		if !all || len(cl.Leaves) < 2 {
 			continue
 		}
-		v, ok := ix.byHash[h]
+		v, ok := ix.nodeOfHash(h)
 		if !ok || int(ix.size[v]) != len(cl.Leaves) {
 			continue
 		}
@@ -385,6 +409,7 @@ func (ix *treeIndex) lockGroups(t *mutableTree, keys []uint64, c *Constraints) {
 // its weight at its lca; upper accumulates them down every root path
 // (order is the pre-order).
 func (ix *treeIndex) sumUpper(t *mutableTree, g *graph.CSR, order []int32) {
+	ix.upper = make([]float64, len(t.kids))
 	wlca := make([]float64, len(t.kids))
 	for _, v := range order {
 		if !t.isLeaf(v) {

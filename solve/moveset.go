@@ -76,7 +76,7 @@ type brokenSet struct {
 // brokenRecords lists, grouped by shared items, the triplet records and
 // shapes that the current tree does not keep.
 func (r *repairer) brokenRecords() []brokenSet {
-	ix := r.t.index(r.g, r.keys, r.c)
+	ix := r.t.shapeIndex(r.keys, r.c)
 	gone := func(x int32) bool { return !ix.inMain(r.t, x) }
 	var broken []recordShape
 	for _, rec := range r.tripletRecords() {
@@ -221,7 +221,7 @@ func (r *repairer) mend(s brokenSet) (int, bool) {
 	if len(s.items) > maxMoveItems {
 		return 0, false
 	}
-	ix := r.t.index(r.g, r.keys, r.c)
+	ix := r.t.shapeIndex(r.keys, r.c)
 	tv := indexedTree{r.t, ix}
 	breachOf := func(moved []int32) ([3]int32, bool) {
 		gone := func(x int32) bool { return !ix.inMain(r.t, x) || slices.Contains(moved, x) }
