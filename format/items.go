@@ -63,8 +63,11 @@ type itemSet struct {
 	ds     Diags
 }
 
-func newItemSet(file string, b Budget) *itemSet {
-	return &itemSet{file: file, budget: b, first: map[string]int{}}
+// newItemSet makes room for about room items (at most the budget's), so
+// a million rows do not regrow the list and the id map twenty times.
+func newItemSet(file string, b Budget, room int) *itemSet {
+	room = max(min(room, b.Left), 0)
+	return &itemSet{file: file, budget: b, items: make([]Item, 0, room), first: make(map[string]int, room)}
 }
 
 // itemPlaces says where each part of an item is written, for messages.
@@ -146,9 +149,6 @@ func (s *itemSet) result() ([]Item, error) {
 	if len(s.ds) > 0 {
 		s.ds.Sort()
 		return nil, s.ds
-	}
-	if s.items == nil {
-		s.items = []Item{}
 	}
 	return s.items, nil
 }

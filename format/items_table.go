@@ -14,7 +14,8 @@ func parseItemsTable(file string, data []byte, sep byte, b Budget) ([]Item, erro
 	if len(ds) > 0 {
 		return nil, ds
 	}
-	t := &itemTable{set: newItemSet(file, b)}
+	// A row a line, less the header.
+	t := &itemTable{set: newItemSet(file, b, bytes.Count(text, []byte{'\n'}))}
 	if sep == '\t' {
 		readTSV(file, string(text), &t.set.ds, func(row *tsvRow) bool {
 			return t.row(row.Cells, func(i int) Pos { return row.pos(file, i) })
@@ -64,7 +65,8 @@ func (t *itemTable) row(cells []string, pos func(i int) Pos) bool {
 	desc, textPos := cell("text")
 	it := Item{ID: strings.TrimSpace(id), Label: label, Text: desc, Pos: Pos{idPos.File, idPos.Line, 1}}
 	if strings.TrimSpace(tags) != "" {
-		for _, tag := range strings.Split(tags, TagSeparator) {
+		it.Tags = make([]string, 0, strings.Count(tags, TagSeparator)+1)
+		for tag := range strings.SplitSeq(tags, TagSeparator) {
 			it.Tags = append(it.Tags, strings.TrimSpace(tag))
 		}
 	}

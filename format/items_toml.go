@@ -40,10 +40,10 @@ func parseItemsTOML(file string, data []byte, b Budget) ([]Item, error) {
 	if len(ds) > 0 {
 		return nil, ds
 	}
-	set := newItemSet(file, b)
-	set.ds = append(set.ds, unknownKeys(doc.root, []string{"item"}, "an items file", doc.rootKeyPos)...)
+	unknown := unknownKeys(doc.root, []string{"item"}, "an items file", doc.rootKeyPos)
 	records, rds := doc.records("item")
-	set.ds = append(set.ds, rds...)
+	set := newItemSet(file, b, len(records))
+	set.ds = append(append(set.ds, unknown...), rds...)
 	for i := range records {
 		if !addTOMLItem(set, &records[i]) {
 			break
