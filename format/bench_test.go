@@ -89,16 +89,32 @@ func BenchmarkParseVectors100kx16(b *testing.B) {
 	}
 }
 
-func BenchmarkParseLinks1M(b *testing.B) {
+func benchLinks() []byte {
 	var sb strings.Builder
 	sb.WriteString(LinksHeader + "\n")
 	for i := range 1_000_000 {
 		fmt.Fprintf(&sb, "item-%d\titem-%d\t%.3f\n", i%100_000, (i*7+1)%100_000, 0.5+float64(i%100)/200)
 	}
-	data := []byte(sb.String())
+	return []byte(sb.String())
+}
+
+func BenchmarkParseLinks1M(b *testing.B) {
+	data := benchLinks()
 	b.SetBytes(int64(len(data)))
 	for b.Loop() {
 		if _, err := ParseLinks("b.tsv", data); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkParseLinkTable1M reads the same links into columns as a
+// repository does, told how many items there are.
+func BenchmarkParseLinkTable1M(b *testing.B) {
+	data := benchLinks()
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseLinkTableWithin("b.tsv", data, fileLinks, 100_000); err != nil {
 			b.Fatal(err)
 		}
 	}

@@ -35,7 +35,7 @@ func ParseLinks(file string, data []byte) ([]Link, error) {
 // 0, kept in single precision (so between 1.4e-45 and 3.4e38). A pair may
 // appear in both directions; the graph builder combines them.
 func ParseLinkTable(file string, data []byte) (*LinkTable, error) {
-	return ParseLinkTableWithin(file, data, fileLinks)
+	return ParseLinkTableWithin(file, data, fileLinks, 0)
 }
 
 // Row returns the features of the i-th item (a copy, in float64, when the

@@ -38,8 +38,10 @@ func (t *LinkTable) Pos(k int) Pos { return Pos{t.File, int(t.Line[k]), 1} }
 const LinksHeader = "a\tb\tweight"
 
 // ParseLinkTableWithin is ParseLinkTable keeping at most b.Left links: the
-// row past them is reported and reading stops there.
-func ParseLinkTableWithin(file string, data []byte, b Budget) (*LinkTable, error) {
+// row past them is reported and reading stops there. ids is how many
+// distinct ids the file likely names (the number of items), room made up
+// front so the id map does not regrow as it fills; 0 when unknown.
+func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTable, error) {
 	text, ds := CleanText(file, data)
 	if len(ds) > 0 {
 		return nil, ds
@@ -54,7 +56,10 @@ func ParseLinkTableWithin(file string, data []byte, b Budget) (*LinkTable, error
 		Weight: make([]float32, 0, room),
 		Line:   make([]int32, 0, room),
 	}
-	ids := idTable{index: map[string]int32{}, last: [2]int32{-1, -1}}
+	// No more distinct ids than two a link.
+	idRoom := max(min(ids, 2*room), 0)
+	t.IDs = make([]string, 0, idRoom)
+	idt := idTable{index: make(map[string]int32, idRoom), last: [2]int32{-1, -1}}
 	header := false
 	readTSV(file, string(text), &ds, func(row *tsvRow) bool {
 		if !header {
@@ -81,7 +86,7 @@ func ParseLinkTableWithin(file string, data []byte, b Budget) (*LinkTable, error
 		bad := false
 		var num [2]int32
 		for i, id := range [2]string{a, b} {
-			num[i] = ids.lookup(i, id)
+			num[i] = idt.lookup(i, id)
 			if num[i] < 0 && !ValidItemID(id) {
 				ds.Add(row.pos(file, i), "%q is not a valid item id: %s", clip(id), ItemIDRule)
 				bad = true
@@ -106,7 +111,7 @@ func ParseLinkTableWithin(file string, data []byte, b Budget) (*LinkTable, error
 		if !bad && len(ds) == 0 {
 			for i, id := range [2]string{a, b} {
 				if num[i] < 0 {
-					num[i] = ids.add(i, id, &t.IDs)
+					num[i] = idt.add(i, id, &t.IDs)
 				}
 			}
 			t.A = append(t.A, num[0])

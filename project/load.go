@@ -302,7 +302,7 @@ func (p *Project) loadLinks() format.Diags {
 			continue
 		}
 		lim := p.Settings.Limits.Links
-		links, err := format.ParseLinkTableWithin(src.File, data, format.Budget{Left: lim - linksRead, Over: format.OverLimit("links", lim, "limits.links")})
+		links, err := format.ParseLinkTableWithin(src.File, data, format.Budget{Left: lim - linksRead, Over: format.OverLimit("links", lim, "limits.links")}, len(p.Items))
 		if err != nil {
 			ds = append(ds, format.AsDiags(err, src.File)...)
 			continue
