@@ -6,7 +6,7 @@ import (
 	"strconv"
 	"testing"
 
-	"github.com/ramify-tax/ramify/match"
+	"github.com/ramify-tax/ramify/diff/match"
 )
 
 // BenchmarkCompare100k measures the project's speed target: a semantic diff

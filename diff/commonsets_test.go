@@ -8,8 +8,8 @@ import (
 
 	"github.com/google/go-cmp/cmp"
 
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 )
 
 // naiveCommonSets is the definition match.CommonSets implements, written out

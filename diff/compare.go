@@ -3,8 +3,8 @@ package diff
 import (
 	"slices"
 
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 )
 
 // comparison holds the two flattened trees, their common items and the

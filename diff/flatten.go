@@ -4,8 +4,8 @@ import (
 	"slices"
 	"strings"
 
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 )
 
 // flatTree is a format tree laid out for comparison. Category 0 is the

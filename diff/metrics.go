@@ -3,8 +3,8 @@ package diff
 import (
 	"fmt"
 
-	"github.com/ramify-tax/ramify/bounds"
 	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/review/bounds"
 )
 
 // TripletAgreement is the share of the C(n, 3) leaf triples whose induced

@@ -8,7 +8,7 @@ import (
 	"strings"
 	"time"
 
-	"github.com/ramify-tax/ramify/concept"
+	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve"

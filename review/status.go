@@ -4,8 +4,8 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/ramify-tax/ramify/bounds"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/review/bounds"
 )
 
 // AuditLevel is the confidence of the reported interval.

@@ -5,8 +5,8 @@ import (
 	"math"
 	"testing"
 
-	"github.com/ramify-tax/ramify/bounds"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/review/bounds"
 )
 
 // auditPacket is an answered packet over its own three items, grouped as

@@ -5,10 +5,10 @@ import (
 	"sort"
 	"strings"
 
-	"github.com/ramify-tax/ramify/binding"
-	"github.com/ramify-tax/ramify/explain"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/review/explain"
 	"github.com/spf13/pflag"
 )
 

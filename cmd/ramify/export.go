@@ -8,8 +8,8 @@ import (
 	"slices"
 	"strings"
 
-	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/spf13/pflag"
 )

@@ -10,8 +10,8 @@ import (
 	"sort"
 	"strings"
 
-	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 )
 
 // An import CSV names its columns in a header row: id and path are

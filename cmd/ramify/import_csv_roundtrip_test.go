@@ -8,9 +8,9 @@ import (
 
 	"github.com/google/go-cmp/cmp"
 	"github.com/google/go-cmp/cmp/cmpopts"
-	"github.com/ramify-tax/ramify/concept"
-	"github.com/ramify-tax/ramify/export"
+	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 )
 
 // TestCSVRoundTripLossless exports the export package's awkward fixture
@@ -21,7 +21,7 @@ import (
 // the same.
 func TestCSVRoundTripLossless(t *testing.T) {
 	read := func(name string) []byte {
-		data, err := os.ReadFile(filepath.Join("..", "..", "export", "testdata", name))
+		data, err := os.ReadFile(filepath.Join("..", "..", "format", "export", "testdata", name))
 		if err != nil {
 			t.Fatal(err)
 		}

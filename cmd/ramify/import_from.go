@@ -8,7 +8,7 @@ import (
 	"path/filepath"
 	"strings"
 
-	"github.com/ramify-tax/ramify/concept"
+	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/spf13/pflag"

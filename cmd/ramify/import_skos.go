@@ -6,8 +6,8 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/rdf"
-	"github.com/ramify-tax/ramify/skos"
+	"github.com/ramify-tax/ramify/format/rdf"
+	"github.com/ramify-tax/ramify/format/skos"
 	"github.com/spf13/pflag"
 )
 

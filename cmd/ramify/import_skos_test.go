@@ -8,7 +8,7 @@ import (
 	"testing"
 
 	"github.com/piprate/json-gold/ld"
-	"github.com/ramify-tax/ramify/rdf"
+	"github.com/ramify-tax/ramify/format/rdf"
 )
 
 // TestSKOSRoundTrip exports the demo as SKOS, writes the same graph in

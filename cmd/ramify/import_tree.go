@@ -4,8 +4,8 @@ import (
 	"strings"
 	"unicode"
 
-	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 )
 
 // importTree builds the tree and the items of an import CSV row by row,

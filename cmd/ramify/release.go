@@ -10,8 +10,8 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/project"
-	"github.com/ramify-tax/ramify/release"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/review/release"
 	"github.com/spf13/pflag"
 )
 

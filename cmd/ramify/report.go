@@ -8,12 +8,12 @@ import (
 	"strconv"
 	"strings"
 
-	"github.com/ramify-tax/ramify/binding"
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/project"
-	"github.com/ramify-tax/ramify/report"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/review/report"
 	"github.com/spf13/pflag"
 )
 

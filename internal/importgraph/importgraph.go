@@ -24,20 +24,20 @@ const Module = "github.com/ramify-tax/ramify"
 var Layers = [][]string{
 	// 0, leaf packages: nothing of ramify below them ("." is the module's
 	// root, which only embeds the shared testdata).
-	{".", "hier", "match", "bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/browsertest", "internal/importgraph", "internal/round"},
+	{".", "hier", "diff/match", "review/bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/browsertest", "internal/importgraph", "internal/round"},
 	// 1, the document model and its codecs.
 	{"format"},
 	// 2, what reads documents without solving: the graph, comparison,
 	// names, writers.
-	{"solve/graph", "diff", "solve/naming", "export", "binding", "internal/realdata"},
+	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "internal/realdata"},
 	// 3, the solver and what builds on comparison and names.
-	{"solve", "concept", "rdf", "cmd/bench/stability/stable"},
+	{"solve", "diff/concept", "format/rdf", "cmd/bench/stability/stable"},
 	// 4, what runs the solver.
-	{"review", "solve/planted", "skos"},
+	{"review", "solve/planted", "format/skos"},
 	// 5, a whole repository: loading, regenerating, the committee for it.
 	{"project"},
 	// 6, views of a loaded repository and its releases.
-	{"explain", "report", "release", "cmd/bench/reviewloop/loop"},
+	{"review/explain", "review/report", "review/release", "cmd/bench/reviewloop/loop"},
 	// 7, programs.
 	{"cmd/ramify", "cmd/bench/genrepo", "cmd/bench/quality", "cmd/bench/reviewloop", "cmd/bench/solvebench", "cmd/bench/stability", "cmd/bench/vectorload"},
 }

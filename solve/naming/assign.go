@@ -8,8 +8,8 @@ import (
 	"slices"
 	"strings"
 
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 )
 
 // Fixed is a named group constraint: exactly these items form one

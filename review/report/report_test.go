@@ -9,9 +9,9 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/ramify-tax/ramify/binding"
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/project"
 )
 
@@ -22,7 +22,7 @@ var update = flag.Bool("update", false, "rewrite the golden files under testdata
 // shelved with the car tools) and no support.
 func demoInput(t *testing.T) Input {
 	t.Helper()
-	p, ds := project.Load(filepath.Join("..", "examples", "tool-library"))
+	p, ds := project.Load(filepath.Join("..", "..", "examples", "tool-library"))
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

@@ -4,9 +4,9 @@ import (
 	"strings"
 	"testing"
 
-	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/rdf"
+	"github.com/ramify-tax/ramify/format/export"
+	"github.com/ramify-tax/ramify/format/rdf"
 )
 
 func TestProvisionalNoteMatchesTheExport(t *testing.T) {

@@ -13,8 +13,8 @@ import (
 	"sort"
 	"strings"
 
-	"github.com/ramify-tax/ramify/binding"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/solve/graph"
 )

@@ -12,7 +12,7 @@ import (
 	"unicode"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/rdf"
+	"github.com/ramify-tax/ramify/format/rdf"
 )
 
 // The SKOS vocabulary (W3C Recommendation "SKOS Simple Knowledge

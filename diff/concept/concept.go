@@ -9,8 +9,8 @@ import (
 	"slices"
 	"strings"
 
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve/naming"
 )
 

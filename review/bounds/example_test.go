@@ -3,7 +3,7 @@ package bounds_test
 import (
 	"fmt"
 
-	"github.com/ramify-tax/ramify/bounds"
+	"github.com/ramify-tax/ramify/review/bounds"
 )
 
 func ExampleClopperPearson() {

@@ -11,7 +11,7 @@ import (
 )
 
 // demoOutline names the bundled demo's outline for fixture.
-var demoOutline = filepath.Join("..", "examples", "tool-library", "taxonomy.outline")
+var demoOutline = filepath.Join("..", "..", "examples", "tool-library", "taxonomy.outline")
 
 // fixture parses an outline and an items file from testdata (or the demo
 // outline, given as demoOutline).

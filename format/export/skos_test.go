@@ -185,7 +185,7 @@ func TestSKOSReadByRapper(t *testing.T) {
 }
 
 func demoSKOS(t *testing.T) (*format.Category, []format.Item, SKOSOptions) {
-	p, ds := project.Load(filepath.Join("..", "examples", "tool-library"))
+	p, ds := project.Load(filepath.Join("..", "..", "examples", "tool-library"))
 	if len(ds) > 0 {
 		t.Fatalf("the demo does not load: %v", ds)
 	}

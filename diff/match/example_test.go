@@ -3,7 +3,7 @@ package match_test
 import (
 	"fmt"
 
-	"github.com/ramify-tax/ramify/match"
+	"github.com/ramify-tax/ramify/diff/match"
 )
 
 func ExampleClusters() {

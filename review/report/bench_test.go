@@ -10,9 +10,9 @@ import (
 	"time"
 
 	"github.com/chromedp/chromedp"
-	"github.com/ramify-tax/ramify/binding"
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/internal/browsertest"
 	"github.com/ramify-tax/ramify/review"
 )

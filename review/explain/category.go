@@ -5,8 +5,8 @@ import (
 	"sort"
 	"strings"
 
-	"github.com/ramify-tax/ramify/binding"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 )
 
 // Category is why a category holds what it holds.

@@ -10,8 +10,8 @@ import (
 	"fmt"
 	"strings"
 
-	"github.com/ramify-tax/ramify/export"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 )
 
 // Kind says what a term is.

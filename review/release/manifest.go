@@ -14,10 +14,10 @@ import (
 	"sort"
 
 	"github.com/BurntSushi/toml"
-	"github.com/ramify-tax/ramify/concept"
 	"github.com/ramify-tax/ramify/diff"
-	"github.com/ramify-tax/ramify/export"
+	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 	"github.com/ramify-tax/ramify/internal/round"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"

@@ -8,9 +8,9 @@ package report
 import (
 	"sort"
 
-	"github.com/ramify-tax/ramify/binding"
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/review"
 )
 
