@@ -1,8 +1,8 @@
 package project
 
 import (
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/naming"
 )

@@ -9,8 +9,8 @@ import (
 	"time"
 
 	"github.com/ramify-tax/ramify/diff/concept"
+	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/match"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/naming"
