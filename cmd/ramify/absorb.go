@@ -111,8 +111,8 @@ type absorbedJSON struct {
 }
 
 func runAbsorb(e *env, o *absorbOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("absorb takes no arguments (got %q)", args[0])
+	if err := noArguments("absorb", args, ""); err != nil {
+		return err
 	}
 	date, err := reviewDate(o.date)
 	if err != nil {

@@ -73,8 +73,8 @@ func recordsJSON(recs []project.Record) []recordJSON {
 }
 
 func runCheck(e *env, o *checkOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("check takes no arguments (got %q)", args[0])
+	if err := noArguments("check", args, ""); err != nil {
+		return err
 	}
 	p, ds := project.Load(e.dir())
 	if len(ds) > 0 {

@@ -115,6 +115,19 @@ func usagef(format string, args ...any) error {
 	return &usageError{msg: fmt.Sprintf(format, args...)}
 }
 
+// noArguments is the usage error of a command that takes none when it is
+// given some, with advice after a "; " when there is any; nil when args is
+// empty.
+func noArguments(command string, args []string, advice string) error {
+	if len(args) == 0 {
+		return nil
+	}
+	if advice != "" {
+		advice = "; " + advice
+	}
+	return usagef("%s takes no arguments (got %q)%s", command, args[0], advice)
+}
+
 // adviceDiags is bad input (exit 2, like format.Diags) with lines of
 // advice printed after the problems: what to run to put them right.
 type adviceDiags struct {

@@ -95,8 +95,8 @@ func checkExportFlags(e *env, o *exportOptions) error {
 }
 
 func runExport(e *env, o *exportOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("export takes no arguments (got %q); choose the form with --format", args[0])
+	if err := noArguments("export", args, "choose the form with --format"); err != nil {
+		return err
 	}
 	form, out := o.format, o.out
 	if err := checkExportFlags(e, o); err != nil {

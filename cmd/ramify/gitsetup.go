@@ -54,8 +54,8 @@ too when the folder is in a git repository.`,
 }
 
 func runGitSetup(e *env, args []string) error {
-	if len(args) > 0 {
-		return usagef("git-setup takes no arguments (got %q); use --dir to choose the repository", args[0])
+	if err := noArguments("git-setup", args, "use --dir to choose the repository"); err != nil {
+		return err
 	}
 	changes, err := gitSetup(e, e.dir())
 	if errors.Is(err, errNotGitRepo) {

@@ -100,8 +100,8 @@ type scaffoldFile struct {
 }
 
 func runInit(e *env, o *initOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("init takes no arguments (got %q); use --dir to choose the folder", args[0])
+	if err := noArguments("init", args, "use --dir to choose the folder"); err != nil {
+		return err
 	}
 	dir := e.dir()
 	if o.from != "" {

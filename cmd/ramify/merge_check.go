@@ -48,8 +48,8 @@ check" then finds the same problems.`,
 const mergeHookMarker = "# ramify: check the merged constraint records (ramify git-setup)"
 
 func runGitMergeCheck(e *env, args []string) error {
-	if len(args) > 0 {
-		return usagef("git-merge-check takes no arguments (got %q)", args[0])
+	if err := noArguments("git-merge-check", args, ""); err != nil {
+		return err
 	}
 	top, err := gitTopLevel(".")
 	if err != nil {

@@ -77,8 +77,8 @@ type reportPageJSON struct {
 }
 
 func runReport(e *env, o *reportOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("report takes no arguments (got %q)", args[0])
+	if err := noArguments("report", args, ""); err != nil {
+		return err
 	}
 	p, ds := project.Load(e.dir())
 	if len(ds) > 0 {

@@ -98,8 +98,8 @@ type drawReport struct {
 }
 
 func runReviewDraw(e *env, o *drawOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("review draw takes no arguments (got %q)", args[0])
+	if err := noArguments("review draw", args, ""); err != nil {
+		return err
 	}
 	count := o.count
 	if count < 1 || count > maxDrawCount {

@@ -102,8 +102,8 @@ type supportJSON struct {
 }
 
 func runReviewStatus(e *env, o *statusOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("review status takes no arguments (got %q)", args[0])
+	if err := noArguments("review status", args, ""); err != nil {
+		return err
 	}
 	top := o.top
 	if top < 0 {

@@ -94,8 +94,8 @@ type solveConstraints struct {
 }
 
 func runSolve(e *env, o *solveOptions, args []string) error {
-	if len(args) > 0 {
-		return usagef("solve takes no arguments (got %q)", args[0])
+	if err := noArguments("solve", args, ""); err != nil {
+		return err
 	}
 	method := project.Method(o.method)
 	if method != project.MethodConstrained && method != project.MethodAverage {
