@@ -121,128 +121,15 @@ func resource(t rdf.Term) bool { return t.Kind == rdf.IRI || t.Kind == rdf.Blank
 // back as format.Diags, each placed at the triple behind it (JSON-LD
 // triples, which have no lines, are quoted in the message instead).
 func Read(file string, triples []rdf.Triple, opt Options) (*Result, error) {
-	g := &graph{nodes: map[rdf.Term]*node{}}
-	var ds format.Diags
-	schemes := map[string]bool{}
-	var notices []string
-	addParent := func(child, parent *node, t rdf.Triple) {
-		if child == parent {
-			ds.Add(t.Pos, "%sconcept %s is broader than itself", quoteIfNoLine(t), show(child.term))
-			return
-		}
-		for _, l := range child.parents {
-			if l.to == parent {
-				return
-			}
-		}
-		child.parents = append(child.parents, link{to: parent, triple: t})
-	}
-	for _, t := range triples {
-		if !resource(t.S) {
-			continue
-		}
-		switch t.P.Value {
-		case rdf.RDFType:
-			s := g.get(t.S)
-			s.types = append(s.types, t.O.Value)
-			switch t.O.Value {
-			case Concept:
-				s.isConcept = true
-			case ConceptScheme:
-				schemes[t.S.Value] = true
-			}
-		case prefLabel, altLabel, definition, notation, editorialNote:
-			if t.O.Kind != rdf.Literal {
-				continue
-			}
-			s := g.get(t.S)
-			switch t.P.Value {
-			case prefLabel:
-				s.pref = append(s.pref, t.O)
-			case altLabel:
-				s.alt = append(s.alt, t.O)
-			case definition:
-				s.def = append(s.def, t.O)
-			case notation:
-				s.notations = append(s.notations, t.O.Value)
-			case editorialNote:
-				if t.O.Value == ProvisionalNote {
-					s.provisonal = true
-				}
-			}
-		case broader, narrower:
-			if !resource(t.O) {
-				continue
-			}
-			s, o := g.get(t.S), g.get(t.O)
-			s.isConcept, o.isConcept = true, true
-			if t.P.Value == broader {
-				addParent(s, o, t)
-			} else {
-				addParent(o, s, t)
-			}
-		case topConceptOf, inScheme:
-			if resource(t.O) {
-				s := g.get(t.S)
-				s.isConcept = s.isConcept || t.P.Value == topConceptOf
-				s.schemes[t.O.Value] = true
-				schemes[t.O.Value] = true
-			}
-		case hasTopConcept:
-			if resource(t.O) {
-				o := g.get(t.O)
-				o.isConcept = true
-				o.schemes[t.S.Value] = true
-				schemes[t.S.Value] = true
-			}
-		}
-	}
+	g, schemes, ds := readGraph(triples)
 	if len(ds) > 0 {
 		return nil, ds
 	}
 	concepts := conceptsOf(g, opt.Scheme)
-	if opt.Scheme != "" && !schemes[opt.Scheme] {
-		return nil, format.Diags{{Pos: format.Pos{File: file, Line: 1, Col: 1}, Msg: fmt.Sprintf("--scheme %s: the file has no such concept scheme%s", opt.Scheme, schemeList(schemes))}}
+	if err := checkConcepts(file, concepts, schemes, opt.Scheme); err != nil {
+		return nil, err
 	}
-	if opt.Scheme == "" && len(schemes) > 1 {
-		return nil, format.Diags{{Pos: format.Pos{File: file, Line: 1, Col: 1}, Msg: fmt.Sprintf("the file holds %d concept schemes%s; choose one with --scheme IRI", len(schemes), schemeList(schemes))}}
-	}
-	if len(concepts) == 0 {
-		return nil, format.Diags{{Pos: format.Pos{File: file, Line: 1, Col: 1}, Msg: "no SKOS concepts (skos:Concept, or skos:broader/narrower links) in the file; there is nothing to import"}}
-	}
-	if len(concepts) > format.MaxItems {
-		return nil, format.Diags{{Pos: format.Pos{File: file, Line: 1, Col: 1}, Msg: fmt.Sprintf("%d concepts; the limit is %d", len(concepts), format.MaxItems)}}
-	}
-	in := map[*node]bool{}
-	for _, n := range concepts {
-		in[n] = true
-	}
-
-	// One broader concept each: a tree.
-	for _, n := range concepts {
-		var ps []link
-		for _, l := range n.parents {
-			if in[l.to] {
-				ps = append(ps, l)
-			}
-		}
-		slices.SortStableFunc(ps, func(a, b link) int { return tripleOrder(a.triple, b.triple) })
-		if len(ps) > 1 {
-			if !opt.FirstBroader {
-				for _, extra := range ps[1:] {
-					ds.Add(extra.triple.Pos, "%sconcept %s has a second broader concept, %s; the first, %s, is stated at %s. A taxonomy is a tree: remove one of the two statements, or pass --first-broader to keep the first and drop the rest",
-						quoteIfNoLine(extra.triple), show(n.term), show(extra.to.term), show(ps[0].to.term), ps[0].triple.Where())
-				}
-				continue
-			}
-			for _, extra := range ps[1:] {
-				notices = append(notices, fmt.Sprintf("%s: dropped the broader concept %s of %s (kept %s, stated first at %s)",
-					extra.triple.Where(), show(extra.to.term), show(n.term), show(ps[0].to.term), ps[0].triple.Where()))
-			}
-			ps = ps[:1]
-		}
-		n.parents = ps
-	}
+	notices := oneBroaderEach(concepts, opt.FirstBroader, &ds)
 	if len(ds) > 0 {
 		ds.Sort()
 		return nil, ds
@@ -285,6 +172,148 @@ func Read(file string, triples []rdf.Triple, opt Options) (*Result, error) {
 	}
 	b.notices = append(notices, b.notices...)
 	return &Result{Root: root, Items: b.items, Lang: lang, Notices: b.notices}, nil
+}
+
+// readGraph collects what the triples say of each resource: its types,
+// labels, notes, broader links and schemes. It returns the graph, the
+// concept schemes named anywhere, and the problems (a concept broader than
+// itself).
+func readGraph(triples []rdf.Triple) (*graph, map[string]bool, format.Diags) {
+	g := &graph{nodes: map[rdf.Term]*node{}}
+	var ds format.Diags
+	schemes := map[string]bool{}
+	for _, t := range triples {
+		if !resource(t.S) {
+			continue
+		}
+		switch t.P.Value {
+		case rdf.RDFType:
+			s := g.get(t.S)
+			s.types = append(s.types, t.O.Value)
+			switch t.O.Value {
+			case Concept:
+				s.isConcept = true
+			case ConceptScheme:
+				schemes[t.S.Value] = true
+			}
+		case prefLabel, altLabel, definition, notation, editorialNote:
+			if t.O.Kind != rdf.Literal {
+				continue
+			}
+			s := g.get(t.S)
+			switch t.P.Value {
+			case prefLabel:
+				s.pref = append(s.pref, t.O)
+			case altLabel:
+				s.alt = append(s.alt, t.O)
+			case definition:
+				s.def = append(s.def, t.O)
+			case notation:
+				s.notations = append(s.notations, t.O.Value)
+			case editorialNote:
+				if t.O.Value == ProvisionalNote {
+					s.provisonal = true
+				}
+			}
+		case broader, narrower:
+			if !resource(t.O) {
+				continue
+			}
+			s, o := g.get(t.S), g.get(t.O)
+			s.isConcept, o.isConcept = true, true
+			if t.P.Value == broader {
+				addParent(s, o, t, &ds)
+			} else {
+				addParent(o, s, t, &ds)
+			}
+		case topConceptOf, inScheme:
+			if resource(t.O) {
+				s := g.get(t.S)
+				s.isConcept = s.isConcept || t.P.Value == topConceptOf
+				s.schemes[t.O.Value] = true
+				schemes[t.O.Value] = true
+			}
+		case hasTopConcept:
+			if resource(t.O) {
+				o := g.get(t.O)
+				o.isConcept = true
+				o.schemes[t.S.Value] = true
+				schemes[t.S.Value] = true
+			}
+		}
+	}
+	return g, schemes, ds
+}
+
+// addParent records that triple t makes parent broader than child, once.
+func addParent(child, parent *node, t rdf.Triple, ds *format.Diags) {
+	if child == parent {
+		ds.Add(t.Pos, "%sconcept %s is broader than itself", quoteIfNoLine(t), show(child.term))
+		return
+	}
+	for _, l := range child.parents {
+		if l.to == parent {
+			return
+		}
+	}
+	child.parents = append(child.parents, link{to: parent, triple: t})
+}
+
+// checkConcepts says why the concepts of the file (of scheme, when it is
+// given) cannot be imported: no such scheme, several schemes and none
+// chosen, no concepts, or too many.
+func checkConcepts(file string, concepts []*node, schemes map[string]bool, scheme string) error {
+	at := format.Pos{File: file, Line: 1, Col: 1}
+	if scheme != "" && !schemes[scheme] {
+		return format.Diags{{Pos: at, Msg: fmt.Sprintf("--scheme %s: the file has no such concept scheme%s", scheme, schemeList(schemes))}}
+	}
+	if scheme == "" && len(schemes) > 1 {
+		return format.Diags{{Pos: at, Msg: fmt.Sprintf("the file holds %d concept schemes%s; choose one with --scheme IRI", len(schemes), schemeList(schemes))}}
+	}
+	if len(concepts) == 0 {
+		return format.Diags{{Pos: at, Msg: "no SKOS concepts (skos:Concept, or skos:broader/narrower links) in the file; there is nothing to import"}}
+	}
+	if len(concepts) > format.MaxItems {
+		return format.Diags{{Pos: at, Msg: fmt.Sprintf("%d concepts; the limit is %d", len(concepts), format.MaxItems)}}
+	}
+	return nil
+}
+
+// oneBroaderEach leaves each concept at most one broader concept among
+// concepts, so that they form a tree: a second one is a problem, or with
+// firstBroader it is dropped (the first stated is kept) with a notice,
+// which it returns.
+func oneBroaderEach(concepts []*node, firstBroader bool, ds *format.Diags) []string {
+	in := map[*node]bool{}
+	for _, n := range concepts {
+		in[n] = true
+	}
+	var notices []string
+	for _, n := range concepts {
+		var ps []link
+		for _, l := range n.parents {
+			if in[l.to] {
+				ps = append(ps, l)
+			}
+		}
+		slices.SortStableFunc(ps, func(a, b link) int { return tripleOrder(a.triple, b.triple) })
+		if len(ps) > 1 {
+			if !firstBroader {
+				for _, extra := range ps[1:] {
+					ds.Add(extra.triple.Pos, "%sconcept %s has a second broader concept, %s; the first, %s, is stated at %s. A taxonomy is a tree: remove one of the two statements, or pass --first-broader to keep the first and drop the rest",
+						quoteIfNoLine(extra.triple), show(n.term), show(extra.to.term), show(ps[0].to.term), ps[0].triple.Where())
+				}
+				continue
+			}
+			for _, extra := range ps[1:] {
+				notices = append(notices, fmt.Sprintf("%s: dropped the broader concept %s of %s (kept %s, stated first at %s)",
+					extra.triple.Where(), show(extra.to.term), show(n.term), show(ps[0].to.term), ps[0].triple.Where()))
+			}
+			ps = ps[:1]
+		}
+		n.parents = ps
+	}
+	return notices
 }
 
 // conceptsOf lists the concepts in order of first appearance, those of
