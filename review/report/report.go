@@ -146,8 +146,6 @@ const weakestShown = 20
 func Build(in Input) *Page {
 	pg := &Page{Title: in.Title, Base: in.Base, Note: in.BaseNote, Structure: in.Structure}
 	pg.Support = SupportInfo{Computed: in.Support != nil, Trees: in.Trees}
-	tagIndex := map[string]int{}
-	catOf := map[*format.Category]int{}
 	catRecs := map[*format.Category][]int{}
 	if in.Records != nil {
 		catRecs = in.Records.ForCategories(in.Root)
@@ -155,8 +153,27 @@ func Build(in Input) *Page {
 			pg.Recs = append(pg.Recs, Rec{r.Kind, binding.Where(&r), r.By, r.Date, r.Note, r.Summary()})
 		}
 	}
+	itemOf, catOf := pg.addCategories(in, catRecs)
+	pg.sumSizes()
+	if in.Support != nil {
+		pg.listWeakest()
+	}
+	if in.Changes != nil {
+		pg.Changes = markChanges(pg, in.Changes, itemOf, in.Root, catOf)
+	}
+	pg.Review = Review{Open: in.Open, Audits: in.Audits, Gate: in.Gate}
+	if a := in.Audits; a != nil {
+		pg.Review.GatePassed = a.Audits >= in.Gate.MinAudits && a.Hi <= in.Gate.MaxRejectRate
+	}
+	return pg
+}
+
+// addCategories adds the categories in walk order with explicit parents,
+// and their items, and returns the index of each item and category.
+func (pg *Page) addCategories(in Input, catRecs map[*format.Category][]int) (map[string]int, map[*format.Category]int) {
+	tagIndex := map[string]int{}
+	catOf := map[*format.Category]int{}
 	itemOf := make(map[string]int, len(in.Items))
-	// Categories in walk order with explicit parents.
 	type frame struct {
 		c      *format.Category
 		parent int
@@ -174,26 +191,8 @@ func Build(in Input) *Page {
 			}
 		}
 		for _, id := range f.c.Items {
-			ii := len(pg.Items)
+			ii := pg.addItem(in, id, ci, tagIndex)
 			itemOf[id] = ii
-			it := Item{ID: id, Cat: ci}
-			if k, ok := in.Index[id]; ok {
-				src := in.Items[k]
-				it.Label, it.Text = src.Label, src.Text
-				for _, t := range src.Tags {
-					ti, ok := tagIndex[t]
-					if !ok {
-						ti = len(pg.Tags)
-						tagIndex[t] = ti
-						pg.Tags = append(pg.Tags, t)
-					}
-					it.Tags = append(it.Tags, ti)
-				}
-			}
-			if in.Records != nil {
-				it.Records = in.Records.ForItem(id)
-			}
-			pg.Items = append(pg.Items, it)
 			cat.Items = append(cat.Items, ii)
 		}
 		if f.parent >= 0 {
@@ -204,33 +203,58 @@ func Build(in Input) *Page {
 			stack = append(stack, frame{f.c.Children[i], ci})
 		}
 	}
-	// Sizes bottom-up: a category comes after its parent, so walking
-	// backwards adds every category to its parent once it is complete.
+	return itemOf, catOf
+}
+
+// addItem adds item id of category ci, with its label, text, tags (as
+// indices into pg.Tags, which tagIndex numbers in order of first use) and
+// records, and returns its index.
+func (pg *Page) addItem(in Input, id string, ci int, tagIndex map[string]int) int {
+	it := Item{ID: id, Cat: ci}
+	if k, ok := in.Index[id]; ok {
+		src := in.Items[k]
+		it.Label, it.Text = src.Label, src.Text
+		for _, t := range src.Tags {
+			ti, ok := tagIndex[t]
+			if !ok {
+				ti = len(pg.Tags)
+				tagIndex[t] = ti
+				pg.Tags = append(pg.Tags, t)
+			}
+			it.Tags = append(it.Tags, ti)
+		}
+	}
+	if in.Records != nil {
+		it.Records = in.Records.ForItem(id)
+	}
+	pg.Items = append(pg.Items, it)
+	return len(pg.Items) - 1
+}
+
+// sumSizes counts the items under each category, bottom-up: a category
+// comes after its parent, so walking backwards adds every category to its
+// parent once it is complete.
+func (pg *Page) sumSizes() {
 	for ci := len(pg.Cats) - 1; ci >= 0; ci-- {
 		pg.Cats[ci].Size += len(pg.Cats[ci].Items)
 		if p := pg.Cats[ci].Parent; p >= 0 {
 			pg.Cats[p].Size += pg.Cats[ci].Size
 		}
 	}
-	if in.Support != nil {
-		for ci := 1; ci < len(pg.Cats); ci++ {
-			if pg.Cats[ci].Support >= 0 {
-				pg.Weakest = append(pg.Weakest, ci)
-			}
+}
+
+// listWeakest lists the least supported categories (root excluded), at
+// most weakestShown, weakest first.
+func (pg *Page) listWeakest() {
+	for ci := 1; ci < len(pg.Cats); ci++ {
+		if pg.Cats[ci].Support >= 0 {
+			pg.Weakest = append(pg.Weakest, ci)
 		}
-		sort.SliceStable(pg.Weakest, func(i, j int) bool {
-			return pg.Cats[pg.Weakest[i]].Support < pg.Cats[pg.Weakest[j]].Support
-		})
-		pg.Weakest = pg.Weakest[:min(weakestShown, len(pg.Weakest))]
 	}
-	if in.Changes != nil {
-		pg.Changes = markChanges(pg, in.Changes, itemOf, in.Root, catOf)
-	}
-	pg.Review = Review{Open: in.Open, Audits: in.Audits, Gate: in.Gate}
-	if a := in.Audits; a != nil {
-		pg.Review.GatePassed = a.Audits >= in.Gate.MinAudits && a.Hi <= in.Gate.MaxRejectRate
-	}
-	return pg
+	sort.SliceStable(pg.Weakest, func(i, j int) bool {
+		return pg.Cats[pg.Weakest[i]].Support < pg.Cats[pg.Weakest[j]].Support
+	})
+	pg.Weakest = pg.Weakest[:min(weakestShown, len(pg.Weakest))]
 }
 
 // markChanges puts the diff's facts on the items and categories of the
