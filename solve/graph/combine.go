@@ -16,57 +16,77 @@ import (
 // weights by one factor (e.g. making them sum to 1) scales the Dasgupta
 // cost of every tree alike and so does not change which tree is best.
 func Combine(parts []*CSR, weights []float64) (*CSR, error) {
-	if len(parts) == 0 {
-		return nil, fmt.Errorf("combine: no graphs")
+	n, err := checkParts(parts, weights)
+	if err != nil {
+		return nil, err
 	}
-	if len(weights) != len(parts) {
-		return nil, fmt.Errorf("combine: %d graphs but %d weights", len(parts), len(weights))
-	}
-	n := -1
-	for p, g := range parts {
-		if g == nil {
-			return nil, fmt.Errorf("combine: graph %d is missing", p)
-		}
-		if n >= 0 && g.N != n {
-			return nil, fmt.Errorf("combine: graph %d has %d items, graph 0 has %d", p, g.N, n)
-		}
-		n = g.N
-		if w := weights[p]; math.IsNaN(w) || math.IsInf(w, 0) || w < 0 {
-			return nil, fmt.Errorf("combine: weight %d must be finite and >= 0, got %v", p, w)
-		}
-	}
-
 	scale := make([]float64, len(parts))
 	for p, g := range parts {
 		if med := MedianWeight(g); med > 0 {
 			scale[p] = weights[p] / med
 		}
 	}
-
 	room := 0
 	for _, g := range parts {
 		room += len(g.Targets)
 	}
 	out := &CSR{N: n, Offsets: make([]int64, n+1), Targets: make([]int32, 0, room), Weights: make([]float64, 0, room)}
 	if len(parts) == 1 {
-		// One source: its graph rescaled, with the weights the merge
-		// below would sum (0 + x is x).
-		g, sc := parts[0], scale[0]
-		if sc > 0 {
-			for i := 0; i < n; i++ {
-				for e := g.Offsets[i]; e < g.Offsets[i+1]; e++ {
-					if w := float64(sc * g.Weights[e]); w > 0 {
-						out.Targets = append(out.Targets, g.Targets[e])
-						out.Weights = append(out.Weights, w)
-					}
-				}
-				out.Offsets[i+1] = int64(len(out.Targets))
-			}
-		}
+		appendRescaled(out, parts[0], scale[0])
 		return out, nil
 	}
+	appendMerged(out, parts, scale)
+	return out, nil
+}
+
+// checkParts says what is wrong with the parts and weights Combine was
+// given, or returns the parts' item count.
+func checkParts(parts []*CSR, weights []float64) (int, error) {
+	if len(parts) == 0 {
+		return 0, fmt.Errorf("combine: no graphs")
+	}
+	if len(weights) != len(parts) {
+		return 0, fmt.Errorf("combine: %d graphs but %d weights", len(parts), len(weights))
+	}
+	n := -1
+	for p, g := range parts {
+		if g == nil {
+			return 0, fmt.Errorf("combine: graph %d is missing", p)
+		}
+		if n >= 0 && g.N != n {
+			return 0, fmt.Errorf("combine: graph %d has %d items, graph 0 has %d", p, g.N, n)
+		}
+		n = g.N
+		if w := weights[p]; math.IsNaN(w) || math.IsInf(w, 0) || w < 0 {
+			return 0, fmt.Errorf("combine: weight %d must be finite and >= 0, got %v", p, w)
+		}
+	}
+	return n, nil
+}
+
+// appendRescaled fills out, which has no edges yet, with one source: its
+// graph scaled by sc, with the weights the merge would sum (0 + x is x).
+func appendRescaled(out, g *CSR, sc float64) {
+	if sc <= 0 {
+		return
+	}
+	for i := 0; i < out.N; i++ {
+		for e := g.Offsets[i]; e < g.Offsets[i+1]; e++ {
+			if w := float64(sc * g.Weights[e]); w > 0 {
+				out.Targets = append(out.Targets, g.Targets[e])
+				out.Weights = append(out.Weights, w)
+			}
+		}
+		out.Offsets[i+1] = int64(len(out.Targets))
+	}
+}
+
+// appendMerged fills out, which has no edges yet, with the sum of the
+// scaled parts, row by row: each row merges the parts' sorted rows,
+// summing an edge's weights in part order.
+func appendMerged(out *CSR, parts []*CSR, scale []float64) {
 	heads := make([]int64, len(parts))
-	for i := 0; i < n; i++ {
+	for i := 0; i < out.N; i++ {
 		for p, g := range parts {
 			heads[p] = g.Offsets[i]
 		}
@@ -97,7 +117,6 @@ func Combine(parts []*CSR, weights []float64) (*CSR, error) {
 		}
 		out.Offsets[i+1] = int64(len(out.Targets))
 	}
-	return out, nil
 }
 
 // MedianWeight is the median of g's positive edge weights, each undirected
