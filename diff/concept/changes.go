@@ -1,6 +1,7 @@
 package concept
 
 import (
+	"cmp"
 	"slices"
 
 	"github.com/ramify-tax/ramify/diff"
@@ -52,36 +53,52 @@ func Compare(old, new *format.Category) Changes {
 	oldIDs, newIDs := idsByPath(old), idsByPath(new)
 	rep := diff.Compare(old, new)
 	ch := Changes{Added: []string{}, Retired: []Retired{}, Split: []Split{}, Merged: []Merge{}}
-
-	have := map[string]bool{}
-	for _, e := range newIDs {
-		have[e.id] = true
-	}
-	had := map[string]bool{}
-	for _, e := range oldIDs {
-		had[e.id] = true
-	}
+	had := idSet(oldIDs)
 	for _, e := range newIDs {
 		if e.id != "" && !had[e.id] {
 			ch.Added = append(ch.Added, e.id)
 		}
 	}
+	mergedInto := ch.addMerges(rep.Merged, oldIDs, newIDs)
+	splitInto := ch.addSplits(rep.Split, oldIDs, newIDs)
+	ch.addRetired(oldIDs, idSet(newIDs), mergedInto, splitInto, newHolder(new))
+	slices.Sort(ch.Added)
+	slices.SortFunc(ch.Retired, func(a, b Retired) int { return cmp.Compare(a.ID, b.ID) })
+	slices.SortFunc(ch.Split, func(a, b Split) int { return cmp.Compare(a.ID, b.ID) })
+	slices.SortFunc(ch.Merged, func(a, b Merge) int { return cmp.Compare(a.ID, b.ID) })
+	return ch
+}
 
-	look := func(m map[string]entry, p diff.Path) entry { return m[pathKey(p)] }
-	// idsAt lists, sorted, the identifiers that m gives the paths.
-	idsAt := func(m map[string]entry, paths []diff.Path) []string {
-		var ids []string
-		for _, p := range paths {
-			if e := look(m, p); e.id != "" {
-				ids = append(ids, e.id)
-			}
-		}
-		slices.Sort(ids)
-		return ids
+// idSet is the set of identifiers m gives.
+func idSet(m map[string]entry) map[string]bool {
+	set := map[string]bool{}
+	for _, e := range m {
+		set[e.id] = true
 	}
+	return set
+}
+
+// lookPath is m's entry for path p.
+func lookPath(m map[string]entry, p diff.Path) entry { return m[pathKey(p)] }
+
+// idsAt lists, sorted, the identifiers that m gives the paths.
+func idsAt(m map[string]entry, paths []diff.Path) []string {
+	var ids []string
+	for _, p := range paths {
+		if e := lookPath(m, p); e.id != "" {
+			ids = append(ids, e.id)
+		}
+	}
+	slices.Sort(ids)
+	return ids
+}
+
+// addMerges records the merges whose result and parts carry identifiers,
+// and returns which new identifier each merged old one went into.
+func (ch *Changes) addMerges(merged []diff.Merge, oldIDs, newIDs map[string]entry) map[string]string {
 	mergedInto := map[string]string{}
-	for _, m := range rep.Merged {
-		into := look(newIDs, m.Into)
+	for _, m := range merged {
+		into := lookPath(newIDs, m.Into)
 		from := idsAt(oldIDs, m.From)
 		for _, id := range from {
 			mergedInto[id] = into.id
@@ -90,16 +107,28 @@ func Compare(old, new *format.Category) Changes {
 			ch.Merged = append(ch.Merged, Merge{ID: into.id, Name: into.name, From: from})
 		}
 	}
+	return mergedInto
+}
+
+// addSplits records the splits whose category and parts carry
+// identifiers, and returns the new identifiers each split old one went
+// into.
+func (ch *Changes) addSplits(split []diff.Split, oldIDs, newIDs map[string]entry) map[string][]string {
 	splitInto := map[string][]string{}
-	for _, s := range rep.Split {
-		from := look(oldIDs, s.From)
+	for _, s := range split {
+		from := lookPath(oldIDs, s.From)
 		if into := idsAt(newIDs, s.Into); from.id != "" && len(into) > 0 {
 			splitInto[from.id] = into
 			ch.Split = append(ch.Split, Split{ID: from.id, Name: from.name, Into: into})
 		}
 	}
+	return splitInto
+}
 
-	newTree := newHolder(new)
+// addRetired records the old identifiers the new tree no longer has, each
+// with its successors: what it was merged into, what it was split into,
+// or else the categories of the new tree that now hold its items.
+func (ch *Changes) addRetired(oldIDs map[string]entry, have map[string]bool, mergedInto map[string]string, splitInto map[string][]string, newTree *holder) {
 	for _, e := range oldIDs {
 		if e.id == "" || have[e.id] {
 			continue
@@ -115,20 +144,6 @@ func Compare(old, new *format.Category) Changes {
 		}
 		ch.Retired = append(ch.Retired, r)
 	}
-	sortBy := func(a, b string) int {
-		if a < b {
-			return -1
-		}
-		if a > b {
-			return 1
-		}
-		return 0
-	}
-	slices.Sort(ch.Added)
-	slices.SortFunc(ch.Retired, func(a, b Retired) int { return sortBy(a.ID, b.ID) })
-	slices.SortFunc(ch.Split, func(a, b Split) int { return sortBy(a.ID, b.ID) })
-	slices.SortFunc(ch.Merged, func(a, b Merge) int { return sortBy(a.ID, b.ID) })
-	return ch
 }
 
 // entry is a category's identifier and display path, by path.
