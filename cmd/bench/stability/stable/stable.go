@@ -76,98 +76,139 @@ const (
 // drawn from a stream seeded by the kind, so a run repeats exactly.
 func Measure(run Runner, dir, kind string, trials int) (Result, error) {
 	res := Result{Kind: kind}
-	outlinePath := filepath.Join(dir, "taxonomy.outline")
-	constraints := filepath.Join(dir, "constraints")
-	if err := os.MkdirAll(constraints, 0o755); err != nil {
-		return res, err
-	}
-	base, o, err := readOutline(outlinePath)
+	repo, root, err := openTrialRepo(run, dir)
 	if err != nil {
 		return res, err
 	}
-	b := newBaseTree(o.Root)
-	before, err := listDir(constraints)
-	if err != nil {
-		return res, err
-	}
-	restore := func() error {
-		now, err := listDir(constraints)
-		if err != nil {
-			return err
-		}
-		for _, name := range now {
-			if !slices.Contains(before, name) {
-				if err := os.Remove(filepath.Join(constraints, name)); err != nil {
-					return err
-				}
-			}
-		}
-		return os.WriteFile(outlinePath, base, 0o644)
-	}
+	b := newBaseTree(root)
 	rng := rand.New(rand.NewPCG(1, uint64(len(kind))))
 	for range trials {
-		d, ok := b.draw(rng, kind, base)
+		d, ok := b.draw(rng, kind, repo.base)
 		if !ok {
 			continue
 		}
-		if d.record != "" {
-			rec := d.record + "by = \"bench\"\ndate = 2026-12-02\nnote = \"stability benchmark\"\n"
-			if err := os.WriteFile(filepath.Join(constraints, recordFile), []byte(rec), 0o644); err != nil {
-				return res, err
-			}
-		}
-		if d.outline != nil {
-			if err := os.WriteFile(outlinePath, d.outline, 0o644); err != nil {
-				return res, err
-			}
-			// absorb compares the edit with the tree ramify wrote; outside
-			// git it is told where a copy of that tree is.
-			basePath := filepath.Join(dir, baseCopy)
-			if err := os.WriteFile(basePath, base, 0o644); err != nil {
-				return res, err
-			}
-			out, err := run("absorb", "--dir", dir, "--quiet", "--base", baseCopy, "--by", "bench")
-			os.Remove(basePath)
-			if contradicts(out, err) {
-				if err := restore(); err != nil {
-					return res, err
-				}
-				continue
-			}
-			if err != nil {
-				return res, err
-			}
-			// The move is recorded as a few records naming other items
-			// as anchors: the decision names those too.
-			anchors, err := newRecordItems(constraints, before)
-			if err != nil {
-				return res, err
-			}
-			d.named = append(d.named, anchors...)
-			slices.Sort(d.named)
-			d.named = slices.Compact(d.named)
-		}
-		if out, err := run("solve", "--dir", dir, "--quiet"); contradicts(out, err) {
-			if err := restore(); err != nil {
-				return res, err
-			}
-			continue
-		} else if err != nil {
-			return res, err
-		}
-		_, o2, err := readOutline(outlinePath)
+		after, done, err := repo.trial(&d)
 		if err != nil {
 			return res, err
 		}
-		share, dissolved := b.moved(o2.Root, d.named)
+		if !done {
+			continue
+		}
+		share, dissolved := b.moved(after, d.named)
 		res.Shares = append(res.Shares, share)
 		res.Dissolved += dissolved
-		if err := restore(); err != nil {
+		if err := repo.restore(); err != nil {
 			return res, err
 		}
 	}
 	slices.Sort(res.Shares)
 	return res, nil
+}
+
+// trialRepo is the repository Measure works in: the solved outline as it
+// was (base) and the files under constraints/ before any trial.
+type trialRepo struct {
+	run         Runner
+	dir         string
+	outlinePath string
+	constraints string
+	base        []byte
+	before      []string
+}
+
+// openTrialRepo reads the solved repository in dir and returns it with
+// the root of its outline.
+func openTrialRepo(run Runner, dir string) (*trialRepo, *format.Category, error) {
+	r := &trialRepo{run: run, dir: dir, outlinePath: filepath.Join(dir, "taxonomy.outline"), constraints: filepath.Join(dir, "constraints")}
+	if err := os.MkdirAll(r.constraints, 0o755); err != nil {
+		return nil, nil, err
+	}
+	base, o, err := readOutline(r.outlinePath)
+	if err != nil {
+		return nil, nil, err
+	}
+	r.base = base
+	if r.before, err = listDir(r.constraints); err != nil {
+		return nil, nil, err
+	}
+	return r, o.Root, nil
+}
+
+// restore puts the outline back as it was and removes the files a trial
+// added under constraints/.
+func (r *trialRepo) restore() error {
+	now, err := listDir(r.constraints)
+	if err != nil {
+		return err
+	}
+	for _, name := range now {
+		if !slices.Contains(r.before, name) {
+			if err := os.Remove(filepath.Join(r.constraints, name)); err != nil {
+				return err
+			}
+		}
+	}
+	return os.WriteFile(r.outlinePath, r.base, 0o644)
+}
+
+// trial adds decision d (a record, or a hand edit that absorb records),
+// solves, and returns the new outline's root. It reports false, with the
+// repository restored, when the decision contradicts the repository's own
+// records.
+func (r *trialRepo) trial(d *decision) (*format.Category, bool, error) {
+	if d.record != "" {
+		rec := d.record + "by = \"bench\"\ndate = 2026-12-02\nnote = \"stability benchmark\"\n"
+		if err := os.WriteFile(filepath.Join(r.constraints, recordFile), []byte(rec), 0o644); err != nil {
+			return nil, false, err
+		}
+	}
+	if d.outline != nil {
+		if ok, err := r.absorbEdit(d); !ok || err != nil {
+			return nil, false, err
+		}
+	}
+	if out, err := r.run("solve", "--dir", r.dir, "--quiet"); contradicts(out, err) {
+		return nil, false, r.restore()
+	} else if err != nil {
+		return nil, false, err
+	}
+	_, o2, err := readOutline(r.outlinePath)
+	if err != nil {
+		return nil, false, err
+	}
+	return o2.Root, true, nil
+}
+
+// absorbEdit writes d's edited outline and has absorb record it; the
+// records it writes name other items as anchors, which d then names too.
+// It reports false, with the repository restored, when the edit
+// contradicts the repository's own records.
+func (r *trialRepo) absorbEdit(d *decision) (bool, error) {
+	if err := os.WriteFile(r.outlinePath, d.outline, 0o644); err != nil {
+		return false, err
+	}
+	// absorb compares the edit with the tree ramify wrote; outside git it
+	// is told where a copy of that tree is.
+	basePath := filepath.Join(r.dir, baseCopy)
+	if err := os.WriteFile(basePath, r.base, 0o644); err != nil {
+		return false, err
+	}
+	out, err := r.run("absorb", "--dir", r.dir, "--quiet", "--base", baseCopy, "--by", "bench")
+	os.Remove(basePath)
+	if contradicts(out, err) {
+		return false, r.restore()
+	}
+	if err != nil {
+		return false, err
+	}
+	anchors, err := newRecordItems(r.constraints, r.before)
+	if err != nil {
+		return false, err
+	}
+	d.named = append(d.named, anchors...)
+	slices.Sort(d.named)
+	d.named = slices.Compact(d.named)
+	return true, nil
 }
 
 func readOutline(path string) ([]byte, *format.Outline, error) {
