@@ -171,10 +171,13 @@ func (sp *spectralWork) fiedler(g *graph.CSR, deg, b []float64, ids []int32, see
 	}
 	var lambda float64
 	var y []float64
-	sp.lanczos(g, deg, b, ids, seed, min(fiedlerMaxSteps, n-1), func(theta float64, v []float64, residual float64) bool {
+	err := sp.lanczos(g, deg, b, ids, seed, min(fiedlerMaxSteps, n-1), func(theta float64, v []float64, residual float64) bool {
 		lambda, y = theta, v
 		return residual <= 1e-11*math.Max(1, math.Abs(theta))
 	})
+	if err != nil {
+		panic(err) // test code: a failure fails the test
+	}
 	return lambda, sp.toX(y)
 }
 

@@ -8,6 +8,7 @@ import (
 
 	"gonum.org/v1/gonum/blas"
 	"gonum.org/v1/gonum/blas/blas64"
+	gonumlapack "gonum.org/v1/gonum/lapack/gonum"
 	"gonum.org/v1/gonum/lapack/lapack64"
 	"gonum.org/v1/gonum/mat"
 
@@ -108,7 +109,7 @@ func (sp *spectralWork) toX(y []float64) []float64 {
 // proof of Cheeger's inequality for graphs; see F. Chung, Spectral Graph
 // Theory, AMS 1997). side[i] = 0
 // marks the chosen prefix. The error is errNoConvergence's, from the dense
-// eigensolver.
+// or the tridiagonal eigensolver.
 func (sp *spectralWork) sparsestCut(g *graph.CSR, deg, b, mass []float64, ids []int32, seed uint64, sw *sweepWork, side []int8) error {
 	n := g.N
 	sp.setMeasure(b)
@@ -120,11 +121,14 @@ func (sp *spectralWork) sparsestCut(g *graph.CSR, deg, b, mass []float64, ids []
 		}
 	} else {
 		lastTheta := math.Inf(1)
-		sp.lanczos(g, deg, b, ids, seed, min(cutMaxSteps, n-1), func(theta float64, _ []float64, residual float64) bool {
+		err := sp.lanczos(g, deg, b, ids, seed, min(cutMaxSteps, n-1), func(theta float64, _ []float64, residual float64) bool {
 			stop := lastTheta-theta <= cutStallTol*math.Abs(theta) || residual <= 1e-11
 			lastTheta = theta
 			return stop
 		})
+		if err != nil {
+			return err
+		}
 		y = sp.y
 	}
 	order, k, _ := sw.sweep(g, sp.toX(y), mass, ids)
@@ -324,7 +328,7 @@ func (sp *spectralWork) subtract(w, h []float64, lo, hi int) {
 // after it and at the last step it hands the smallest Ritz pair (y of unit
 // norm, owned by sp) and its residual norm to check, and stops when check
 // returns true.
-func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, seed uint64, maxSteps int, check func(theta float64, y []float64, residual float64) bool) {
+func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, seed uint64, maxSteps int, check func(theta float64, y []float64, residual float64) bool) error {
 	n := g.N
 	sp.stride = maxSteps + 1
 	sp.basis = grow(sp.basis, n*sp.stride)
@@ -383,8 +387,10 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 		if !due && !last {
 			continue
 		}
-		theta := tridiagSmallest(sp.alpha, sp.beta[:steps-1])
-		coef := tridiagVector(sp.alpha, sp.beta[:steps-1], theta)
+		theta, coef, err := tridiagSmallest(sp.alpha, sp.beta[:steps-1])
+		if err != nil {
+			return err
+		}
 		residual := 0.0
 		if !last {
 			residual = math.Abs(float64(beta * coef[steps-1]))
@@ -404,57 +410,29 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 			break
 		}
 	}
+	return nil
 }
 
-// tridiagSmallest returns the smallest eigenvalue of the symmetric
-// tridiagonal matrix with diagonal a and off-diagonal e, by bisection on
-// the Sturm count (the number of negative pivots of T − xI).
-func tridiagSmallest(a, e []float64) float64 { return tridiagKth(a, e, 1) }
-
-// tridiagKth returns the kth smallest eigenvalue (k ≥ 1) by bisection on
-// the Sturm count.
-func tridiagKth(a, e []float64, kth int) float64 {
-	k := len(a)
-	lo, hi := math.Inf(1), math.Inf(-1)
-	for i := 0; i < k; i++ {
-		r := 0.0
-		if i > 0 {
-			r += math.Abs(e[i-1])
-		}
-		if i < k-1 {
-			r += math.Abs(e[i])
-		}
-		lo = math.Min(lo, a[i]-r)
-		hi = math.Max(hi, a[i]+r)
+// tridiagSmallest returns the smallest eigenpair of the symmetric
+// tridiagonal matrix with diagonal a and off-diagonal e: the eigenvalue
+// by gonum's root-free QL/QR iteration (LAPACK's dsterf: Golub & Van
+// Loan, Matrix Computations, 4th ed., §8.3), its unit eigenvector by
+// inverse iteration (tridiagVector). The eigenvalues only cost O(k²)
+// where a full decomposition costs O(k³), which the many small cuts of a
+// solve would feel. The routines are pure Go with a fixed order of
+// operations, so the pair is the same on every run; the Ritz vector's
+// sign is fixed by the caller.
+func tridiagSmallest(a, e []float64) (float64, []float64, error) {
+	d := append([]float64(nil), a...)
+	off := append([]float64(nil), e...)
+	if !(gonumlapack.Implementation{}).Dsterf(len(d), d, off) {
+		// dsterf stops after 30k sweeps without convergence, which a
+		// symmetric tridiagonal matrix of finite entries is not known to
+		// reach (see errNoConvergence).
+		return 0, nil, errNoConvergence
 	}
-	scale := math.Max(math.Abs(lo), math.Abs(hi))
-	below := func(x float64) int {
-		cnt := 0
-		d := 1.0
-		for i := 0; i < k; i++ {
-			off := 0.0
-			if i > 0 {
-				off = float64(e[i-1]*e[i-1]) / d
-			}
-			d = a[i] - x - off
-			if d == 0 {
-				d = -1e-300
-			}
-			if d < 0 {
-				cnt++
-			}
-		}
-		return cnt
-	}
-	for it := 0; it < 200 && hi-lo > 1e-15*scale; it++ {
-		mid := lo + (hi-lo)/2
-		if below(mid) >= kth {
-			hi = mid
-		} else {
-			lo = mid
-		}
-	}
-	return lo + (hi-lo)/2
+	theta := d[0] // ascending
+	return theta, tridiagVector(a, e, theta), nil
 }
 
 // tridiagVector returns the unit eigenvector of the tridiagonal matrix
