@@ -1,6 +1,7 @@
 package match
 
 import (
+	"cmp"
 	"slices"
 	"strings"
 )
@@ -12,9 +13,94 @@ type Placed struct {
 	Cat int
 }
 
-// SortPlaced orders items by id, the order Common reads.
+// SortPlaced orders items by id, the order Common reads. Ids are
+// distinct, so any sort gives this order; this one sorts numbers where it
+// can. The ids of a tree often share a prefix ("item-"), and the eight
+// bytes after it, read as one big-endian number with short ids padded by
+// zero bytes, order two ids as the ids do unless the numbers are equal.
+// The numbers are sorted by radix, a byte a pass (LSD, stable), and only
+// runs of equal numbers are sorted by comparing the ids themselves: a
+// million ids sort in a small fraction of the time string comparisons take.
 func SortPlaced(items []Placed) {
-	slices.SortFunc(items, func(a, b Placed) int { return strings.Compare(a.ID, b.ID) })
+	if len(items) < 2 {
+		return
+	}
+	skip := len(items[0].ID)
+	for _, it := range items[1:] {
+		skip = min(skip, len(it.ID))
+		for skip > 0 && it.ID[:skip] != items[0].ID[:skip] {
+			skip--
+		}
+	}
+	keys := make([]keyedAt, len(items))
+	for i, it := range items {
+		keys[i] = keyedAt{prefixNumber(it.ID[skip:]), i}
+	}
+	radixSort(keys)
+	for lo := 0; lo < len(keys); {
+		hi := lo + 1
+		for hi < len(keys) && keys[hi].key == keys[lo].key {
+			hi++
+		}
+		if hi-lo > 1 {
+			slices.SortFunc(keys[lo:hi], func(a, b keyedAt) int {
+				return cmp.Or(strings.Compare(items[a.at].ID, items[b.at].ID), cmp.Compare(a.at, b.at))
+			})
+		}
+		lo = hi
+	}
+	sorted := make([]Placed, len(items))
+	for i, k := range keys {
+		sorted[i] = items[k.at]
+	}
+	copy(items, sorted)
+}
+
+// keyedAt is a sort key and the position of what it stands for.
+type keyedAt struct {
+	key uint64
+	at  int
+}
+
+// radixSort sorts keys by key, stably, a byte a pass from the lowest; a
+// byte that all keys share is skipped.
+func radixSort(keys []keyedAt) {
+	buf := make([]keyedAt, len(keys))
+	src, dst := keys, buf
+	for shift := 0; shift < 64; shift += 8 {
+		var count [257]int
+		for _, k := range src {
+			count[byte(k.key>>shift)+1]++
+		}
+		if count[byte(src[0].key>>shift)+1] == len(src) {
+			continue
+		}
+		for b := 1; b < 257; b++ {
+			count[b] += count[b-1]
+		}
+		for _, k := range src {
+			b := byte(k.key >> shift)
+			dst[count[b]] = k
+			count[b]++
+		}
+		src, dst = dst, src
+	}
+	if &src[0] != &keys[0] {
+		copy(keys, src)
+	}
+}
+
+// prefixNumber reads the first eight bytes of s as a big-endian number,
+// zero bytes standing in past its end.
+func prefixNumber(s string) uint64 {
+	var k uint64
+	for j := range 8 {
+		k <<= 8
+		if j < len(s) {
+			k |= uint64(s[j])
+		}
+	}
+	return k
 }
 
 // Shared is what two versions' item lists have in common: shared item i
