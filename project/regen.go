@@ -245,7 +245,8 @@ func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord, compil
 		return nil, "the previous outline was not written by ramify (imported or made by hand)"
 	}
 	known := 0
-	for _, id := range p.Outline.Root.AllItems() {
+	before := p.Outline.Root.AllItems()
+	for _, id := range before {
 		if _, ok := p.Index[id]; ok {
 			known++
 		}
@@ -253,7 +254,7 @@ func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord, compil
 	if known == 0 {
 		return nil, "no item of the previous outline is left"
 	}
-	gone := len(p.Outline.Root.AllItems()) - known
+	gone := len(before) - known
 	fresh := len(p.Items) - known
 	if float64(gone+fresh) > LocalShare*float64(len(p.Items)) {
 		return nil, fmt.Sprintf("%d of %d items are new or gone (over %d%%)", gone+fresh, len(p.Items), int(LocalShare*100))
