@@ -355,8 +355,11 @@ func (r *repairer) tryMove(h []int32, records []recordShape) (*mutableTree, floa
 	})
 	shapes := r.shapesAround(h, records)
 	gone := func(x int32) bool { return !r.t.placed(x) }
-	for _, x := range order {
-		cost, beside, placed := r.placeKeeping(x, shapes, gone)
+	for i, x := range order {
+		if i > 0 { // the item placed before changed the tree
+			ix = r.t.index(r.g, r.keys, r.c)
+		}
+		cost, beside, placed := r.placeKeeping(x, ix, shapes, gone)
 		if !placed {
 			return nil, 0, 0, false
 		}
@@ -395,10 +398,9 @@ func (r *repairer) shapesAround(h []int32, records []recordShape) []recordShape 
 // placeKeeping attaches item x at its cheapest allowed place that keeps
 // every shape (places in existing categories before new ones beside a
 // node) and returns that place's cost and whether it made a category, or
-// false when no place keeps them.
-func (r *repairer) placeKeeping(x int32, shapes []recordShape, gone func(int32) bool) (float64, bool, bool) {
+// false when no place keeps them. ix indexes the tree as it is.
+func (r *repairer) placeKeeping(x int32, ix *treeIndex, shapes []recordShape, gone func(int32) bool) (float64, bool, bool) {
 	u := unit{items: []int32{x}, root: x}
-	ix := r.t.index(r.g, r.keys, r.c)
 	type scored struct {
 		s    spot
 		cost float64
