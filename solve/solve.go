@@ -203,10 +203,3 @@ func Satisfies(t *Tree, c *Constraints) []int {
 type layout = hier.LCAIndex
 
 func newLayout(t *Tree) *layout { return hier.NewLCAIndex(t) }
-
-func priorForFold(opt Options) [][]int32 {
-	if opt.Stability > 0 {
-		return opt.Prior
-	}
-	return nil
-}
