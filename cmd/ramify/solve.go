@@ -76,9 +76,12 @@ type solveReport struct {
 	Out             string             `json:"out,omitempty"`
 	Placed          int                `json:"placed"`
 	RebuildReason   string             `json:"rebuild_reason,omitempty"`
-	Removed         *int               `json:"removed,omitempty"` // with a previous outline
-	Seconds         float64            `json:"seconds"`
-	Written         *bool              `json:"written,omitempty"` // nil when solve stopped before writing
+	// Regions lists, by their item counts, the subtrees a local re-solve
+	// solved again whole because no single placement kept every record.
+	Regions []int   `json:"regions"`
+	Removed *int    `json:"removed,omitempty"` // with a previous outline
+	Seconds float64 `json:"seconds"`
+	Written *bool   `json:"written,omitempty"` // nil when solve stopped before writing
 }
 
 // solveConstraints counts the records by kind, as check prints them; the
@@ -224,6 +227,7 @@ func solveReportOf(p *project.Project, sol *project.Solution, prev *format.Categ
 		Mode:            sol.Mode,
 		RebuildReason:   sol.Reason,
 		Placed:          sol.Placed,
+		Regions:         append([]int{}, sol.Regions...),
 		Joined:          sol.Joined,
 		Seconds:         roundSig(sol.Seconds, 3),
 	}
