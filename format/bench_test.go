@@ -137,3 +137,26 @@ func BenchmarkParseConstraints10k(b *testing.B) {
 		}
 	}
 }
+
+// BenchmarkParseLinkTableMillionIDs reads three million links over a
+// million ids, the second column at random, as a large repository's links
+// are: the id table outgrows the processor's caches.
+func BenchmarkParseLinkTableMillionIDs(b *testing.B) {
+	rng := rand.New(rand.NewPCG(1, 1))
+	var sb strings.Builder
+	sb.WriteString(LinksHeader + "\n")
+	for i := range 3_000_000 {
+		a, c := i/3, rng.IntN(1_000_000)
+		if a == c {
+			c = (c + 1) % 1_000_000
+		}
+		fmt.Fprintf(&sb, "item-%d\titem-%d\t1.5\n", a, c)
+	}
+	data := []byte(sb.String())
+	b.SetBytes(int64(len(data)))
+	for b.Loop() {
+		if _, err := ParseLinkTableWithin("b.tsv", data, fileLinks, 1_000_000); err != nil {
+			b.Fatal(err)
+		}
+	}
+}

@@ -2,6 +2,7 @@ package format
 
 import (
 	"bytes"
+	"hash/maphash"
 	"math"
 	"strings"
 )
@@ -59,7 +60,7 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 	// No more distinct ids than two a link.
 	idRoom := max(min(ids, 2*room), 0)
 	t.IDs = make([]string, 0, idRoom)
-	idt := idTable{index: make(map[string]int32, idRoom), last: [2]int32{-1, -1}}
+	idt := newIDTable(idRoom, &t.IDs)
 	header := false
 	readTSV(file, string(text), &ds, func(row *tsvRow) bool {
 		if !header {
@@ -111,7 +112,7 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 		if !bad && len(ds) == 0 {
 			for i, id := range [2]string{a, b} {
 				if num[i] < 0 {
-					num[i] = idt.add(i, id, &t.IDs)
+					num[i] = idt.add(i, id)
 				}
 			}
 			t.A = append(t.A, num[0])
@@ -134,10 +135,40 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 // idTable numbers the distinct ids of a links file. Edge lists are often
 // grouped by a column, so the id last seen in each column is remembered
 // and a repeat costs one string comparison instead of a hash lookup.
+//
+// The other column names ids at random, a million of them in a large
+// file: a lookup in a map of strings waits on memory three times (the
+// slot, the key's header, its bytes). The table here is open addressing
+// with linear probing, each slot holding the id's hash, its number and,
+// for an id of up to idInline bytes, the id itself, so a lookup usually
+// reads one slot and nothing else.
 type idTable struct {
-	index map[string]int32
+	seed  maphash.Seed
+	slots []idSlot // a power of two of them, at most half full
+	count int
+	ids   *[]string // the ids by number, for those too long to keep inline
 	last  [2]int32
 	lastS [2]string
+}
+
+// idInline is the longest id a slot keeps itself.
+const idInline = 19
+
+// idSlot is one slot of an idTable: empty while num is 0.
+type idSlot struct {
+	hash uint64
+	num  int32 // the id's number + 1
+	size uint8 // len(id), or idInline+1 when the id is not kept inline
+	key  [idInline]byte
+}
+
+// newIDTable makes room for about room ids, numbered into ids.
+func newIDTable(room int, ids *[]string) *idTable {
+	size := 16
+	for size < 2*room {
+		size *= 2
+	}
+	return &idTable{seed: maphash.MakeSeed(), slots: make([]idSlot, size), ids: ids, last: [2]int32{-1, -1}}
 }
 
 // lookup returns the number of id, seen in column col, or -1 when it is
@@ -146,21 +177,67 @@ func (t *idTable) lookup(col int, id string) int32 {
 	if t.last[col] >= 0 && id == t.lastS[col] {
 		return t.last[col]
 	}
-	k, ok := t.index[id]
-	if !ok {
-		return -1
+	h := maphash.String(t.seed, id)
+	mask := uint64(len(t.slots) - 1)
+	for i := h & mask; ; i = (i + 1) & mask {
+		s := &t.slots[i]
+		if s.num == 0 {
+			return -1
+		}
+		if s.hash == h && t.holds(s, id) {
+			// id, not the kept copy: the next row's id is compared with
+			// it, and id lies in the text being read, in the cache.
+			k := s.num - 1
+			t.last[col], t.lastS[col] = k, id
+			return k
+		}
 	}
-	t.last[col], t.lastS[col] = k, id
+}
+
+// holds reports whether slot s is id's.
+func (t *idTable) holds(s *idSlot, id string) bool {
+	if s.size <= idInline {
+		return int(s.size) == len(id) && string(s.key[:s.size]) == id
+	}
+	return (*t.ids)[s.num-1] == id
+}
+
+// add numbers a new id, appending a copy of it to the ids: a kept
+// substring would pin the whole file in memory.
+func (t *idTable) add(col int, id string) int32 {
+	if 2*(t.count+1) > len(t.slots) {
+		t.grow()
+	}
+	k := int32(len(*t.ids))
+	v := strings.Clone(id)
+	*t.ids = append(*t.ids, v)
+	t.place(idSlot{hash: maphash.String(t.seed, v), num: k + 1}, v)
+	t.count++
+	t.last[col], t.lastS[col] = k, v
 	return k
 }
 
-// add numbers a new id, appending a copy of it to ids: a kept substring
-// would pin the whole file in memory.
-func (t *idTable) add(col int, id string, ids *[]string) int32 {
-	k := int32(len(*ids))
-	v := strings.Clone(id)
-	*ids = append(*ids, v)
-	t.index[v] = k
-	t.last[col], t.lastS[col] = k, v
-	return k
+// place puts s, the slot of id, in the first free slot of its probe run.
+func (t *idTable) place(s idSlot, id string) {
+	s.size = idInline + 1
+	if len(id) <= idInline {
+		s.size = uint8(copy(s.key[:], id))
+	}
+	mask := uint64(len(t.slots) - 1)
+	i := s.hash & mask
+	for t.slots[i].num != 0 {
+		i = (i + 1) & mask
+	}
+	t.slots[i] = s
+}
+
+// grow doubles the slots and puts every id back.
+func (t *idTable) grow() {
+	old := t.slots
+	t.slots = make([]idSlot, 2*len(old))
+	for _, s := range old {
+		if s.num != 0 {
+			t.place(s, (*t.ids)[s.num-1])
+		}
+	}
 }

@@ -1,6 +1,7 @@
 package format
 
 import (
+	"fmt"
 	"testing"
 
 	"github.com/google/go-cmp/cmp"
@@ -73,5 +74,38 @@ func TestParseLinksSinglePrecision(t *testing.T) {
 	got, err := ParseLinks("l.tsv", []byte("a\tb\tweight\nx\ty\t3e38\n"))
 	if err != nil || got[0].Weight != float64(float32(3e38)) {
 		t.Errorf("weight 3e38: %v, %v", got, err)
+	}
+}
+
+func TestIDTableNumbersInOrderOfFirstAppearance(t *testing.T) {
+	for _, room := range []int{0, 5, 100_000} {
+		var ids []string
+		table := newIDTable(room, &ids)
+		want := map[string]int32{}
+		for i := range 5000 {
+			id := fmt.Sprintf("n%d", (i*37)%1500)
+			if i%3 == 0 {
+				id += "-a-name-longer-than-a-slot-keeps" // kept by number, not inline
+			}
+			col := i % 2
+			got := table.lookup(col, id)
+			if w, seen := want[id]; seen != (got >= 0) || seen && got != w {
+				t.Fatalf("room %d, row %d: lookup(%q) = %d, want %d (seen %v)", room, i, id, got, w, seen)
+			}
+			if got < 0 {
+				want[id] = int32(len(want))
+				if k := table.add(col, id); k != want[id] {
+					t.Fatalf("room %d: add(%q) = %d, want %d", room, id, k, want[id])
+				}
+			}
+		}
+		if len(ids) != len(want) {
+			t.Fatalf("room %d: %d ids numbered, want %d", room, len(ids), len(want))
+		}
+		for id, k := range want {
+			if ids[k] != id {
+				t.Errorf("room %d: id %d is %q, want %q", room, k, ids[k], id)
+			}
+		}
 	}
 }
