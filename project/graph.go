@@ -96,14 +96,7 @@ func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, e
 		if t == nil {
 			return graph.Links(n, nil)
 		}
-		item := make([]int32, len(t.IDs))
-		for k, id := range t.IDs {
-			item[k] = -1
-			if i, ok := p.Index[id]; ok {
-				item[k] = int32(i)
-			}
-		}
-		return graph.LinkColumns(n, item, t.A, t.B, t.Weight)
+		return graph.LinkColumns(n, p.linkedItems(t), t.A, t.B, t.Weight)
 	}
 	return nil, fmt.Errorf("unknown kind")
 }

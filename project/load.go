@@ -57,6 +57,10 @@ type Project struct {
 	// bytesRead counts the bytes of the text inputs read so far, against
 	// limits.bytes.
 	bytesRead int64
+	// linkItems is, for each links table, the item index of each of its
+	// ids (-1 for an id that is no item), looked up once by Load for its
+	// check and the similarity graph both.
+	linkItems map[*format.LinkTable][]int32
 }
 
 // OutlinePath is the taxonomy file's path on disk.
@@ -317,26 +321,41 @@ func (p *Project) loadLinks() format.Diags {
 }
 
 // unknownLinked reports each link that names an id that is not an item,
-// looking each distinct id up once.
+// looking each distinct id up once (linkedItems).
 func (p *Project) unknownLinked(t *format.LinkTable) format.Diags {
-	known := make([]bool, len(t.IDs))
-	all := true
-	for k, id := range t.IDs {
-		_, known[k] = p.Index[id]
-		all = all && known[k]
-	}
-	if all {
+	item := p.linkedItems(t)
+	if !slices.Contains(item, -1) {
 		return nil
 	}
 	var ds format.Diags
 	for k := range t.Len() {
 		for _, id := range [2]int32{t.A[k], t.B[k]} {
-			if !known[id] {
+			if item[id] < 0 {
 				ds.Add(t.Pos(k), "link names unknown item %q", t.IDs[id])
 			}
 		}
 	}
 	return ds
+}
+
+// linkedItems is the item index of each id of t, -1 for an id that is no
+// item, looked up on the first call.
+func (p *Project) linkedItems(t *format.LinkTable) []int32 {
+	if item, ok := p.linkItems[t]; ok {
+		return item
+	}
+	item := make([]int32, len(t.IDs))
+	for k, id := range t.IDs {
+		item[k] = -1
+		if i, ok := p.Index[id]; ok {
+			item[k] = int32(i)
+		}
+	}
+	if p.linkItems == nil {
+		p.linkItems = map[*format.LinkTable][]int32{}
+	}
+	p.linkItems[t] = item
+	return item
 }
 
 func sourceKey(i int, key string) string {
