@@ -46,8 +46,15 @@ type Shape struct {
 	// Structure the structure hash of the taxonomy that packet was drawn
 	// from.
 	Packet, Structure string
-	Refs              []Ref
-	Pos               Pos // the [[shape]] header
+	// SideBySide says that the outline's categories keep their entries
+	// side by side as well: a category with three or more (items and
+	// subcategories) means that none of them is grouped with another
+	// apart from the rest (side_by_side = true). Without it a shape keeps
+	// only the groupings it makes. absorb sets it for an answer that lays
+	// grouped items side by side.
+	SideBySide bool
+	Refs       []Ref
+	Pos        Pos // the [[shape]] header
 	Provenance
 }
 
@@ -73,7 +80,7 @@ var (
 	provenanceKeys   = []string{"by", "date", "note"}
 	tripletKeys      = append([]string{"pair", "out"}, provenanceKeys...)
 	groupKeys        = append([]string{"items", "name"}, provenanceKeys...)
-	shapeKeys        = append([]string{"outline", "packet", "structure"}, provenanceKeys...)
+	shapeKeys        = append([]string{"outline", "packet", "structure", "side_by_side"}, provenanceKeys...)
 	constraintLimits = tomlLimits{
 		MaxNesting:     8,
 		MaxArray:       MaxArrayLen,
@@ -279,6 +286,13 @@ func parseShape(r *tomlRecord) (Shape, Diags) {
 		}
 		return ""
 	})
+	if v, ok := r.Values["side_by_side"]; ok {
+		b, isBool := v.(bool)
+		if !isBool {
+			ds.Add(r.keyPos("side_by_side"), "side_by_side must be true or false, not %s", tomlType(v))
+		}
+		s.SideBySide = b
+	}
 	v, ok := r.Values["outline"]
 	if !ok {
 		ds.Add(r.At, "[[shape]] has no outline; write the approved tree as outline = \"\"\"...\"\"\"")

@@ -52,6 +52,9 @@ func FormatConstraints(cf *ConstraintFile) []byte {
 		if s.Structure != "" {
 			fmt.Fprintf(&b, "structure = %s\n", tomlQuote(s.Structure))
 		}
+		if s.SideBySide {
+			b.WriteString("side_by_side = true\n")
+		}
 		writeProvenance(&b, s.Provenance)
 	}
 	return b.Bytes()

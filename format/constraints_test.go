@@ -130,7 +130,7 @@ func randomConstraints(rng *rand.Rand) *ConstraintFile {
 		cf.Groups = append(cf.Groups, g)
 	}
 	for range rng.IntN(4) {
-		s := Shape{Tree: randomTree(rng, 3+rng.IntN(30), 1+rng.IntN(4)), Provenance: randomProvenance(rng)}
+		s := Shape{Tree: randomTree(rng, 3+rng.IntN(30), 1+rng.IntN(4)), SideBySide: rng.IntN(2) == 0, Provenance: randomProvenance(rng)}
 		if rng.IntN(2) == 0 {
 			s.Packet = "2026-12-02-" + fmt.Sprintf("%012x", rng.Int64N(1<<48))
 			s.Structure = fmt.Sprintf("%012x", rng.Int64N(1<<48))

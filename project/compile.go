@@ -94,6 +94,9 @@ func (p *Project) Compile() *Compiled {
 			nodes := shapeNodes(s.Tree, idx)
 			c.Constraints.Triplets = appendShapeTriplets(c.Constraints.Triplets, nodes, rec)
 			shapeTriplets += resolvedTriplets(nodes)
+			if s.SideBySide {
+				c.Constraints.SideBySide = appendSideBySide(c.Constraints.SideBySide, nodes, rec)
+			}
 		}
 	}
 	// Triplets counts what the records mean, not the (smaller) set the
@@ -180,6 +183,38 @@ func resolvedTriplets(n *shapeNode) int64 {
 	}
 	all := walk(n)
 	return all*pairs - pairsBySize
+}
+
+// appendSideBySide appends, for every category of a side-by-side shape
+// with three or more entries, the statement that they meet in one
+// category (solve.SideBySide), each entry's items one branch. Categories
+// with two entries say nothing more than their triplets do.
+func appendSideBySide(out []solve.SideBySide, n *shapeNode, rec int) []solve.SideBySide {
+	if n == nil || len(n.kids) == 0 {
+		return out
+	}
+	if len(n.kids) >= 3 {
+		s := solve.SideBySide{Record: rec}
+		for _, k := range n.kids {
+			s.Branches = append(s.Branches, shapeItems(k, nil))
+		}
+		out = append(out, s)
+	}
+	for _, k := range n.kids {
+		out = appendSideBySide(out, k, rec)
+	}
+	return out
+}
+
+// shapeItems appends the items under n.
+func shapeItems(n *shapeNode, out []int32) []int32 {
+	if len(n.kids) == 0 {
+		return append(out, n.rep)
+	}
+	for _, k := range n.kids {
+		out = shapeItems(k, out)
+	}
+	return out
 }
 
 // appendShapeTriplets appends a set of triplets that means the same as

@@ -57,6 +57,13 @@ type Solution struct {
 	Placed  int
 	Joined  int
 	Regions []int
+	// SideBySideNotKept lists the side-by-side shapes (record indices)
+	// whose categories could not all keep their entries side by side
+	// without breaking another record (solve.KeepSideBySide).
+	SideBySideNotKept []int
+	// PartedSideBySide is set when items that answers lay side by side
+	// were moved up to where they meet (solve.KeepSideBySide).
+	PartedSideBySide bool
 }
 
 // ConflictError says that the constraint records cannot all hold; Records
@@ -164,6 +171,18 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 			return nil, err
 		}
 	}
+	// Side-by-side answers hold after solving: the items they lay side by
+	// side are parted where the tree groups them, as far as the records
+	// allow. A tree that keeps them is left as it is, so solve after solve
+	// changes nothing.
+	kept, notKept := solve.KeepSideBySide(tree, compiled.Constraints)
+	if kept != tree {
+		sol.PartedSideBySide = true
+		if sol.Mode == ModeKept {
+			sol.Mode = ModeLocal
+		}
+	}
+	tree, sol.SideBySideNotKept = kept, notKept
 	root := ToCategory(tree, ids)
 	var prev *format.Category
 	if p.Outline != nil {

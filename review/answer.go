@@ -136,10 +136,15 @@ func ShapeFile(a *Answer, by, date string) *format.ConstraintFile {
 	if note == "" {
 		note = fmt.Sprintf("answer to review packet %s (%s)", a.ID, a.Packet.Reason)
 	}
+	// An answer keeps its side-by-side entries too: the packet as drawn
+	// shows the tree restricted to its items, where they already meet as
+	// drawn, so the statement binds only where the reviewer laid grouped
+	// items side by side (see SideBySide).
 	return &format.ConstraintFile{Shapes: []format.Shape{{
 		Tree:       a.Packet.Tree.Clone(),
 		Packet:     a.ID,
 		Structure:  a.Packet.From,
+		SideBySide: true,
 		Provenance: format.Provenance{By: by, Date: date, Note: note},
 	}}}
 }

@@ -6,16 +6,15 @@ import (
 	"github.com/ramify-tax/ramify/format"
 )
 
-// SideBySide lists the groupings an answer takes away that its shape
-// cannot record: the triplets ab|c that shown (the packet as drawn)
+// SideBySide lists the groupings an answer takes away by laying items
+// side by side: the triplets ab|c that shown (the packet as drawn)
 // resolves where the answer lays a and b side by side as items of one
-// category that holds c too, so that all three meet there. A shape
-// records only the triplets its outline resolves (format.ShapeTriplets):
-// items laid side by side state nothing the solver must keep, and the
-// next solve may group a with b again. absorb says so instead of letting
-// the answer pass as recorded. Triplets the answer resolves another way
-// are recorded, and a pair the answer parts by moving one of them into
-// another category is left to the triplets that move records; neither is
+// category that holds c too, so that all three meet there. Triplets
+// cannot record this (format.ShapeTriplets lists only what an outline
+// resolves); the answer's shape keeps it as a side-by-side statement
+// (format.Shape.SideBySide, kept by solve.KeepSideBySide). Triplets the
+// answer resolves another way, and a pair the answer parts by moving one
+// of them into another category, are recorded as triplets and not
 // listed. The list is in the order of format.ShapeTriplets over shown.
 func SideBySide(shown, answer *format.Category) [][3]string {
 	resolved := map[[3]string]bool{} // the answer's resolved triples, as sorted item sets

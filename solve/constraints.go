@@ -8,6 +8,9 @@ package solve
 type Constraints struct {
 	Triplets []Triplet
 	Clusters []Cluster
+	// SideBySide are kept after solving (KeepSideBySide), not by the
+	// solver itself.
+	SideBySide []SideBySide
 }
 
 // Triplet is the rooted triplet ab|c: lca(a,b) lies strictly below

@@ -104,10 +104,9 @@ type absorbedJSON struct {
 	Done       string `json:"done"`
 	Constraint string `json:"constraint,omitempty"`
 	// SideBySide counts the triplets of the packet as drawn that a
-	// "fixed" answer lays side by side and so cannot record
-	// (review.SideBySide); the first is told as an example.
-	SideBySide int       `json:"side_by_side,omitempty"`
-	example    [3]string // the first of them
+	// "fixed" answer lays side by side (review.SideBySide), which its
+	// shape keeps with side_by_side = true.
+	SideBySide int `json:"side_by_side,omitempty"`
 }
 
 func runAbsorb(e *env, o *absorbOptions, args []string) error {
@@ -188,11 +187,6 @@ func reportAbsorb(e *env, p *project.Project, absorbed []absorbedJSON, edit *han
 			e.say("recorded %s (fixed by %s) as %s; moved it to %s", a.Packet, a.Reviewer, a.Constraint, a.Done)
 		default:
 			e.say("moved %s (%s by %s) to %s", a.Packet, a.Verdict, a.Reviewer, a.Done)
-		}
-		if a.SideBySide > 0 {
-			x := a.example
-			e.notice("note: %s lays %s and %s side by side with %s, where the packet grouped %s with %s; a packet records the groupings it makes, not the ones it removes, so the next solve may group them again (%s)",
-				a.Packet, x[0], x[1], x[2], x[0], x[1], plural(a.SideBySide, "triplet like this", "triplets like this"))
 		}
 	}
 	if edit != nil {

@@ -64,9 +64,7 @@ func planAnswers(p *project.Project, open []*review.Answer, names *reviewerNames
 			// A conflict names the answer where the reviewer can change it.
 			cf.Shapes[0].Pos = format.Pos{File: a.File, Line: a.Packet.TreeLine, Col: 1}
 			if shown != nil {
-				if lost := review.SideBySide(shown, a.Packet.Tree); len(lost) > 0 {
-					item.SideBySide, item.example = len(lost), lost[0]
-				}
+				item.SideBySide = len(review.SideBySide(shown, a.Packet.Tree))
 			}
 			plan.added = append(plan.added, cf)
 			plan.writes = append(plan.writes, absorbWrite{rel: rel, data: text})

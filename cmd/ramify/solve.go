@@ -78,10 +78,13 @@ type solveReport struct {
 	RebuildReason   string             `json:"rebuild_reason,omitempty"`
 	// Regions lists, by their item counts, the subtrees a local re-solve
 	// solved again whole because no single placement kept every record.
-	Regions []int   `json:"regions"`
-	Removed *int    `json:"removed,omitempty"` // with a previous outline
-	Seconds float64 `json:"seconds"`
-	Written *bool   `json:"written,omitempty"` // nil when solve stopped before writing
+	Regions []int `json:"regions"`
+	// SideBySideNotKept counts the side-by-side answers another record
+	// kept from holding in full.
+	SideBySideNotKept int     `json:"side_by_side_not_kept"`
+	Removed           *int    `json:"removed,omitempty"` // with a previous outline
+	Seconds           float64 `json:"seconds"`
+	Written           *bool   `json:"written,omitempty"` // nil when solve stopped before writing
 }
 
 // solveConstraints counts the records by kind, as check prints them; the
@@ -222,14 +225,15 @@ func solveReportOf(p *project.Project, sol *project.Solution, prev *format.Categ
 			Satisfied:      total - violated,
 			Violated:       violated,
 		},
-		Moved:           []string{},
-		MovedCategories: []categoryMoveJSON{},
-		Mode:            sol.Mode,
-		RebuildReason:   sol.Reason,
-		Placed:          sol.Placed,
-		Regions:         append([]int{}, sol.Regions...),
-		Joined:          sol.Joined,
-		Seconds:         roundSig(sol.Seconds, 3),
+		Moved:             []string{},
+		MovedCategories:   []categoryMoveJSON{},
+		Mode:              sol.Mode,
+		RebuildReason:     sol.Reason,
+		Placed:            sol.Placed,
+		Regions:           append([]int{}, sol.Regions...),
+		SideBySideNotKept: len(sol.SideBySideNotKept),
+		Joined:            sol.Joined,
+		Seconds:           roundSig(sol.Seconds, 3),
 	}
 	if prev != nil {
 		changes := diff.CompareChanges(prev, sol.Root)
@@ -251,6 +255,9 @@ func printSolveReport(e *env, r *solveReport, p *project.Project, sol *project.S
 	} else {
 		e.say("  constraints  %d of %s broken (the average-linkage baseline ignores them)", c.Violated, plural(c.Records, "record", "records"))
 	}
+	if n := len(sol.SideBySideNotKept); n > 0 {
+		e.say("  side by side %s not kept in full: parting the items would break another record", plural(n, "answer", "answers"))
+	}
 	if p.Outline != nil {
 		e.say("  moved        %s since the previous outline", describeMoves(len(r.Moved), r.MovedCategories))
 	}
@@ -268,6 +275,9 @@ func printSolveReport(e *env, r *solveReport, p *project.Project, sol *project.S
 		}
 		if sol.Joined > 0 {
 			done = append(done, plural(sol.Joined, "new category", "new categories")+" over existing ones, no item moved out of its category")
+		}
+		if sol.PartedSideBySide {
+			done = append(done, "items that answers lay side by side moved up to where they meet")
 		}
 		e.say("  solved       locally: %s", strings.Join(done, "; "))
 	case project.ModeKept:
