@@ -2,7 +2,8 @@ package format
 
 import (
 	"slices"
-	"strings"
+
+	"github.com/ramify-tax/ramify/internal/sorted"
 )
 
 // MemberLists lists, for every category below root in walk order, all the
@@ -28,33 +29,8 @@ func MemberLists(root *Category) [][]string {
 		if c == root {
 			return nil // no one asks for the root's list
 		}
-		if len(lists) == 1 {
-			return own
-		}
-		return mergeSorted(lists)
+		return sorted.Merge(lists) // a fresh list, or own when there is nothing to merge
 	}
 	rec(root)
 	return out
-}
-
-// mergeSorted merges sorted lists into one new sorted list, pairwise in a
-// balanced tree of merges.
-func mergeSorted(lists [][]string) []string {
-	if len(lists) == 1 {
-		return lists[0]
-	}
-	mid := len(lists) / 2
-	a, b := mergeSorted(lists[:mid]), mergeSorted(lists[mid:])
-	out := make([]string, 0, len(a)+len(b))
-	for len(a) > 0 && len(b) > 0 {
-		if strings.Compare(b[0], a[0]) < 0 {
-			out = append(out, b[0])
-			b = b[1:]
-		} else {
-			out = append(out, a[0])
-			a = a[1:]
-		}
-	}
-	out = append(out, a...)
-	return append(out, b...)
 }

@@ -5,6 +5,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/internal/sorted"
 	"github.com/ramify-tax/ramify/solve"
 )
 
@@ -75,21 +76,24 @@ func CategoryTree(root *format.Category, index map[string]int, n int) *solve.Tre
 // items say nothing and are skipped.
 func PriorClusters(root *format.Category, index map[string]int) [][]int32 {
 	var out [][]int32
+	// Each category's leaves, sorted, are the merge of its children's and
+	// its own (sorted.Merge), not sorted anew at every level.
 	var rec func(c *format.Category) []int32
 	rec = func(c *format.Category) []int32 {
-		var mine []int32
+		lists := make([][]int32, 0, len(c.Children)+1)
 		for _, ch := range c.Children {
-			mine = append(mine, rec(ch)...)
+			lists = append(lists, rec(ch))
 		}
+		var own []int32
 		for _, it := range c.Items {
 			if i, ok := index[it]; ok {
-				mine = append(mine, int32(i))
+				own = append(own, int32(i))
 			}
 		}
+		slices.Sort(own)
+		mine := sorted.Merge(append(lists, own))
 		if c != root && len(mine) >= 2 {
-			s := slices.Clone(mine)
-			slices.Sort(s)
-			out = append(out, s)
+			out = append(out, mine)
 		}
 		return mine
 	}
