@@ -348,7 +348,8 @@ func (b *baseTree) draw(rng *rand.Rand, kind string, base []byte) (decision, boo
 			return decision{record: "[[group]]\nitems = [" + quoted(named) + "]\n", named: named}, true
 		case "shape":
 			// A fixed packet over two neighbouring categories: up to four
-			// items of each, one of the first moved to the second.
+			// items of each, one of the first moved to the second, recorded
+			// as absorb records an answer (side by side).
 			c, d, ok := b.neighbours(rng, 3, 2)
 			if !ok {
 				continue
@@ -357,7 +358,7 @@ func (b *baseTree) draw(rng *rand.Rand, kind string, base []byte) (decision, boo
 			moved := from[0]
 			outline := "A/\n" + indented(from[1:]) + "B/\n" + indented(append(to, moved))
 			return decision{
-				record: "[[shape]]\noutline = \"\"\"\n" + outline + "\"\"\"\n",
+				record: "[[shape]]\noutline = \"\"\"\n" + outline + "\"\"\"\nside_by_side = true\n",
 				named:  append(from, to...),
 			}, true
 		case "move":
