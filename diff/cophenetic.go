@@ -5,7 +5,7 @@ import (
 	"math/big"
 	"slices"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // pairMoments are the sums over all leaf pairs {i, j} of the cophenetic

@@ -3,8 +3,8 @@ package diff
 import (
 	"fmt"
 
-	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/review/bounds"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // TripletAgreement is the share of the C(n, 3) leaf triples whose induced

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // Small tree pairs whose RF distance (Robinson & Foulds 1981), triplet

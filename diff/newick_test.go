@@ -4,7 +4,7 @@ import (
 	"fmt"
 	"strings"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // parseNewick is a test-only reader for plain Newick without branch

@@ -5,7 +5,7 @@ import (
 	"math/rand/v2"
 	"sort"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // naiveTree answers lca queries by walking parent pointers: slow and

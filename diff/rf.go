@@ -3,7 +3,7 @@ package diff
 import (
 	"math/rand/v2"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // clusterSet lists a tree's distinct non-trivial clusters (leaf sets of

@@ -1,6 +1,6 @@
 package diff
 
-import "github.com/ramify-tax/ramify/hier"
+import "github.com/ramify-tax/ramify/solve/hier"
 
 // solveTree turns a flattened outline into a tree over the common items
 // by hier.KeepingChains: leaf i is common item i, held by category

@@ -3,7 +3,7 @@ package diff
 import (
 	"fmt"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // treeIndex is a tree laid out for the comparison measures (hier.Index:

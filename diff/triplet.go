@@ -3,7 +3,7 @@ package diff
 import (
 	"math/rand/v2"
 
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // tripletCounts are the numbers of leaf triples by how two trees resolve

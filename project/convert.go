@@ -4,9 +4,9 @@ import (
 	"slices"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/internal/sorted"
 	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // ToCategory turns a solved multiway tree over item indices into an

@@ -1,7 +1,7 @@
 package review
 
 import (
-	"github.com/ramify-tax/ramify/hier"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // leafIndex is review's view of a tree's leaves: hier.LCAIndex (O(1)

@@ -5,9 +5,9 @@ import (
 	"fmt"
 	"math"
 
-	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/internal/disjoint"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // Cost is Dasgupta's cost of t on g (S. Dasgupta, "A cost function for

@@ -9,8 +9,8 @@ import (
 	"gonum.org/v1/gonum/mat"
 	"gonum.org/v1/gonum/stat"
 
-	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // The spectral step's pieces that only tests call: the exact Fiedler pair

@@ -6,8 +6,8 @@ import (
 	"math"
 	"strings"
 
-	"github.com/ramify-tax/ramify/hier"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/hier"
 )
 
 // Options steer Solve. Zero values mean "no limit" / "off".

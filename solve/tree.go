@@ -1,6 +1,6 @@
 package solve
 
-import "github.com/ramify-tax/ramify/hier"
+import "github.com/ramify-tax/ramify/solve/hier"
 
 // Tree is the rooted tree over leaves 0..N-1 that the solver builds (see
 // hier.Tree): leaves are the items, ids N and up the internal nodes.

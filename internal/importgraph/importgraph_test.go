@@ -88,10 +88,10 @@ func TestViolations(t *testing.T) {
 		graph map[string][]string
 		want  []string
 	}{
-		{"downhill", map[string][]string{m("review"): {m("solve"), m("diff"), m("hier"), "fmt"}}, nil},
+		{"downhill", map[string][]string{m("review"): {m("solve"), m("diff"), m("solve/hier"), "fmt"}}, nil},
 		{"uphill", map[string][]string{m("review"): {m("project")}}, []string{"review (layer 4) imports project (layer 5)"}},
 		{"same layer", map[string][]string{m("solve/naming"): {m("diff")}}, []string{"solve/naming (layer 2) imports diff (layer 2)"}},
-		{"leaf importing format", map[string][]string{m("hier"): {m("format")}}, []string{"hier (layer 0) imports format (layer 1)"}},
+		{"leaf importing format", map[string][]string{m("solve/hier"): {m("format")}}, []string{"solve/hier (layer 0) imports format (layer 1)"}},
 		{"diff importing solve", map[string][]string{m("diff"): {m("solve")}}, []string{"diff (layer 2) imports solve (layer 3)"}},
 		{"unplaced", map[string][]string{m("newpkg"): nil}, []string{"newpkg is in no layer; add it to importgraph.Layers and DEVELOPERS.md"}},
 		{"outside the module", map[string][]string{"example.com/x": {m("cmd/ramify")}}, nil},
