@@ -5,6 +5,8 @@ import (
 	"slices"
 	"strings"
 	"testing"
+
+	"github.com/ramify-tax/ramify/solve/graph"
 )
 
 // nestedString writes t in the bracket form dgNested reads, children
@@ -79,5 +81,44 @@ func TestKeepSideBySide(t *testing.T) {
 				t.Errorf("records %v broken", bad)
 			}
 		})
+	}
+}
+
+// TestSolveKeepsSideBySide: three tight pairs (0 1), (2 3), (4 5) and a
+// statement that 0, 1 and 2 meet in one category. The solver alone pairs 0
+// with 1; Solve's taxonomy must part them, and keep a triplet record that
+// holds 2 with 3.
+func TestSolveKeepsSideBySide(t *testing.T) {
+	var edges []graph.Edge
+	for a := int32(0); a < 6; a++ {
+		for b := a + 1; b < 6; b++ {
+			w := 0.05
+			if b == a+1 && a%2 == 0 {
+				w = 1
+			}
+			edges = append(edges, graph.Edge{A: a, B: b, W: w})
+		}
+	}
+	g := MustGraph(t, 6, edges)
+	c := &Constraints{
+		Triplets:   []Triplet{{A: 2, B: 3, C: 4, Record: 0}},
+		SideBySide: []SideBySide{{Branches: [][]int32{{0}, {1}, {2}}, Record: 1}},
+	}
+	alone, err := Solve(g, &Constraints{Triplets: c.Triplets}, Options{MinSize: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if holdsSideBySide(newMutableTree(alone.Taxonomy), c.SideBySide[0]) {
+		t.Fatalf("the test needs a tree that groups 0 with 1, got %s", nestedString(alone.Taxonomy))
+	}
+	res, err := Solve(g, c, Options{MinSize: 2})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if !holdsSideBySide(newMutableTree(res.Taxonomy), c.SideBySide[0]) {
+		t.Errorf("0, 1 and 2 do not meet in one category: %s", nestedString(res.Taxonomy))
+	}
+	if bad := Satisfies(res.Taxonomy, c); len(bad) > 0 {
+		t.Errorf("records %v broken: %s", bad, nestedString(res.Taxonomy))
 	}
 }

@@ -45,7 +45,9 @@ type Options struct {
 type Result struct {
 	// Binary is the constrained binary hierarchy after local improvement.
 	Binary *Tree
-	// Taxonomy is Binary folded into a multiway tree of categories.
+	// Taxonomy is Binary folded into a multiway tree of categories, with
+	// the side-by-side statements kept as far as the records allow
+	// (KeepSideBySide).
 	Taxonomy *Tree
 }
 
@@ -116,6 +118,9 @@ func solveWith(g *graph.CSR, c *Constraints, opt Options, cp constructParams) (*
 		stability:   opt.Stability,
 		browsable:   true,
 	}, progress)
+	// The solver builds without the side-by-side statements; the
+	// taxonomy keeps them afterwards as far as the records allow.
+	tax, _ = KeepSideBySide(tax, c)
 	return &Result{Binary: binary, Taxonomy: tax}, nil
 }
 
@@ -130,6 +135,15 @@ func checkLeaves(n int, c *Constraints) error {
 		for _, l := range cl.Leaves {
 			if bad(l) {
 				return fmt.Errorf("solve: record %d names an item outside 0..%d", cl.Record, n-1)
+			}
+		}
+	}
+	for _, s := range c.SideBySide {
+		for _, b := range s.Branches {
+			for _, l := range b {
+				if bad(l) {
+					return fmt.Errorf("solve: record %d names an item outside 0..%d", s.Record, n-1)
+				}
 			}
 		}
 	}
