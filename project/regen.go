@@ -121,7 +121,7 @@ func (p *Project) Regenerate(method Method, progress func(stage string, done, to
 // say which happened and why.
 func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	start := time.Now()
-	method, progress := ro.Method, ro.Progress
+	progress := ro.Progress
 	if len(p.Items) == 0 {
 		return nil, errors.New("there are no items yet; add some to " + p.itemsFilesText())
 	}
@@ -142,47 +142,10 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	ids := p.ItemIDs()
 	keys := p.RecordKeys()
 	sol := &Solution{Graph: g, Compiled: compiled}
-	var tree *solve.Tree
-	plan, reason := p.localPlan(ro, keys, compiled)
-	if plan != nil {
-		if err := compiled.Consistent(len(p.Items)); err != nil {
-			return nil, err
-		}
-		if opt.MaxChildren == 1 {
-			return nil, errors.New("solve: max children must be at least 2")
-		}
-		var rep *solve.RepairReport
-		opt.Prior = PriorClusters(p.Outline.Root, p.Index)
-		tree, rep, err = solve.Repair(g, compiled.Constraints, plan.prev, plan.change, opt)
-		if err != nil {
-			return nil, err
-		}
-		sol.Mode, sol.Placed, sol.Joined, sol.Regions = ModeLocal, rep.Placed, rep.Joined, rep.Regions
-		if rep.Placed == 0 && rep.Joined == 0 {
-			sol.Mode = ModeKept
-		}
-		if rep.Rebuilt {
-			sol.Mode, sol.Reason = ModeRebuild, "no local repair keeps every record"
-		}
-	} else {
-		sol.Mode, sol.Reason = ModeRebuild, reason
-		tree, err = p.rebuild(method, g, compiled, opt, ids)
-		if err != nil {
-			return nil, err
-		}
+	tree, err := p.solveTree(ro, g, compiled, opt, ids, keys, sol)
+	if err != nil {
+		return nil, err
 	}
-	// Side-by-side answers hold after solving: the items they lay side by
-	// side are parted where the tree groups them, as far as the records
-	// allow. A tree that keeps them is left as it is, so solve after solve
-	// changes nothing.
-	kept, notKept := solve.KeepSideBySide(tree, compiled.Constraints)
-	if kept != tree {
-		sol.PartedSideBySide = true
-		if sol.Mode == ModeKept {
-			sol.Mode = ModeLocal
-		}
-	}
-	tree, sol.SideBySideNotKept = kept, notKept
 	root := ToCategory(tree, ids)
 	var prev *format.Category
 	if p.Outline != nil {
@@ -209,6 +172,55 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 	sol.Violated = solve.Satisfies(tree, compiled.Constraints)
 	sol.Seconds = time.Since(start).Seconds()
 	return sol, nil
+}
+
+// solveTree makes the tree over item indices: the local re-solve of the
+// previous outline when the change is small, else a rebuild, then the
+// side-by-side answers kept. It records in sol how the tree came about.
+func (p *Project) solveTree(ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, keys []format.OutlineRecord, sol *Solution) (*solve.Tree, error) {
+	var tree *solve.Tree
+	var err error
+	plan, reason := p.localPlan(ro, keys, compiled)
+	if plan != nil {
+		if err := compiled.Consistent(len(p.Items)); err != nil {
+			return nil, err
+		}
+		if opt.MaxChildren == 1 {
+			return nil, errors.New("solve: max children must be at least 2")
+		}
+		var rep *solve.RepairReport
+		opt.Prior = PriorClusters(p.Outline.Root, p.Index)
+		tree, rep, err = solve.Repair(g, compiled.Constraints, plan.prev, plan.change, opt)
+		if err != nil {
+			return nil, err
+		}
+		sol.Mode, sol.Placed, sol.Joined, sol.Regions = ModeLocal, rep.Placed, rep.Joined, rep.Regions
+		if rep.Placed == 0 && rep.Joined == 0 {
+			sol.Mode = ModeKept
+		}
+		if rep.Rebuilt {
+			sol.Mode, sol.Reason = ModeRebuild, "no local repair keeps every record"
+		}
+	} else {
+		sol.Mode, sol.Reason = ModeRebuild, reason
+		tree, err = p.rebuild(ro.Method, g, compiled, opt, ids)
+		if err != nil {
+			return nil, err
+		}
+	}
+	// Side-by-side answers hold after solving: the items they lay side by
+	// side are parted where the tree groups them, as far as the records
+	// allow. A tree that keeps them is left as it is, so solve after solve
+	// changes nothing.
+	kept, notKept := solve.KeepSideBySide(tree, compiled.Constraints)
+	if kept != tree {
+		sol.PartedSideBySide = true
+		if sol.Mode == ModeKept {
+			sol.Mode = ModeLocal
+		}
+	}
+	sol.SideBySideNotKept = notKept
+	return kept, nil
 }
 
 // rebuild solves from scratch. With stability, the previous outline pulls
