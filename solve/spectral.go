@@ -330,39 +330,7 @@ func (sp *spectralWork) subtract(w, h []float64, lo, hi int) {
 // returns true.
 func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, seed uint64, maxSteps int, check func(theta float64, y []float64, residual float64) bool) error {
 	n := g.N
-	sp.stride = maxSteps + 1
-	sp.basis = grow(sp.basis, n*sp.stride)
-	sp.w = grow(sp.w, n)
-	sp.qj = grow(sp.qj, n)
-	sp.qprev = grow(sp.qprev, n)
-	sp.y = grow(sp.y, n)
-	sp.alpha = sp.alpha[:0]
-	sp.beta = sp.beta[:0]
-	sp.prepareA(g, deg)
-	w, qj, qprev := sp.w, sp.qj, sp.qprev
-
-	// Column 0: the known bottom eigenvector B^{1/2}1, normalised.
-	total := 0.0
-	for _, x := range b {
-		total += x
-	}
-	for i := range w {
-		w[i] = math.Sqrt(b[i] / total)
-	}
-	sp.setColumn(0, w, 1, nil)
-	// Column 1: the seeded start vector, made orthogonal to column 0.
-	for i := range w {
-		w[i] = startValue(seed, ids[i])
-	}
-	nrm := sp.orthogonalise(w, 0)
-	if !(nrm > 0) {
-		for i := range w {
-			w[i] = float64(i) - float64(n-1)/2
-		}
-		nrm = sp.orthogonalise(w, 0)
-	}
-	sp.setColumn(1, w, 1/nrm, qj)
-
+	w, qj, qprev := sp.startLanczos(g, deg, b, ids, seed, maxSteps)
 	steps := 0
 	for j := 1; j <= maxSteps; j++ {
 		// qj holds basis column j, qprev column j−1.
@@ -395,22 +363,69 @@ func (sp *spectralWork) lanczos(g *graph.CSR, deg, b []float64, ids []int32, see
 		if !last {
 			residual = math.Abs(float64(beta * coef[steps-1]))
 		}
-		y := sp.y
-		parallelSpans(n, sp.helpers.parts(n*steps), func(lo, hi int) {
-			for r := lo; r < hi; r++ {
-				row := sp.basis[r*sp.stride+1 : r*sp.stride+1+steps]
-				y[r] = dot(row, coef)
-			}
-		})
-		nrm := math.Sqrt(dot(y, y))
-		for i := range y {
-			y[i] /= nrm
-		}
-		if check(theta, y, residual) || last {
+		if check(theta, sp.ritzVector(n, steps, coef), residual) || last {
 			break
 		}
 	}
 	return nil
+}
+
+// startLanczos sizes the buffers for maxSteps steps, stores A, and writes
+// the first two basis columns: the known bottom eigenvector B^{1/2}1 and
+// the seeded start vector made orthogonal to it. It returns the work
+// vector and the columns 1 and 0 as the recurrence reads them.
+func (sp *spectralWork) startLanczos(g *graph.CSR, deg, b []float64, ids []int32, seed uint64, maxSteps int) (w, qj, qprev []float64) {
+	n := g.N
+	sp.stride = maxSteps + 1
+	sp.basis = grow(sp.basis, n*sp.stride)
+	sp.w = grow(sp.w, n)
+	sp.qj = grow(sp.qj, n)
+	sp.qprev = grow(sp.qprev, n)
+	sp.y = grow(sp.y, n)
+	sp.alpha = sp.alpha[:0]
+	sp.beta = sp.beta[:0]
+	sp.prepareA(g, deg)
+	w, qj, qprev = sp.w, sp.qj, sp.qprev
+
+	// Column 0: the known bottom eigenvector B^{1/2}1, normalised.
+	total := 0.0
+	for _, x := range b {
+		total += x
+	}
+	for i := range w {
+		w[i] = math.Sqrt(b[i] / total)
+	}
+	sp.setColumn(0, w, 1, nil)
+	// Column 1: the seeded start vector, made orthogonal to column 0.
+	for i := range w {
+		w[i] = startValue(seed, ids[i])
+	}
+	nrm := sp.orthogonalise(w, 0)
+	if !(nrm > 0) {
+		for i := range w {
+			w[i] = float64(i) - float64(n-1)/2
+		}
+		nrm = sp.orthogonalise(w, 0)
+	}
+	sp.setColumn(1, w, 1/nrm, qj)
+	return w, qj, qprev
+}
+
+// ritzVector writes into sp.y the unit Ritz vector of the first steps
+// basis columns (after column 0) with coefficients coef, and returns it.
+func (sp *spectralWork) ritzVector(n, steps int, coef []float64) []float64 {
+	y := sp.y
+	parallelSpans(n, sp.helpers.parts(n*steps), func(lo, hi int) {
+		for r := lo; r < hi; r++ {
+			row := sp.basis[r*sp.stride+1 : r*sp.stride+1+steps]
+			y[r] = dot(row, coef)
+		}
+	})
+	nrm := math.Sqrt(dot(y, y))
+	for i := range y {
+		y[i] /= nrm
+	}
+	return y
 }
 
 // tridiagSmallest returns the smallest eigenpair of the symmetric
