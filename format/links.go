@@ -97,18 +97,8 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 			ds.Add(row.pos(file, 1), "item %q is linked to itself", a)
 			bad = true
 		}
-		w, msg := parseFinite(row.Cells[2])
-		switch {
-		case msg != "":
-			ds.Add(row.pos(file, 2), "weight: %s", msg)
-			bad = true
-		case w <= 0:
-			ds.Add(row.pos(file, 2), "weight %s must be greater than 0", quoteClip(strings.TrimSpace(row.Cells[2])))
-			bad = true
-		case w > math.MaxFloat32 || float32(w) == 0:
-			ds.Add(row.pos(file, 2), "weight %s is out of range: a weight is kept in single precision, between 1.4e-45 and 3.4e38", quoteClip(strings.TrimSpace(row.Cells[2])))
-			bad = true
-		}
+		w, ok := linkWeight(row, file, &ds)
+		bad = bad || !ok
 		if !bad && len(ds) == 0 {
 			for i, id := range [2]string{a, b} {
 				if num[i] < 0 {
@@ -130,6 +120,24 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 		return nil, ds
 	}
 	return t, nil
+}
+
+// linkWeight reads a link row's weight: a finite number above 0 that
+// single precision holds, as the graph keeps it. A problem is added to ds
+// at the weight's cell.
+func linkWeight(row *tsvRow, file string, ds *Diags) (float64, bool) {
+	w, msg := parseFinite(row.Cells[2])
+	switch {
+	case msg != "":
+		ds.Add(row.pos(file, 2), "weight: %s", msg)
+	case w <= 0:
+		ds.Add(row.pos(file, 2), "weight %s must be greater than 0", quoteClip(strings.TrimSpace(row.Cells[2])))
+	case w > math.MaxFloat32 || float32(w) == 0:
+		ds.Add(row.pos(file, 2), "weight %s is out of range: a weight is kept in single precision, between 1.4e-45 and 3.4e38", quoteClip(strings.TrimSpace(row.Cells[2])))
+	default:
+		return w, true
+	}
+	return 0, false
 }
 
 // idTable numbers the distinct ids of a links file. Edge lists are often
