@@ -53,6 +53,9 @@ type checkReport struct {
 	RecordsGone *int          `json:"records_gone,omitempty"`
 	RecordsNew  *int          `json:"records_new,omitempty"`
 	Warnings    []problemJSON `json:"warnings,omitempty"`
+	// SideBySideNotKept names the side-by-side answers that another
+	// record keeps from holding in full (solve says how many).
+	SideBySideNotKept []recordJSON `json:"side_by_side_not_kept,omitempty"`
 }
 
 // recordJSON is a constraint record named in a --json report.
@@ -85,12 +88,23 @@ func runCheck(e *env, o *checkOptions, args []string) error {
 	}
 	rep := &checkReport{}
 	e.result = rep
-	if _, err := checkRepository(e, p, rep); err != nil {
+	sol, err := checkRepository(e, p, rep)
+	if err != nil {
 		return err
 	}
 	root := p.Outline.Root
 	counts := countRecords(p.Constraints)
 	e.say("ok: %s in %s (depth %d); %s, all holding", plural(len(p.Items), "item", "items"), plural(root.CountCategories(), "category", "categories"), root.Depth(), describeRecords(counts))
+	if n := len(sol.SideBySideNotKept); n > 0 {
+		// Not a failure: every record holds, and the outline is what solve
+		// writes; but an answer's side-by-side part yields to the records.
+		e.say("note: %s not kept in full: parting the items would break another record", plural(n, "side-by-side answer", "side-by-side answers"))
+		for _, i := range sol.SideBySideNotKept {
+			r := sol.Compiled.Records[i]
+			e.say("  %s", describeRecord(r))
+			rep.SideBySideNotKept = append(rep.SideBySideNotKept, recordJSON{By: r.By, File: r.Pos.File, Kind: r.Kind, Line: r.Pos.Line, Note: r.Note})
+		}
+	}
 	return nil
 }
 
