@@ -23,14 +23,14 @@ type SideBySide struct {
 // them, come from one branch per child (items directly in w count as
 // their own child).
 func holdsSideBySide(t *mutableTree, s SideBySide) bool {
-	_, clash := sideBySideClash(t, s)
+	_, _, clash := sideBySideClash(t, s)
 	return !clash
 }
 
-// sideBySideClash finds, for each child subtree of the branches' common
-// ancestor, the branches it holds items of. clash reports whether any
-// holds two or more.
-func sideBySideClash(t *mutableTree, s SideBySide) (map[int32][]int, bool) {
+// sideBySideClash finds w, the common ancestor of the branches' items, and
+// for each child subtree of w the branches it holds items of. clash
+// reports whether any holds two or more.
+func sideBySideClash(t *mutableTree, s SideBySide) (w int32, byChild map[int32][]int, clash bool) {
 	var items []int32
 	for _, b := range s.Branches {
 		for _, x := range b {
@@ -40,14 +40,13 @@ func sideBySideClash(t *mutableTree, s SideBySide) (map[int32][]int, bool) {
 		}
 	}
 	if len(items) < 3 {
-		return nil, false
+		return -1, nil, false
 	}
-	w := items[0]
+	w = items[0]
 	for _, x := range items[1:] {
 		w = t.lca(w, x)
 	}
-	byChild := map[int32][]int{}
-	clash := false
+	byChild = map[int32][]int{}
 	for bi, b := range s.Branches {
 		for _, x := range b {
 			if !t.placed(x) {
@@ -63,7 +62,7 @@ func sideBySideClash(t *mutableTree, s SideBySide) (map[int32][]int, bool) {
 			}
 		}
 	}
-	return byChild, clash
+	return w, byChild, clash
 }
 
 // KeepSideBySide changes t, a solved multiway tree that keeps every record
@@ -91,12 +90,12 @@ func KeepSideBySide(t *Tree, c *Constraints) (kept *Tree, notKept []int) {
 		moved := false
 		notKept = notKept[:0]
 		for _, s := range c.SideBySide {
-			byChild, clash := sideBySideClash(mt, s)
+			w, byChild, clash := sideBySideClash(mt, s)
 			if !clash {
 				continue
 			}
 			trial := mt.clone()
-			liftSideBySide(trial, s, byChild)
+			liftSideBySide(trial, s, w, byChild)
 			if holdsSideBySide(trial, s) && len(Satisfies(trial.compact(), c)) == 0 {
 				mt, moved = trial, true
 				continue
@@ -117,22 +116,10 @@ func KeepSideBySide(t *Tree, c *Constraints) (kept *Tree, notKept []int) {
 // maxSideBySidePasses bounds KeepSideBySide's passes.
 const maxSideBySidePasses = 16
 
-// liftSideBySide moves, in every child subtree of the common ancestor that
-// holds items of several branches, the items of all but the largest
-// branch up into the common ancestor.
-func liftSideBySide(t *mutableTree, s SideBySide, byChild map[int32][]int) {
-	var all []int32
-	for _, b := range s.Branches {
-		for _, x := range b {
-			if t.placed(x) {
-				all = append(all, x)
-			}
-		}
-	}
-	w := all[0]
-	for _, x := range all[1:] {
-		w = t.lca(w, x)
-	}
+// liftSideBySide moves, in every child subtree of the common ancestor w
+// that holds items of several branches, the items of all but the largest
+// branch up into w.
+func liftSideBySide(t *mutableTree, s SideBySide, w int32, byChild map[int32][]int) {
 	children := make([]int32, 0, len(byChild))
 	for ch := range byChild {
 		children = append(children, ch)
