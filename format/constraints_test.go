@@ -243,6 +243,9 @@ func TestParseConstraintsErrors(t *testing.T) {
 			`c.toml:7:1: [[shape]] has no outline; write the approved tree as outline = """..."""`,
 			`c.toml:8:10: packet "no spaces allowed" is not a packet id (the packet file's name without .outline)`,
 		}},
+		{"side_by_side is a boolean", "[[shape]]\noutline = \"\"\"\na\nb\nc\n\"\"\"\nside_by_side = \"yes\"\n", []string{
+			"c.toml:7:1: side_by_side must be true or false, not a string",
+		}},
 		{"unknown record kind", "[[tripplet]]\nx = 1\n[meta]\n", []string{
 			`c.toml:1:1: unknown key "tripplet" in a constraints file (records are [[triplet]], [[group]] and [[shape]]); did you mean "triplet"?`,
 			`c.toml:3:1: unknown key "meta" in a constraints file (records are [[triplet]], [[group]] and [[shape]])`,
