@@ -4,7 +4,8 @@ package format
 // three items, the pair whose lowest common category lies strictly below
 // the third's. Three items that meet in one category resolve nothing. The
 // list is cubic in the outline's size: it is for comparing review packets
-// (a dozen items); project.Compile uses a linear-size set instead.
+// (a dozen items); package format/shape compiles a shape to a linear-size
+// set instead.
 func ShapeTriplets(root *Category) [][3]string {
 	// path[i] is the chain of categories from the root to item i.
 	type placed struct {

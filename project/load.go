@@ -14,6 +14,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/shape"
 )
 
 // SettingsFile is the name of the settings file at a repository's root.
@@ -472,8 +473,8 @@ func (p *Project) pastRecordBudget(cf *format.ConstraintFile, read *int) (format
 	}
 	for _, sh := range cf.Shapes {
 		n := int64(1)
-		if nodes := shapeNodes(sh.Tree, idx); nodes != nil {
-			n = max(n, shapeTripletCount(nodes))
+		if nodes := shape.Nodes(sh.Tree, idx); nodes != nil {
+			n = max(n, nodes.TripletCount())
 		}
 		costs = append(costs, cost{sh.Pos, int(min(n, 1<<40))})
 	}
@@ -486,6 +487,28 @@ func (p *Project) pastRecordBudget(cf *format.ConstraintFile, read *int) (format
 		*read += c.n
 	}
 	return format.Pos{}, false
+}
+
+// shapeProblems reports shapes of a constraint file that would compile to
+// more than shape.MaxTripletsPerItem triplets per item, at the shape's
+// header, before anything is allocated for them.
+func (p *Project) shapeProblems(cf *format.ConstraintFile) format.Diags {
+	var ds format.Diags
+	idx := func(id string) (int32, bool) {
+		i, ok := p.Index[id]
+		return int32(i), ok
+	}
+	for _, s := range cf.Shapes {
+		n := shape.Nodes(s.Tree, idx)
+		if n == nil {
+			continue
+		}
+		items := int64(len(s.Refs))
+		if need, limit := n.TripletCount(), shape.MaxTripletsPerItem*items; need > limit {
+			ds.Add(s.Pos, "this shape needs %d triplets to say; the limit is %d for its %d items (%d each): split it into smaller shapes, or write its categories as [[group]] records", need, limit, items, shape.MaxTripletsPerItem)
+		}
+	}
+	return ds
 }
 
 // checkRefs reports constraint records that name items the repository

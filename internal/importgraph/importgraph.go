@@ -29,7 +29,7 @@ var Layers = [][]string{
 	{"format"},
 	// 2, what reads documents without solving: the graph, comparison,
 	// names, writers.
-	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "internal/realdata"},
+	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "format/shape", "internal/realdata"},
 	// 3, the solver and what builds on comparison and names.
 	{"solve", "diff/concept", "format/rdf", "cmd/bench/stability/stable"},
 	// 4, what runs the solver.

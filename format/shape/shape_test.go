@@ -1,14 +1,12 @@
-package project
+package shape
 
 import (
-	"fmt"
 	"math/rand/v2"
 	"slices"
 	"strconv"
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/solve"
 )
 
 // leafTree is a rooted tree over leaves 0..n-1 as a parent array: nodes
@@ -109,9 +107,9 @@ func (t leafTree) displays(a, b, c int) bool {
 	return t.lcaDepth(a, b) > t.lcaDepth(a, c)
 }
 
-func displaysAll(t leafTree, trips []solve.Triplet) bool {
+func displaysAll(t leafTree, trips [][3]int32) bool {
 	for _, tr := range trips {
-		if !t.displays(int(tr.A), int(tr.B), int(tr.C)) {
+		if !t.displays(int(tr[0]), int(tr[1]), int(tr[2])) {
 			return false
 		}
 	}
@@ -161,7 +159,7 @@ func shapeOf(t leafTree, n int, r *rand.Rand) *format.Category {
 }
 
 // The compiled triplets of a shape mean the same as every triplet the
-// shape resolves (the cubic ShapeTriplets list Compile used before): for
+// shape resolves (the cubic format.ShapeTriplets list): for
 // every shape over up to 6 items and every tree over those items (all
 // rooted trees up to 5 items, all binary trees up to 6, with an item
 // outside the shape too), the tree displays all of one set exactly when
@@ -187,23 +185,24 @@ func TestShapeCompileMeansTheSameTriplets(t *testing.T) {
 				k, err := strconv.Atoi(id[1:])
 				return int32(k), err == nil
 			}
-			var full []solve.Triplet
+			var full [][3]int32
 			for _, tr := range format.ShapeTriplets(root) {
 				a, _ := idx(tr[0])
 				b, _ := idx(tr[1])
 				c, _ := idx(tr[2])
-				full = append(full, solve.Triplet{A: a, B: b, C: c})
+				full = append(full, [3]int32{a, b, c})
 			}
-			nodes := shapeNodes(root, idx)
-			compiled := appendShapeTriplets(nil, nodes, 0)
-			if got := shapeTripletCount(nodes); got != int64(len(compiled)) {
-				t.Fatalf("n=%d shape %d: shapeTripletCount %d, compiled %d", n, si, got, len(compiled))
+			nodes := Nodes(root, idx)
+			var compiled [][3]int32
+			nodes.Triplets(func(a, b, c int32) { compiled = append(compiled, [3]int32{a, b, c}) })
+			if got := nodes.TripletCount(); got != int64(len(compiled)) {
+				t.Fatalf("n=%d shape %d: TripletCount %d, compiled %d", n, si, got, len(compiled))
 			}
 			for _, tr := range compiled {
-				if !slices.ContainsFunc(full, func(f solve.Triplet) bool {
-					return (f.A == tr.A && f.B == tr.B || f.A == tr.B && f.B == tr.A) && f.C == tr.C
+				if !slices.ContainsFunc(full, func(f [3]int32) bool {
+					return (f[0] == tr[0] && f[1] == tr[1] || f[0] == tr[1] && f[1] == tr[0]) && f[2] == tr[2]
 				}) {
-					t.Fatalf("n=%d shape %s: compiled %d%d|%d is not a triplet of the shape", n, outlineText(root), tr.A, tr.B, tr.C)
+					t.Fatalf("n=%d shape %s: compiled %d%d|%d is not a triplet of the shape", n, outlineText(root), tr[0], tr[1], tr[2])
 				}
 			}
 			for _, x := range candidates {
@@ -242,33 +241,7 @@ func TestAllTreesCounts(t *testing.T) {
 	}
 }
 
-// A shape of wide categories that would need more than
-// MaxShapeTripletsPerItem triplets per item is refused at its header.
-func TestShapeProblemsRefusesWideShapes(t *testing.T) {
-	p := &Project{Index: map[string]int{}}
-	root := &format.Category{}
-	// 1,200 pairs under the root: 1,200 × 1,199 triplets, about 600 per
-	// item, more than the limit.
-	for i := 0; i < 1200; i++ {
-		a, b := fmt.Sprintf("a%d", i), fmt.Sprintf("b%d", i)
-		p.Index[a], p.Index[b] = 2*i, 2*i+1
-		root.Children = append(root.Children, &format.Category{Name: "p" + strconv.Itoa(i), Items: []string{a, b}})
-	}
-	refs := make([]format.Ref, 2400)
-	cf := &format.ConstraintFile{Shapes: []format.Shape{{Tree: root, Refs: refs, Pos: format.Pos{File: "constraints/x.toml", Line: 7, Col: 1}}}}
-	ds := p.shapeProblems(cf)
-	if len(ds) != 1 || ds[0].Pos.Line != 7 {
-		t.Fatalf("shapeProblems = %v; want one problem at line 7", ds)
-	}
-	// 100 pairs need 100 × 99 triplets, about 50 per item: accepted.
-	root.Children = root.Children[:100]
-	cf.Shapes[0].Refs = refs[:200]
-	if ds := p.shapeProblems(cf); len(ds) != 0 {
-		t.Fatalf("100 pairs: shapeProblems = %v; want none", ds)
-	}
-}
-
-// resolvedTriplets counts what ShapeTriplets lists, on random shapes.
+// Resolved counts what ShapeTriplets lists, on random shapes.
 func TestResolvedTripletsCount(t *testing.T) {
 	r := rand.New(rand.NewPCG(3, 4))
 	idx := func(id string) (int32, bool) {
@@ -278,8 +251,8 @@ func TestResolvedTripletsCount(t *testing.T) {
 	for n := 3; n <= 6; n++ {
 		for _, st := range allTrees(n, false) {
 			root := shapeOf(st, n, r)
-			if got, want := resolvedTriplets(shapeNodes(root, idx)), int64(len(format.ShapeTriplets(root))); got != want {
-				t.Fatalf("shape %s: resolvedTriplets %d, ShapeTriplets lists %d", outlineText(root), got, want)
+			if got, want := Nodes(root, idx).Resolved(), int64(len(format.ShapeTriplets(root))); got != want {
+				t.Fatalf("shape %s: Resolved %d, ShapeTriplets lists %d", outlineText(root), got, want)
 			}
 		}
 	}
