@@ -16,16 +16,16 @@ import (
 // nil.
 // A conflict among the records comes back as the solver's
 // *solve.ConflictError, naming records by their compiled number.
-func (p *Project) ReviewCommittee(structure string, progress func(stage string, done, total int)) (*review.Committee, *Compiled, error) {
+func ReviewCommittee(p *Project, structure string, progress func(stage string, done, total int)) (*review.Committee, *Compiled, error) {
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	views, err := p.GraphViews(Seed)
+	views, err := GraphViews(p, Seed)
 	if err != nil {
 		return nil, nil, err
 	}
-	compiled := p.Compile()
-	opt := p.CommitteeOptions()
+	compiled := Compile(p)
+	opt := CommitteeOptions(p)
 	opt.Progress = progress
 	if progress != nil {
 		progress("committee of trees", 0, 1)

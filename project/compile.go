@@ -59,7 +59,7 @@ func (c *Compiled) Consistent(n int) error {
 
 // Compile turns every constraint record into solver constraints. It
 // assumes Load reported no unknown items (unknown ids are skipped).
-func (p *Project) Compile() *Compiled {
+func Compile(p *Project) *Compiled {
 	c := &Compiled{Constraints: &solve.Constraints{}}
 	tripletRecords, shapeTriplets := 0, int64(0)
 	idx := func(id string) (int32, bool) {

@@ -10,21 +10,21 @@ import (
 // Graph builds the similarity graph of the settings: one kNN graph per
 // configured source, each normalised and summed with its weight
 // (graph.Combine). Item i of the graph is p.Items[i].
-func (p *Project) Graph(seed uint64) (*graph.CSR, error) {
-	parts, err := p.sourceGraphs(seed)
+func Graph(p *Project, seed uint64) (*graph.CSR, error) {
+	parts, err := sourceGraphs(p, seed)
 	if err != nil {
 		return nil, err
 	}
-	return p.combine(parts)
+	return combine(p, parts)
 }
 
 // sourceGraphs builds the kNN graph of each configured source, in the
 // order of the settings.
-func (p *Project) sourceGraphs(seed uint64) ([]*graph.CSR, error) {
+func sourceGraphs(p *Project, seed uint64) ([]*graph.CSR, error) {
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	var parts []*graph.CSR
 	for _, src := range p.Settings.Similarity.Sources {
-		g, err := p.sourceGraph(b, src)
+		g, err := sourceGraph(p, b, src)
 		if err != nil {
 			return nil, fmt.Errorf("similarity source %q: %w", src.Kind, err)
 		}
@@ -34,7 +34,7 @@ func (p *Project) sourceGraphs(seed uint64) ([]*graph.CSR, error) {
 }
 
 // combine sums the source graphs with the weights of the settings.
-func (p *Project) combine(parts []*graph.CSR) (*graph.CSR, error) {
+func combine(p *Project, parts []*graph.CSR) (*graph.CSR, error) {
 	if len(parts) == 0 {
 		return graph.FromEdges(len(p.Items), nil)
 	}
@@ -45,7 +45,7 @@ func (p *Project) combine(parts []*graph.CSR) (*graph.CSR, error) {
 	return graph.Combine(parts, weights)
 }
 
-func (p *Project) sourceGraph(b graph.Builder, src format.Source) (*graph.CSR, error) {
+func sourceGraph(p *Project, b graph.Builder, src format.Source) (*graph.CSR, error) {
 	n := len(p.Items)
 	switch src.Kind {
 	case format.SourceTags:

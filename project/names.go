@@ -14,7 +14,7 @@ import (
 // name still exists, and the rest get a provisional name from their
 // members' tags and words. carried is naming.Carried(prev, root), or nil
 // without a previous outline.
-func (p *Project) nameCategories(root, prev *format.Category, carried []match.Pair) naming.Counts {
+func nameCategories(p *Project, root, prev *format.Category, carried []match.Pair) naming.Counts {
 	var fixed []naming.Fixed
 	for _, f := range p.Constraints {
 		for _, g := range f.Groups {
@@ -23,7 +23,7 @@ func (p *Project) nameCategories(root, prev *format.Category, carried []match.Pa
 			}
 		}
 	}
-	words := p.namingWords()
+	words := namingWords(p)
 	var typed []naming.Typed
 	for _, src := range p.NameSources {
 		typed = append(typed, TypedNames(src)...)
@@ -65,7 +65,7 @@ func TypedNames(tree *format.Category) []naming.Typed {
 // data, not from a list. When no item has a label, every description word
 // may name. Plurals are folded (graph.PluralStem) so that "chairs" and
 // "chair" count as one word.
-func (p *Project) namingWords() func(id string) []string {
+func namingWords(p *Project) func(id string) []string {
 	naming := map[string]bool{}
 	for _, it := range p.Items {
 		for _, tok := range graph.Tokens(it.Label) {

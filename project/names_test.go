@@ -15,7 +15,7 @@ func TestNamingWordsKeepWordsThatName(t *testing.T) {
 		{ID: "a", Label: "claw hammer", Tags: []string{"striking"}, Text: "usually used for nails; a kind of mallet"},
 		{ID: "b", Label: "rubber mallet", Text: "used on tiles"},
 	}, Index: map[string]int{"a": 0, "b": 1}}
-	words := p.namingWords()
+	words := namingWords(p)
 	if got, want := words("a"), []string{"striking", "claw", "hammer", "mallet"}; !slices.Equal(got, want) {
 		t.Errorf("namingWords(a) = %q, want %q", got, want)
 	}
@@ -24,7 +24,7 @@ func TestNamingWordsKeepWordsThatName(t *testing.T) {
 	}
 	// Without labels, every description word may name.
 	q := &Project{Items: []format.Item{{ID: "a", Text: "usually used for nails"}}, Index: map[string]int{"a": 0}}
-	if got, want := q.namingWords()("a"), []string{"usually", "used", "nail"}; !slices.Equal(got, want) {
+	if got, want := namingWords(q)("a"), []string{"usually", "used", "nail"}; !slices.Equal(got, want) {
 		t.Errorf("namingWords without labels = %q, want %q", got, want)
 	}
 }

@@ -40,7 +40,7 @@ func regenerateDir(t *testing.T, dir string) []byte {
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}
-	sol, err := p.Regenerate(MethodConstrained, nil)
+	sol, err := Regenerate(p, MethodConstrained, nil)
 	if err != nil {
 		t.Fatal(err)
 	}

@@ -103,8 +103,8 @@ const LocalShare = 0.10
 // Regenerate solves the taxonomy from the project's inputs. progress may
 // be nil. The previous outline (if any) gives names and, with stability,
 // a pull toward the previous shape.
-func (p *Project) Regenerate(method Method, progress func(stage string, done, total int)) (*Solution, error) {
-	return p.RegenerateWith(RegenOptions{Method: method, Progress: progress})
+func Regenerate(p *Project, method Method, progress func(stage string, done, total int)) (*Solution, error) {
+	return RegenerateWith(p, RegenOptions{Method: method, Progress: progress})
 }
 
 // RegenerateWith solves the taxonomy. What stability means: among the
@@ -119,30 +119,30 @@ func (p *Project) Regenerate(method Method, progress func(stage string, done, to
 // happens with --rebuild, on the first solve, after an import, and when
 // over LocalShare of the items are new or gone; Solution.Mode and Reason
 // say which happened and why.
-func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
+func RegenerateWith(p *Project, ro RegenOptions) (*Solution, error) {
 	start := time.Now()
 	progress := ro.Progress
 	if len(p.Items) == 0 {
-		return nil, errors.New("there are no items yet; add some to " + p.itemsFilesText())
+		return nil, errors.New("there are no items yet; add some to " + itemsFilesText(p))
 	}
-	compiled := p.Compile()
+	compiled := Compile(p)
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	g, err := p.Graph(Seed)
+	g, err := Graph(p, Seed)
 	if err != nil {
 		return nil, err
 	}
 	if progress != nil {
 		progress("similarity graph", 1, 1)
 	}
-	opt := p.CommitteeOptions()
+	opt := CommitteeOptions(p)
 	opt.Stability = p.Settings.Taxonomy.Stability
 	opt.Progress = progress
 	ids := p.ItemIDs()
 	keys := p.RecordKeys()
 	sol := &Solution{Graph: g, Compiled: compiled}
-	tree, err := p.solveTree(ro, g, compiled, opt, ids, keys, sol)
+	tree, err := solveTree(p, ro, g, compiled, opt, ids, keys, sol)
 	if err != nil {
 		return nil, err
 	}
@@ -159,7 +159,7 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 		carried = naming.Carried(prev, root)
 		matched = append(matched, concept.Matched{Prev: prev, Pairs: carried})
 	}
-	p.nameCategories(root, prev, carried)
+	nameCategories(p, root, prev, carried)
 	for _, src := range p.NameSources {
 		if src != nil {
 			matched = append(matched, concept.Matched{Prev: src, Pairs: naming.Carried(src, root)})
@@ -177,10 +177,10 @@ func (p *Project) RegenerateWith(ro RegenOptions) (*Solution, error) {
 // solveTree makes the tree over item indices: the local re-solve of the
 // previous outline when the change is small, else a rebuild, then the
 // side-by-side answers kept. It records in sol how the tree came about.
-func (p *Project) solveTree(ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, keys []format.OutlineRecord, sol *Solution) (*solve.Tree, error) {
+func solveTree(p *Project, ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, keys []format.OutlineRecord, sol *Solution) (*solve.Tree, error) {
 	var tree *solve.Tree
 	var err error
-	plan, reason := p.localPlan(ro, keys, compiled)
+	plan, reason := planLocal(p, ro, keys, compiled)
 	if plan != nil {
 		if err := compiled.Consistent(len(p.Items)); err != nil {
 			return nil, err
@@ -203,7 +203,7 @@ func (p *Project) solveTree(ro RegenOptions, g *graph.CSR, compiled *Compiled, o
 		}
 	} else {
 		sol.Mode, sol.Reason = ModeRebuild, reason
-		tree, err = p.rebuild(ro.Method, g, compiled, opt, ids)
+		tree, err = rebuild(p, ro.Method, g, compiled, opt, ids)
 		if err != nil {
 			return nil, err
 		}
@@ -227,7 +227,7 @@ func (p *Project) solveTree(ro RegenOptions, g *graph.CSR, compiled *Compiled, o
 // the new tree toward itself, so solving twice could move a few items the
 // second time. Each round therefore takes the previous round's tree as
 // the prior until the shape settles.
-func (p *Project) rebuild(method Method, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string) (*solve.Tree, error) {
+func rebuild(p *Project, method Method, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string) (*solve.Tree, error) {
 	var prior *format.Category
 	if p.Outline != nil {
 		prior = p.Outline.Root
@@ -237,7 +237,7 @@ func (p *Project) rebuild(method Method, g *graph.CSR, compiled *Compiled, opt s
 		if prior != nil {
 			opt.Prior = PriorClusters(prior, p.Index)
 		}
-		t, err := p.build(method, g, compiled, opt)
+		t, err := build(p, method, g, compiled, opt)
 		if err != nil {
 			return nil, err
 		}
@@ -262,9 +262,9 @@ type localPlan struct {
 	change solve.Change
 }
 
-// localPlan decides whether a local re-solve applies; when not, it says
+// planLocal decides whether a local re-solve applies; when not, it says
 // why the tree is rebuilt.
-func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord, compiled *Compiled) (*localPlan, string) {
+func planLocal(p *Project, ro RegenOptions, keys []format.OutlineRecord, compiled *Compiled) (*localPlan, string) {
 	switch {
 	case ro.Method == MethodAverage:
 		return nil, "the average-linkage baseline is always built from scratch"
@@ -314,7 +314,7 @@ func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord, compil
 		}
 	}
 	return &localPlan{
-		prev:   CategoryTree(p.dissolveShrunk(p.Outline.Root), p.Index, len(p.Items)),
+		prev:   CategoryTree(dissolveShrunk(p, p.Outline.Root), p.Index, len(p.Items)),
 		change: solve.Change{Freed: slices.Compact(freed), Whole: whole},
 	}, ""
 }
@@ -324,7 +324,7 @@ func (p *Project) localPlan(ro RegenOptions, keys []format.OutlineRecord, compil
 // min_size hands what is left to its parent: a shelf emptied down to one
 // tool is no shelf any more. Categories that lost nothing stay as they are,
 // however small.
-func (p *Project) dissolveShrunk(root *format.Category) *format.Category {
+func dissolveShrunk(p *Project, root *format.Category) *format.Category {
 	minSize := p.Settings.Taxonomy.MinSize
 	out := root.Clone()
 	var rec func(c *format.Category) (known int, lost bool)
@@ -361,7 +361,7 @@ func (p *Project) dissolveShrunk(root *format.Category) *format.Category {
 const maxSettleRounds = 4
 
 // build runs one construction with the chosen method.
-func (p *Project) build(method Method, g *graph.CSR, compiled *Compiled, opt solve.Options) (*solve.Tree, error) {
+func build(p *Project, method Method, g *graph.CSR, compiled *Compiled, opt solve.Options) (*solve.Tree, error) {
 	if method == MethodAverage {
 		res, err := solve.Baseline(g, opt)
 		if err != nil {
@@ -376,7 +376,7 @@ func (p *Project) build(method Method, g *graph.CSR, compiled *Compiled, opt sol
 	return res.Taxonomy, nil
 }
 
-func (p *Project) itemsFilesText() string {
+func itemsFilesText(p *Project) string {
 	if len(p.Settings.Items.Files) == 1 {
 		return p.Settings.Items.Files[0]
 	}

@@ -6,7 +6,7 @@ import "github.com/ramify-tax/ramify/solve"
 // pull toward the previous outline: what the review committee solves each
 // of its trees with, so that support measures the data and the decisions
 // alone.
-func (p *Project) CommitteeOptions() solve.Options {
+func CommitteeOptions(p *Project) solve.Options {
 	return solve.Options{
 		MinSize:     p.Settings.Taxonomy.MinSize,
 		MaxChildren: p.Settings.Taxonomy.MaxChildren,

@@ -17,11 +17,11 @@ type SourceGraph struct {
 // SourceGraphs builds each configured source's graph on its own, so that
 // a similarity in the combined graph can be traced to where it comes
 // from. It gives the same graphs Graph sums.
-func (p *Project) SourceGraphs(seed uint64) ([]SourceGraph, error) {
+func SourceGraphs(p *Project, seed uint64) ([]SourceGraph, error) {
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	var out []SourceGraph
 	for _, src := range p.Settings.Similarity.Sources {
-		g, err := p.sourceGraph(b, src)
+		g, err := sourceGraph(p, b, src)
 		if err != nil {
 			return nil, fmt.Errorf("similarity source %q: %w", src.Kind, err)
 		}

@@ -23,30 +23,30 @@ type View struct {
 // alone when there are several, and for a text source the label channels
 // (head words and character grams), the head words alone and the
 // description apart, when items have both labels and descriptions. A view with no edges at all is
-// left out. all is the graph Graph(seed) returns, passed in so it is built
+// left out. all is the graph Graph(p, seed) returns, passed in so it is built
 // once; GraphViews builds both and each source's graph only once.
-func (p *Project) Views(seed uint64, all *graph.CSR) ([]View, error) {
-	return p.views(seed, all, nil)
+func Views(p *Project, seed uint64, all *graph.CSR) ([]View, error) {
+	return listViews(p, seed, all, nil)
 }
 
 // GraphViews returns the views with the graph solve uses first, as Views
 // does, building each source's graph once for both the combined graph and
 // the source's own view.
-func (p *Project) GraphViews(seed uint64) ([]View, error) {
-	parts, err := p.sourceGraphs(seed)
+func GraphViews(p *Project, seed uint64) ([]View, error) {
+	parts, err := sourceGraphs(p, seed)
 	if err != nil {
 		return nil, err
 	}
-	all, err := p.combine(parts)
+	all, err := combine(p, parts)
 	if err != nil {
 		return nil, err
 	}
-	return p.views(seed, all, parts)
+	return listViews(p, seed, all, parts)
 }
 
-// views lists the views; parts, when not nil, are the sources' graphs
+// listViews lists the views; parts, when not nil, are the sources' graphs
 // already built (sourceGraphs).
-func (p *Project) views(seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View, error) {
+func listViews(p *Project, seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View, error) {
 	views := []View{{Name: "all", Graph: all}}
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	add := func(name string, g *graph.CSR, err error) error {
@@ -66,13 +66,13 @@ func (p *Project) views(seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View
 			if parts != nil {
 				g = parts[i]
 			} else {
-				g, err = p.sourceGraph(b, src)
+				g, err = sourceGraph(p, b, src)
 			}
 			if err := add(src.Kind, g, err); err != nil {
 				return nil, err
 			}
 		}
-		if src.Kind != format.SourceText || !p.hasLabelsAndText() {
+		if src.Kind != format.SourceText || !hasLabelsAndText(p) {
 			continue
 		}
 		labels := make([]string, len(p.Items))
@@ -104,7 +104,7 @@ func (p *Project) views(seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View
 
 // hasLabelsAndText reports whether some item has a label and some item a
 // description, so that each alone says something.
-func (p *Project) hasLabelsAndText() bool {
+func hasLabelsAndText(p *Project) bool {
 	label, text := false, false
 	for _, it := range p.Items {
 		label = label || it.Label != ""

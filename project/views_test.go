@@ -32,7 +32,7 @@ func TestViewsOfTheDemo(t *testing.T) {
 // Graph and Views build apart, edge for edge.
 func TestGraphViewsSameAsApart(t *testing.T) {
 	p, _, apart := demoViews(t)
-	together, err := p.GraphViews(Seed)
+	together, err := GraphViews(p, Seed)
 	if err != nil {
 		t.Fatal(err)
 	}
@@ -57,11 +57,11 @@ func demoViews(t *testing.T) (*Project, *graph.CSR, []View) {
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}
-	g, err := p.Graph(Seed)
+	g, err := Graph(p, Seed)
 	if err != nil {
 		t.Fatal(err)
 	}
-	views, err := p.Views(Seed, g)
+	views, err := Views(p, Seed, g)
 	if err != nil {
 		t.Fatal(err)
 	}

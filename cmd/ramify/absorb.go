@@ -171,7 +171,7 @@ func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) e
 		return nil
 	}
 	p.Constraints = append(p.Constraints, added...)
-	compiled := p.Compile()
+	compiled := project.Compile(p)
 	if err := compiled.Consistent(len(p.Items)); err != nil {
 		return solveError(e, err)
 	}

@@ -81,7 +81,7 @@ func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewer
 // one); the similarities pick the representatives the solver will find
 // hardest to move (see review.PinMoves).
 func itemAffinity(p *project.Project) (func(a, b string) float64, error) {
-	g, err := p.Graph(project.Seed)
+	g, err := project.Graph(p, project.Seed)
 	if err != nil {
 		return nil, err
 	}
@@ -153,7 +153,7 @@ func (h *handEdit) placeFile(cf *format.ConstraintFile, pinOf, shapeOf []string,
 // pins, which can reshape the tree around the edit, so the editor is told
 // which earlier record to remove if the edit replaces it.
 func brokenByEdit(p *project.Project, edited *format.Category) []project.Record {
-	compiled := p.Compile()
+	compiled := project.Compile(p)
 	tree := project.FromCategory(edited, p.Index, len(p.Items))
 	var out []project.Record
 	for _, i := range solve.Satisfies(tree, compiled.Constraints) {

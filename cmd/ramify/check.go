@@ -140,7 +140,7 @@ func checkRepository(e *env, p *project.Project, rep *checkReport) (*project.Sol
 	if err := checkConstraints(e, p); err != nil {
 		return nil, err
 	}
-	sol, err := p.Regenerate(project.MethodConstrained, e.progressFunc())
+	sol, err := project.Regenerate(p, project.MethodConstrained, e.progressFunc())
 	e.endProgress()
 	if err != nil {
 		return nil, solveError(e, err)
@@ -169,7 +169,7 @@ func checkRepository(e *env, p *project.Project, rep *checkReport) (*project.Sol
 // checkConstraints fails when the records contradict each other or the
 // committed outline breaks one of them, naming each record.
 func checkConstraints(e *env, p *project.Project) error {
-	compiled := p.Compile()
+	compiled := project.Compile(p)
 	if err := compiled.Consistent(len(p.Items)); err != nil {
 		return solveError(e, err)
 	}

@@ -147,11 +147,11 @@ func explainInput(e *env, o *explainOptions, p *project.Project) (explain.Input,
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	g, err := p.Graph(project.Seed)
+	g, err := project.Graph(p, project.Seed)
 	if err != nil {
 		return explain.Input{}, err
 	}
-	sources, err := p.SourceGraphs(project.Seed)
+	sources, err := project.SourceGraphs(p, project.Seed)
 	if err != nil {
 		return explain.Input{}, err
 	}
@@ -172,7 +172,7 @@ func explainInput(e *env, o *explainOptions, p *project.Project) (explain.Input,
 		}
 		q := unpulled(p)
 		q.Constraints = nil
-		sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
+		sol, err := project.RegenerateWith(q, project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
 		if err != nil {
 			return explain.Input{}, err
 		}
@@ -196,7 +196,7 @@ func solverWithout(p *project.Project, records int, progress func(stage string, 
 		}
 		q := unpulled(p)
 		q.Constraints = withoutRecord(p.Constraints, r)
-		sol, err := q.RegenerateWith(project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
+		sol, err := project.RegenerateWith(q, project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
 		if err != nil {
 			return nil, err
 		}

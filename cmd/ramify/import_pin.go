@@ -65,7 +65,7 @@ func firstSolvePreview(dir string, imported *format.Category) (moved, kept, tota
 	if len(ds) > 0 {
 		return 0, 0, 0, 0, ds
 	}
-	sol, err := p.Regenerate(project.MethodConstrained, nil)
+	sol, err := project.Regenerate(p, project.MethodConstrained, nil)
 	if err != nil {
 		return 0, 0, 0, 0, err
 	}

@@ -158,7 +158,7 @@ func (m *outlineMerge) run(e *env) error {
 	if err != nil {
 		return err
 	}
-	sol, err := p.Regenerate(project.MethodConstrained, nil)
+	sol, err := project.Regenerate(p, project.MethodConstrained, nil)
 	if err != nil {
 		var ce *project.ConflictError
 		if !errors.As(err, &ce) {

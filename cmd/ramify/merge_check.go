@@ -133,7 +133,7 @@ func checkMergedRepo(e *env, top, repo string) []string {
 		}
 		return lines
 	}
-	compiled := p.Compile()
+	compiled := project.Compile(p)
 	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
 		lines := []string{fmt.Sprintf("ramify: the merge makes %d constraint records contradict each other:", len(recs))}
 		for _, r := range recs {

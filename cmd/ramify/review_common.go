@@ -132,7 +132,7 @@ func currentTaxonomy(p *project.Project, what string) (string, error) {
 // comes from the structure hash, so the same taxonomy always gets the same
 // committee.
 func reviewCommittee(e *env, p *project.Project, structure string) (*review.Committee, error) {
-	c, compiled, err := p.ReviewCommittee(structure, e.progressFunc())
+	c, compiled, err := project.ReviewCommittee(p, structure, e.progressFunc())
 	e.endProgress()
 	if err != nil {
 		if compiled == nil {

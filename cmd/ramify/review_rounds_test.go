@@ -48,7 +48,7 @@ func TestReviewRoundsKeepApprovedPackets(t *testing.T) {
 		if len(ds) > 0 {
 			t.Fatalf("round %d: %v", round, ds)
 		}
-		compiled := p.Compile()
+		compiled := project.Compile(p)
 		tree := project.FromCategory(p.Outline.Root, p.Index, len(p.Items))
 		broken := map[string]bool{}
 		for _, r := range solve.Satisfies(tree, compiled.Constraints) {

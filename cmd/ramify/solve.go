@@ -119,7 +119,7 @@ func runSolve(e *env, o *solveOptions, args []string) error {
 	if err := checkGroupNames(p); err != nil {
 		return err
 	}
-	sol, err := p.RegenerateWith(project.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc()})
+	sol, err := project.RegenerateWith(p, project.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc()})
 	e.endProgress()
 	if err != nil {
 		return solveError(e, err)

@@ -125,7 +125,7 @@ func measure(s *realdata.Set, method project.Method, settings string) (row, erro
 	if len(ds) > 0 {
 		return row{}, ds
 	}
-	sol, err := p.Regenerate(method, nil)
+	sol, err := project.Regenerate(p, method, nil)
 	if err != nil {
 		return row{}, err
 	}

@@ -103,7 +103,7 @@ func runStage(dir, stage string) {
 	}
 	r := result{Stage: stage}
 	if stage == "graph" {
-		g, err := p.Graph(project.Seed)
+		g, err := project.Graph(p, project.Seed)
 		if err != nil {
 			fail(err)
 		}

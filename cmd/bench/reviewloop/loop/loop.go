@@ -188,7 +188,7 @@ func load(dir string) (*project.Project, *solve.Tree, error) {
 // and scores its per-item uncertainty against the misplaced items.
 func uncertaintyAUC(p *project.Project, tree, ref *solve.Tree) (float64, error) {
 	structure := format.StructureHash(p.Outline.Root)
-	c, _, err := p.ReviewCommittee(structure, nil)
+	c, _, err := project.ReviewCommittee(p, structure, nil)
 	if err != nil {
 		return 0, err
 	}
