@@ -1,6 +1,7 @@
 package project
 
 import (
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
@@ -16,7 +17,7 @@ import (
 // nil.
 // A conflict among the records comes back as the solver's
 // *solve.ConflictError, naming records by their compiled number.
-func ReviewCommittee(p *Project, structure string, progress func(stage string, done, total int)) (*review.Committee, *Compiled, error) {
+func ReviewCommittee(p *repo.Repo, structure string, progress func(stage string, done, total int)) (*review.Committee, *Compiled, error) {
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}

@@ -5,6 +5,7 @@ import (
 	"slices"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/format/shape"
 	"github.com/ramify-tax/ramify/solve"
 )
@@ -18,7 +19,7 @@ type Record struct {
 }
 
 // Compiled holds the constraint records turned into triplets and clusters
-// over item indices (positions in Project.Items).
+// over item indices (positions in repo.Repo.Items).
 type Compiled struct {
 	Constraints *solve.Constraints
 	Records     []Record
@@ -58,8 +59,8 @@ func (c *Compiled) Consistent(n int) error {
 }
 
 // Compile turns every constraint record into solver constraints. It
-// assumes Load reported no unknown items (unknown ids are skipped).
-func Compile(p *Project) *Compiled {
+// assumes repo.Load reported no unknown items (unknown ids are skipped).
+func Compile(p *repo.Repo) *Compiled {
 	c := &Compiled{Constraints: &solve.Constraints{}}
 	tripletRecords, shapeTriplets := 0, int64(0)
 	idx := func(id string) (int32, bool) {

@@ -4,13 +4,14 @@ import (
 	"fmt"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
 // Graph builds the similarity graph of the settings: one kNN graph per
 // configured source, each normalised and summed with its weight
 // (graph.Combine). Item i of the graph is p.Items[i].
-func Graph(p *Project, seed uint64) (*graph.CSR, error) {
+func Graph(p *repo.Repo, seed uint64) (*graph.CSR, error) {
 	parts, err := sourceGraphs(p, seed)
 	if err != nil {
 		return nil, err
@@ -20,7 +21,7 @@ func Graph(p *Project, seed uint64) (*graph.CSR, error) {
 
 // sourceGraphs builds the kNN graph of each configured source, in the
 // order of the settings.
-func sourceGraphs(p *Project, seed uint64) ([]*graph.CSR, error) {
+func sourceGraphs(p *repo.Repo, seed uint64) ([]*graph.CSR, error) {
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	var parts []*graph.CSR
 	for _, src := range p.Settings.Similarity.Sources {
@@ -34,7 +35,7 @@ func sourceGraphs(p *Project, seed uint64) ([]*graph.CSR, error) {
 }
 
 // combine sums the source graphs with the weights of the settings.
-func combine(p *Project, parts []*graph.CSR) (*graph.CSR, error) {
+func combine(p *repo.Repo, parts []*graph.CSR) (*graph.CSR, error) {
 	if len(parts) == 0 {
 		return graph.FromEdges(len(p.Items), nil)
 	}
@@ -45,7 +46,7 @@ func combine(p *Project, parts []*graph.CSR) (*graph.CSR, error) {
 	return graph.Combine(parts, weights)
 }
 
-func sourceGraph(p *Project, b graph.Builder, src format.Source) (*graph.CSR, error) {
+func sourceGraph(p *repo.Repo, b graph.Builder, src format.Source) (*graph.CSR, error) {
 	n := len(p.Items)
 	switch src.Kind {
 	case format.SourceTags:
@@ -96,7 +97,7 @@ func sourceGraph(p *Project, b graph.Builder, src format.Source) (*graph.CSR, er
 		if t == nil {
 			return graph.Links(n, nil)
 		}
-		return graph.LinkColumns(n, p.linkedItems(t), t.A, t.B, t.Weight)
+		return graph.LinkColumns(n, p.LinkItems(t), t.A, t.B, t.Weight)
 	}
 	return nil, fmt.Errorf("unknown kind")
 }

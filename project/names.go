@@ -3,6 +3,7 @@ package project
 import (
 	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/naming"
 )
@@ -14,7 +15,7 @@ import (
 // name still exists, and the rest get a provisional name from their
 // members' tags and words. carried is naming.Carried(prev, root), or nil
 // without a previous outline.
-func nameCategories(p *Project, root, prev *format.Category, carried []match.Pair) naming.Counts {
+func nameCategories(p *repo.Repo, root, prev *format.Category, carried []match.Pair) naming.Counts {
 	var fixed []naming.Fixed
 	for _, f := range p.Constraints {
 		for _, g := range f.Groups {
@@ -65,7 +66,7 @@ func TypedNames(tree *format.Category) []naming.Typed {
 // data, not from a list. When no item has a label, every description word
 // may name. Plurals are folded (graph.PluralStem) so that "chairs" and
 // "chair" count as one word.
-func namingWords(p *Project) func(id string) []string {
+func namingWords(p *repo.Repo) func(id string) []string {
 	naming := map[string]bool{}
 	for _, it := range p.Items {
 		for _, tok := range graph.Tokens(it.Label) {

@@ -5,13 +5,14 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 // Description words that stand in no item's label ("used", "usually")
 // cannot name a category; label words, tags and description words that
 // some label holds can. Plurals fold into their singular.
 func TestNamingWordsKeepWordsThatName(t *testing.T) {
-	p := &Project{Items: []format.Item{
+	p := &repo.Repo{Items: []format.Item{
 		{ID: "a", Label: "claw hammer", Tags: []string{"striking"}, Text: "usually used for nails; a kind of mallet"},
 		{ID: "b", Label: "rubber mallet", Text: "used on tiles"},
 	}, Index: map[string]int{"a": 0, "b": 1}}
@@ -23,7 +24,7 @@ func TestNamingWordsKeepWordsThatName(t *testing.T) {
 		t.Errorf("namingWords(b) = %q, want %q", got, want)
 	}
 	// Without labels, every description word may name.
-	q := &Project{Items: []format.Item{{ID: "a", Text: "usually used for nails"}}, Index: map[string]int{"a": 0}}
+	q := &repo.Repo{Items: []format.Item{{ID: "a", Text: "usually used for nails"}}, Index: map[string]int{"a": 0}}
 	if got, want := namingWords(q)("a"), []string{"usually", "used", "nail"}; !slices.Equal(got, want) {
 		t.Errorf("namingWords without labels = %q, want %q", got, want)
 	}

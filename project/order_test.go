@@ -8,6 +8,7 @@ import (
 	"strings"
 	"testing"
 
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/realdata"
 )
 
@@ -26,7 +27,7 @@ func solveItems(t *testing.T, files map[string]string) []byte {
 	// Listing order of the files is part of what may vary.
 	rand.Shuffle(len(names), func(i, j int) { names[i], names[j] = names[j], names[i] })
 	settings := "[items]\nfiles = [" + strings.Join(names, ", ") + "]\n\n[[similarity.source]]\nkind = \"text\"\n"
-	if err := os.WriteFile(filepath.Join(dir, SettingsFile), []byte(settings), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, repo.SettingsFile), []byte(settings), 0o644); err != nil {
 		t.Fatal(err)
 	}
 	return regenerateDir(t, dir)
@@ -36,7 +37,7 @@ func solveItems(t *testing.T, files map[string]string) []byte {
 // solve from scratch writes.
 func regenerateDir(t *testing.T, dir string) []byte {
 	t.Helper()
-	p, ds := Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

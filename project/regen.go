@@ -1,3 +1,9 @@
+// Package project regenerates the taxonomy of a repository loaded by
+// format/repo: it compiles the constraint records into the solver's
+// triplets and clusters, builds the similarity graph and the committee's
+// views of the items, solves (a local re-solve of the previous outline
+// when the change is small, a rebuild otherwise), names the categories
+// and carries their concept identifiers, and formats the outline.
 package project
 
 import (
@@ -11,18 +17,28 @@ import (
 	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/naming"
 )
 
-// HandEditPrefix begins the name of every constraint file that absorb
-// writes for hand edits of the outline (constraints/edit-HASH.toml).
-const HandEditPrefix = "edit-"
-
 // Seed fixes every pseudo-random choice of a regeneration, so the same
 // inputs give the same outline on every machine.
 const Seed uint64 = 0x7261_6d69_6679
+
+// CommitteeOptions are the solver options of a regeneration without the
+// pull toward the previous outline: what the review committee solves each
+// of its trees with, so that support measures the data and the decisions
+// alone.
+func CommitteeOptions(p *repo.Repo) solve.Options {
+	return solve.Options{
+		MinSize:     p.Settings.Taxonomy.MinSize,
+		MaxChildren: p.Settings.Taxonomy.MaxChildren,
+		MaxDepth:    p.Settings.Taxonomy.MaxDepth,
+		Seed:        Seed,
+	}
+}
 
 // Method chooses how the tree is built.
 type Method string
@@ -103,7 +119,7 @@ const LocalShare = 0.10
 // Regenerate solves the taxonomy from the project's inputs. progress may
 // be nil. The previous outline (if any) gives names and, with stability,
 // a pull toward the previous shape.
-func Regenerate(p *Project, method Method, progress func(stage string, done, total int)) (*Solution, error) {
+func Regenerate(p *repo.Repo, method Method, progress func(stage string, done, total int)) (*Solution, error) {
 	return RegenerateWith(p, RegenOptions{Method: method, Progress: progress})
 }
 
@@ -119,7 +135,7 @@ func Regenerate(p *Project, method Method, progress func(stage string, done, tot
 // happens with --rebuild, on the first solve, after an import, and when
 // over LocalShare of the items are new or gone; Solution.Mode and Reason
 // say which happened and why.
-func RegenerateWith(p *Project, ro RegenOptions) (*Solution, error) {
+func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 	start := time.Now()
 	progress := ro.Progress
 	if len(p.Items) == 0 {
@@ -177,7 +193,7 @@ func RegenerateWith(p *Project, ro RegenOptions) (*Solution, error) {
 // solveTree makes the tree over item indices: the local re-solve of the
 // previous outline when the change is small, else a rebuild, then the
 // side-by-side answers kept. It records in sol how the tree came about.
-func solveTree(p *Project, ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, keys []format.OutlineRecord, sol *Solution) (*solve.Tree, error) {
+func solveTree(p *repo.Repo, ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, keys []format.OutlineRecord, sol *Solution) (*solve.Tree, error) {
 	var tree *solve.Tree
 	var err error
 	plan, reason := planLocal(p, ro, keys, compiled)
@@ -227,7 +243,7 @@ func solveTree(p *Project, ro RegenOptions, g *graph.CSR, compiled *Compiled, op
 // the new tree toward itself, so solving twice could move a few items the
 // second time. Each round therefore takes the previous round's tree as
 // the prior until the shape settles.
-func rebuild(p *Project, method Method, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string) (*solve.Tree, error) {
+func rebuild(p *repo.Repo, method Method, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string) (*solve.Tree, error) {
 	var prior *format.Category
 	if p.Outline != nil {
 		prior = p.Outline.Root
@@ -264,7 +280,7 @@ type localPlan struct {
 
 // planLocal decides whether a local re-solve applies; when not, it says
 // why the tree is rebuilt.
-func planLocal(p *Project, ro RegenOptions, keys []format.OutlineRecord, compiled *Compiled) (*localPlan, string) {
+func planLocal(p *repo.Repo, ro RegenOptions, keys []format.OutlineRecord, compiled *Compiled) (*localPlan, string) {
 	switch {
 	case ro.Method == MethodAverage:
 		return nil, "the average-linkage baseline is always built from scratch"
@@ -309,7 +325,7 @@ func planLocal(p *Project, ro RegenOptions, keys []format.OutlineRecord, compile
 	// Records of hand edits are mended by moving what the editor moved.
 	whole := map[int]bool{}
 	for i, r := range compiled.Records {
-		if strings.HasPrefix(path.Base(r.Pos.File), HandEditPrefix) {
+		if strings.HasPrefix(path.Base(r.Pos.File), repo.HandEditPrefix) {
 			whole[i] = true
 		}
 	}
@@ -324,7 +340,7 @@ func planLocal(p *Project, ro RegenOptions, keys []format.OutlineRecord, compile
 // min_size hands what is left to its parent: a shelf emptied down to one
 // tool is no shelf any more. Categories that lost nothing stay as they are,
 // however small.
-func dissolveShrunk(p *Project, root *format.Category) *format.Category {
+func dissolveShrunk(p *repo.Repo, root *format.Category) *format.Category {
 	minSize := p.Settings.Taxonomy.MinSize
 	out := root.Clone()
 	var rec func(c *format.Category) (known int, lost bool)
@@ -361,7 +377,7 @@ func dissolveShrunk(p *Project, root *format.Category) *format.Category {
 const maxSettleRounds = 4
 
 // build runs one construction with the chosen method.
-func build(p *Project, method Method, g *graph.CSR, compiled *Compiled, opt solve.Options) (*solve.Tree, error) {
+func build(p *repo.Repo, method Method, g *graph.CSR, compiled *Compiled, opt solve.Options) (*solve.Tree, error) {
 	if method == MethodAverage {
 		res, err := solve.Baseline(g, opt)
 		if err != nil {
@@ -376,7 +392,7 @@ func build(p *Project, method Method, g *graph.CSR, compiled *Compiled, opt solv
 	return res.Taxonomy, nil
 }
 
-func itemsFilesText(p *Project) string {
+func itemsFilesText(p *repo.Repo) string {
 	if len(p.Settings.Items.Files) == 1 {
 		return p.Settings.Items.Files[0]
 	}

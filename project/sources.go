@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -17,7 +18,7 @@ type SourceGraph struct {
 // SourceGraphs builds each configured source's graph on its own, so that
 // a similarity in the combined graph can be traced to where it comes
 // from. It gives the same graphs Graph sums.
-func SourceGraphs(p *Project, seed uint64) ([]SourceGraph, error) {
+func SourceGraphs(p *repo.Repo, seed uint64) ([]SourceGraph, error) {
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	var out []SourceGraph
 	for _, src := range p.Settings.Similarity.Sources {

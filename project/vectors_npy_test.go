@@ -12,6 +12,8 @@ import (
 	"github.com/parquet-go/parquet-go"
 	"github.com/sbinet/npyio"
 	"gonum.org/v1/gonum/mat"
+
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 // embeddingData is generated test data: 36 items around three random
@@ -65,7 +67,7 @@ func solveVectors(t *testing.T, e *embeddingData, files map[string][]byte, vecto
 	t.Helper()
 	dir := t.TempDir()
 	files["items.tsv"] = []byte(e.items)
-	files[SettingsFile] = []byte("[items]\nfiles = [\"items.tsv\"]\n" + vectors + "\n[[similarity.source]]\nkind = \"vector\"\n")
+	files[repo.SettingsFile] = []byte("[items]\nfiles = [\"items.tsv\"]\n" + vectors + "\n[[similarity.source]]\nkind = \"vector\"\n")
 	for name, body := range files {
 		if err := os.WriteFile(filepath.Join(dir, name), body, 0o644); err != nil {
 			t.Fatal(err)
@@ -171,15 +173,15 @@ func TestParquetVectorsBadFile(t *testing.T) {
 	dir := t.TempDir()
 	e := makeEmbeddings()
 	for name, body := range map[string]string{
-		"items.tsv":   e.items,
-		"emb.parquet": "id\tf1\n",
-		SettingsFile:  "[items]\nfiles = [\"items.tsv\"]\nvectors = \"emb.parquet\"\n[[similarity.source]]\nkind = \"vector\"\n",
+		"items.tsv":       e.items,
+		"emb.parquet":     "id\tf1\n",
+		repo.SettingsFile: "[items]\nfiles = [\"items.tsv\"]\nvectors = \"emb.parquet\"\n[[similarity.source]]\nkind = \"vector\"\n",
 	} {
 		if err := os.WriteFile(filepath.Join(dir, name), []byte(body), 0o644); err != nil {
 			t.Fatal(err)
 		}
 	}
-	_, ds := Load(dir)
+	_, ds := repo.Load(dir)
 	if len(ds) == 0 || !strings.HasPrefix(ds.Error(), "emb.parquet:1:1: not a Parquet file") {
 		t.Errorf("Load = %v, want emb.parquet:1:1: not a Parquet file", ds)
 	}

@@ -4,6 +4,7 @@ import (
 	"fmt"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -25,14 +26,14 @@ type View struct {
 // description apart, when items have both labels and descriptions. A view with no edges at all is
 // left out. all is the graph Graph(p, seed) returns, passed in so it is built
 // once; GraphViews builds both and each source's graph only once.
-func Views(p *Project, seed uint64, all *graph.CSR) ([]View, error) {
+func Views(p *repo.Repo, seed uint64, all *graph.CSR) ([]View, error) {
 	return listViews(p, seed, all, nil)
 }
 
 // GraphViews returns the views with the graph solve uses first, as Views
 // does, building each source's graph once for both the combined graph and
 // the source's own view.
-func GraphViews(p *Project, seed uint64) ([]View, error) {
+func GraphViews(p *repo.Repo, seed uint64) ([]View, error) {
 	parts, err := sourceGraphs(p, seed)
 	if err != nil {
 		return nil, err
@@ -46,7 +47,7 @@ func GraphViews(p *Project, seed uint64) ([]View, error) {
 
 // listViews lists the views; parts, when not nil, are the sources' graphs
 // already built (sourceGraphs).
-func listViews(p *Project, seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View, error) {
+func listViews(p *repo.Repo, seed uint64, all *graph.CSR, parts []*graph.CSR) ([]View, error) {
 	views := []View{{Name: "all", Graph: all}}
 	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
 	add := func(name string, g *graph.CSR, err error) error {
@@ -104,7 +105,7 @@ func listViews(p *Project, seed uint64, all *graph.CSR, parts []*graph.CSR) ([]V
 
 // hasLabelsAndText reports whether some item has a label and some item a
 // description, so that each alone says something.
-func hasLabelsAndText(p *Project) bool {
+func hasLabelsAndText(p *repo.Repo) bool {
 	label, text := false, false
 	for _, it := range p.Items {
 		label = label || it.Label != ""

@@ -4,6 +4,7 @@ import (
 	"slices"
 	"testing"
 
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
@@ -51,9 +52,9 @@ func TestGraphViewsSameAsApart(t *testing.T) {
 }
 
 // demoViews loads the demo and builds its graph and views apart.
-func demoViews(t *testing.T) (*Project, *graph.CSR, []View) {
+func demoViews(t *testing.T) (*repo.Repo, *graph.CSR, []View) {
 	t.Helper()
-	p, ds := Load("../examples/tool-library")
+	p, ds := repo.Load("../examples/tool-library")
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

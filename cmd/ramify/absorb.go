@@ -4,6 +4,7 @@ import (
 	"os"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/spf13/pflag"
@@ -117,7 +118,7 @@ func runAbsorb(e *env, o *absorbOptions, args []string) error {
 	if err != nil {
 		return err
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -166,7 +167,7 @@ func parsedConstraintFile(rel string, cf *format.ConstraintFile) (*format.Constr
 
 // checkAbsorbed fails when the new records contradict the recorded ones,
 // naming the smallest conflicting set.
-func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) error {
+func checkAbsorbed(e *env, p *repo.Repo, added []*format.ConstraintFile) error {
 	if len(added) == 0 {
 		return nil
 	}
@@ -178,7 +179,7 @@ func checkAbsorbed(e *env, p *project.Project, added []*format.ConstraintFile) e
 	return nil
 }
 
-func reportAbsorb(e *env, p *project.Project, absorbed []absorbedJSON, edit *handEdit, pending int) {
+func reportAbsorb(e *env, p *repo.Repo, absorbed []absorbedJSON, edit *handEdit, pending int) {
 	rep := &absorbReport{Absorbed: absorbed, Pending: pending}
 	e.result = rep
 	for _, a := range absorbed {

@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve"
@@ -36,7 +37,7 @@ type handEdit struct {
 
 // absorbHandEdit records a hand edit of the outline, or returns nil when
 // there is none.
-func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewerNames, date string) (*handEdit, error) {
+func absorbHandEdit(e *env, p *repo.Repo, baseFile string, names *reviewerNames, date string) (*handEdit, error) {
 	if p.Outline == nil || !p.Outline.Edited() {
 		if baseFile != "" {
 			e.notice("--base %s is not needed: %s was not reshaped by hand", baseFile, p.Settings.Taxonomy.File)
@@ -71,7 +72,7 @@ func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewer
 	}
 	// The edited outline now holds the new records too: listing them makes
 	// a later removal of the edit file let the moved items go again.
-	records := append(slices.Clone(p.Outline.Records), project.RecordKeysOf(h.file)...)
+	records := append(slices.Clone(p.Outline.Records), repo.RecordKeysOf(h.file)...)
 	h.outline = format.FormatOutlineRecords(edited.Clone(), records)
 	h.overridden = brokenByEdit(p, edited)
 	return h, nil
@@ -80,7 +81,7 @@ func absorbHandEdit(e *env, p *project.Project, baseFile string, names *reviewer
 // itemAffinity is the similarity of two items by id (0 for an unknown
 // one); the similarities pick the representatives the solver will find
 // hardest to move (see review.PinMoves).
-func itemAffinity(p *project.Project) (func(a, b string) float64, error) {
+func itemAffinity(p *repo.Repo) (func(a, b string) float64, error) {
 	g, err := project.Graph(p, project.Seed)
 	if err != nil {
 		return nil, err
@@ -132,7 +133,7 @@ func (h *handEdit) pins(by, date string) (cf *format.ConstraintFile, pinOf, shap
 // conflicts.
 func (h *handEdit) placeFile(cf *format.ConstraintFile, pinOf, shapeOf []string, rel string, edited *format.Category) error {
 	sum := sha256.Sum256([]byte("ramify edit\n" + h.from + "\n" + h.to))
-	frel := format.ConstraintsDir + "/" + project.HandEditPrefix + hex.EncodeToString(sum[:6]) + ".toml"
+	frel := format.ConstraintsDir + "/" + repo.HandEditPrefix + hex.EncodeToString(sum[:6]) + ".toml"
 	parsed, text, ds := parsedConstraintFile(frel, cf)
 	if len(ds) > 0 {
 		return ds
@@ -152,7 +153,7 @@ func (h *handEdit) placeFile(cf *format.ConstraintFile, pinOf, shapeOf []string,
 // breaks. They stay in force: the next solve honours both them and the new
 // pins, which can reshape the tree around the edit, so the editor is told
 // which earlier record to remove if the edit replaces it.
-func brokenByEdit(p *project.Project, edited *format.Category) []project.Record {
+func brokenByEdit(p *repo.Repo, edited *format.Category) []project.Record {
 	compiled := project.Compile(p)
 	tree := project.FromCategory(edited, p.Index, len(p.Items))
 	var out []project.Record
@@ -211,14 +212,14 @@ func pathOrTop(p string) string {
 // findBaseOutline finds the tree ramify last wrote: the one whose shape
 // has the structure hash in the edited outline's header. It comes from
 // --base (base), or from git.
-func findBaseOutline(p *project.Project, base string) (*format.Category, string, error) {
+func findBaseOutline(p *repo.Repo, base string) (*format.Category, string, error) {
 	rel := p.Settings.Taxonomy.File
 	want := p.Outline.Structure
 	if base != "" {
 		if msg := format.CheckRepoPath(base); msg != "" {
 			return nil, "", usagef("--base: %s", msg)
 		}
-		full, err := project.Resolve(p.Dir, base)
+		full, err := repo.Resolve(p.Dir, base)
 		if err != nil {
 			return nil, "", usagef("--base: %v", err)
 		}
@@ -297,7 +298,7 @@ func gitUserName(dir string) string {
 	return strings.TrimSpace(string(out))
 }
 
-func reportHandEdit(e *env, rep *absorbReport, p *project.Project, h *handEdit) {
+func reportHandEdit(e *env, rep *absorbReport, p *repo.Repo, h *handEdit) {
 	rel := p.Settings.Taxonomy.File
 	moves := []moveJSON{}
 	for _, m := range h.moves {

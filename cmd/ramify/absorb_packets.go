@@ -2,7 +2,7 @@ package main
 
 import (
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -18,7 +18,7 @@ type answerPlan struct {
 // files: a shape constraint for "fixed", the packet in reviews/done for
 // every answer, the open file removed. Every problem of every packet is
 // returned together, and then nothing is planned.
-func planAnswers(p *project.Project, open []*review.Answer, names *reviewerNames, date string) (*answerPlan, error) {
+func planAnswers(p *repo.Repo, open []*review.Answer, names *reviewerNames, date string) (*answerPlan, error) {
 	plan := &answerPlan{absorbed: []absorbedJSON{}}
 	var ds format.Diags
 	for _, a := range open {
@@ -42,7 +42,7 @@ func planAnswers(p *project.Project, open []*review.Answer, names *reviewerNames
 		}
 		// The audit log only grows: an answer is never written over.
 		doneRel := review.DoneDir + "/" + a.ID + ".outline"
-		done, err := project.Resolve(p.Dir, doneRel)
+		done, err := repo.Resolve(p.Dir, doneRel)
 		if err != nil {
 			return nil, err
 		}

@@ -10,7 +10,7 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -22,7 +22,7 @@ func TestAbsorbRefusesAContradictingAnswer(t *testing.T) {
 	copyDemoInto(t, dir)
 	os.RemoveAll(filepath.Join(dir, "reviews", "open"))
 	ramify(t, "solve", "--dir", dir)
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

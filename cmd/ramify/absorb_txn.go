@@ -14,7 +14,7 @@ import (
 	"syscall"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -47,7 +47,7 @@ type journalStep struct {
 func commitWrites(dir string, writes []absorbWrite) error {
 	full := make([]string, len(writes))
 	for i, w := range writes {
-		f, err := project.Resolve(dir, w.rel)
+		f, err := repo.Resolve(dir, w.rel)
 		if err != nil {
 			return err
 		}
@@ -96,7 +96,7 @@ func commitWrites(dir string, writes []absorbWrite) error {
 func applyJournal(dir string, steps []journalStep) error {
 	synced := map[string]bool{}
 	for _, s := range steps {
-		target, err := project.Resolve(dir, s.target)
+		target, err := repo.Resolve(dir, s.target)
 		if err != nil {
 			return err
 		}
@@ -105,7 +105,7 @@ func applyJournal(dir string, steps []journalStep) error {
 				return err
 			}
 		} else {
-			tmp, err := project.Resolve(dir, s.tmp)
+			tmp, err := repo.Resolve(dir, s.tmp)
 			if err != nil {
 				return err
 			}

@@ -9,7 +9,7 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -92,9 +92,9 @@ func TestAuditsSurviveLocalChange(t *testing.T) {
 	}
 }
 
-func loadProject(t *testing.T, dir string) *project.Project {
+func loadProject(t *testing.T, dir string) *repo.Repo {
 	t.Helper()
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

@@ -5,6 +5,7 @@ import (
 	"fmt"
 	"strconv"
 
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve"
 
 	"github.com/ramify-tax/ramify/format"
@@ -79,7 +80,7 @@ func runCheck(e *env, o *checkOptions, args []string) error {
 	if err := noArguments("check", args, ""); err != nil {
 		return err
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -112,7 +113,7 @@ func runCheck(e *env, o *checkOptions, args []string) error {
 // and returns the regenerated solution (which equals the committed outline
 // when it passes), filling rep as far as it gets. release runs it as its
 // first gate.
-func checkRepository(e *env, p *project.Project, rep *checkReport) (*project.Solution, error) {
+func checkRepository(e *env, p *repo.Repo, rep *checkReport) (*project.Solution, error) {
 	rep.Items = len(p.Items)
 	if len(p.Warnings) > 0 {
 		rep.Warnings = problemsJSON(p.Warnings.Capped())
@@ -168,7 +169,7 @@ func checkRepository(e *env, p *project.Project, rep *checkReport) (*project.Sol
 
 // checkConstraints fails when the records contradict each other or the
 // committed outline breaks one of them, naming each record.
-func checkConstraints(e *env, p *project.Project) error {
+func checkConstraints(e *env, p *repo.Repo) error {
 	compiled := project.Compile(p)
 	if err := compiled.Consistent(len(p.Items)); err != nil {
 		return solveError(e, err)

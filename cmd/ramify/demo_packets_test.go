@@ -6,7 +6,7 @@ import (
 
 	"github.com/google/go-cmp/cmp"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -14,7 +14,7 @@ import (
 // in the current format, every item with its label from the items file.
 func TestDemoPacketsAreCurrent(t *testing.T) {
 	const demo = "../../examples/tool-library"
-	p, ds := project.Load(demo)
+	p, ds := repo.Load(demo)
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

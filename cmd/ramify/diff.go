@@ -11,7 +11,7 @@ import (
 
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/spf13/pflag"
 )
 
@@ -246,7 +246,7 @@ func readDiffFile(dir, arg string) (*diffSide, error) {
 	for strings.HasPrefix(rel, "./") {
 		rel = strings.TrimLeft(strings.TrimPrefix(rel, "./"), "/")
 	}
-	full, err := project.Resolve(dir, rel)
+	full, err := repo.Resolve(dir, rel)
 	if err != nil {
 		return nil, usagef("%s: %v", arg, err)
 	}
@@ -270,17 +270,17 @@ func readDiffFile(dir, arg string) (*diffSide, error) {
 // folder now; it goes by its repository-relative name.
 func currentOutline(dir string) (*diffSide, error) {
 	settings := format.DefaultSettings()
-	data, err := project.ReadSettingsFile(dir)
+	data, err := repo.ReadSettingsFile(dir)
 	switch {
 	case err == nil:
-		if settings, err = format.ParseSettings(project.SettingsFile, data); err != nil {
-			return nil, format.AsDiags(err, project.SettingsFile)
+		if settings, err = format.ParseSettings(repo.SettingsFile, data); err != nil {
+			return nil, format.AsDiags(err, repo.SettingsFile)
 		}
 	case !errors.Is(err, fs.ErrNotExist):
 		return nil, err
 	}
 	rel := settings.Taxonomy.File
-	full, err := project.Resolve(dir, rel)
+	full, err := repo.Resolve(dir, rel)
 	if err != nil {
 		return nil, err
 	}

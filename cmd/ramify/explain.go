@@ -7,6 +7,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review/explain"
 	"github.com/spf13/pflag"
@@ -74,7 +75,7 @@ func runExplain(e *env, o *explainOptions, args []string) error {
 	if o.solve && o.noSolve {
 		return usagef("--solve and --no-solve ask for opposite things; give one")
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -142,7 +143,7 @@ func runExplain(e *env, o *explainOptions, args []string) error {
 // records, with --support the committee's support, and (unless the
 // taxonomy is too large or --no-solve) the tree solved without records
 // and a solver of the tree without each record.
-func explainInput(e *env, o *explainOptions, p *project.Project) (explain.Input, error) {
+func explainInput(e *env, o *explainOptions, p *repo.Repo) (explain.Input, error) {
 	progress := e.progressFunc()
 	if progress != nil {
 		progress("similarity graph", 0, 1)
@@ -185,7 +186,7 @@ func explainInput(e *env, o *explainOptions, p *project.Project) (explain.Input,
 }
 
 // solverWithout solves the taxonomy without record r, once per record.
-func solverWithout(p *project.Project, records int, progress func(stage string, done, total int)) func(r int) (*format.Category, error) {
+func solverWithout(p *repo.Repo, records int, progress func(stage string, done, total int)) func(r int) (*format.Category, error) {
 	cache := map[int]*format.Category{}
 	return func(r int) (*format.Category, error) {
 		if t, ok := cache[r]; ok {
@@ -210,7 +211,7 @@ func solverWithout(p *project.Project, records int, progress func(stage string, 
 // current outline, that outline (which the records shaped) would keep
 // every item where it is. The current outline still names the
 // categories.
-func unpulled(p *project.Project) *project.Project {
+func unpulled(p *repo.Repo) *repo.Repo {
 	q := *p
 	settings := *p.Settings
 	settings.Taxonomy.Stability = 0

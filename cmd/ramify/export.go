@@ -10,7 +10,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/export"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/spf13/pflag"
 )
 
@@ -102,7 +102,7 @@ func runExport(e *env, o *exportOptions, args []string) error {
 	if err := checkExportFlags(e, o); err != nil {
 		return err
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -177,14 +177,14 @@ func runExport(e *env, o *exportOptions, args []string) error {
 // exportTarget resolves --out inside the repository and refuses the
 // repository's own inputs: an export must never replace the outline, the
 // items, the settings or a decision.
-func exportTarget(p *project.Project, out string) (string, error) {
-	full, err := project.Resolve(p.Dir, filepath.ToSlash(out))
+func exportTarget(p *repo.Repo, out string) (string, error) {
+	full, err := repo.Resolve(p.Dir, filepath.ToSlash(out))
 	if err != nil {
 		return "", usagef("--out %s: %v", out, err)
 	}
 	clean := filepath.ToSlash(filepath.Clean(filepath.FromSlash(out)))
 	s := p.Settings
-	inputs := append([]string{project.SettingsFile, s.Taxonomy.File, s.Items.Vectors}, s.Items.Files...)
+	inputs := append([]string{repo.SettingsFile, s.Taxonomy.File, s.Items.Vectors}, s.Items.Files...)
 	for _, src := range s.Similarity.Sources {
 		inputs = append(inputs, src.File)
 	}

@@ -5,7 +5,7 @@ import (
 	"fmt"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 // errNoSuchRevision says that git does not know a revision.
@@ -59,16 +59,16 @@ func readAtRevision(dir, rev, rel string, limit int64) ([]byte, error) {
 // when the revision has no ramify.toml. A ramify.toml that does not parse
 // is bad input, reported under the name "REV:ramify.toml".
 func outlineFileAt(dir, rev string) (string, error) {
-	data, err := readAtRevision(dir, rev, project.SettingsFile, format.MaxSmallFileBytes)
+	data, err := readAtRevision(dir, rev, repo.SettingsFile, format.MaxSmallFileBytes)
 	if errors.Is(err, errNotAtRevision) {
 		return format.DefaultSettings().Taxonomy.File, nil
 	}
 	if err != nil {
 		return "", err
 	}
-	settings, err := format.ParseSettings(rev+":"+project.SettingsFile, data)
+	settings, err := format.ParseSettings(rev+":"+repo.SettingsFile, data)
 	if err != nil {
-		return "", format.AsDiags(err, rev+":"+project.SettingsFile)
+		return "", format.AsDiags(err, rev+":"+repo.SettingsFile)
 	}
 	return settings.Taxonomy.File, nil
 }

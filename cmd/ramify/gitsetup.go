@@ -6,7 +6,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 func init() {
@@ -87,7 +87,7 @@ func gitSetup(e *env, dir string) ([]string, error) {
 		return nil, err
 	}
 	var changes []string
-	path, err := project.Resolve(dir, ".gitattributes")
+	path, err := repo.Resolve(dir, ".gitattributes")
 	if err != nil {
 		return nil, err
 	}
@@ -150,7 +150,7 @@ func gitSetupForInit(e *env, dir string) ([]string, error) {
 // journal to the .gitignore of dir, each when no line has it yet, and says
 // what it changed.
 func ignoreTempFiles(dir string) ([]string, error) {
-	path, err := project.Resolve(dir, ".gitignore")
+	path, err := repo.Resolve(dir, ".gitignore")
 	if err != nil {
 		return nil, err
 	}

@@ -6,6 +6,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 )
 
@@ -15,7 +16,7 @@ import (
 // is named with its line, and the record with its file and line, so the
 // editor can change the name where it is decided. solve and check run it
 // before anything else.
-func checkGroupNames(p *project.Project) error {
+func checkGroupNames(p *repo.Repo) error {
 	// Only a category of a named group's size can be the one it names.
 	sizes := map[int]bool{}
 	for _, f := range p.Constraints {

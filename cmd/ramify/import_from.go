@@ -10,7 +10,7 @@ import (
 
 	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/spf13/pflag"
 )
 
@@ -138,7 +138,7 @@ func writeImported(dir, source string, root *format.Category, items []format.Ite
 		return err
 	}
 	for _, f := range []scaffoldFile{{importOutlineFile, string(outlineText)}, {importItemsFile, string(itemsText)}} {
-		full, err := project.Resolve(dir, f.path)
+		full, err := repo.Resolve(dir, f.path)
 		if err != nil {
 			return failf("%s: %v", f.path, err)
 		}
@@ -244,20 +244,20 @@ func checkImportTargets(dir string) error {
 			return err
 		}
 	}
-	data, err := project.ReadSettingsFile(dir)
+	data, err := repo.ReadSettingsFile(dir)
 	if errors.Is(err, fs.ErrNotExist) {
 		return nil
 	}
 	if err != nil {
-		return format.AsDiags(err, project.SettingsFile)
+		return format.AsDiags(err, repo.SettingsFile)
 	}
-	s, err := format.ParseSettings(project.SettingsFile, data)
+	s, err := format.ParseSettings(repo.SettingsFile, data)
 	if err != nil {
-		return format.AsDiags(err, project.SettingsFile)
+		return format.AsDiags(err, repo.SettingsFile)
 	}
 	if len(s.Items.Files) != 1 || s.Items.Files[0] != importItemsFile || s.Taxonomy.File != importOutlineFile {
 		return fmt.Errorf("the existing %s reads items from %s and the taxonomy from %s, but init --from writes %s and %s; import into a new folder",
-			project.SettingsFile, strings.Join(s.Items.Files, ", "), s.Taxonomy.File, importItemsFile, importOutlineFile)
+			repo.SettingsFile, strings.Join(s.Items.Files, ", "), s.Taxonomy.File, importItemsFile, importOutlineFile)
 	}
 	return nil
 }

@@ -10,6 +10,7 @@ import (
 
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/spf13/pflag"
 )
@@ -61,7 +62,7 @@ func pinRecords(root *format.Category, source, date string) (rel string, text []
 // firstSolvePreview solves the new repository in memory and says how far
 // the first `ramify solve` would move from the imported tree.
 func firstSolvePreview(dir string, imported *format.Category) (moved, kept, total, created int, err error) {
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		return 0, 0, 0, 0, ds
 	}
@@ -80,7 +81,7 @@ func firstSolvePreview(dir string, imported *format.Category) (moved, kept, tota
 
 // pinPath is the pin file's path on disk.
 func pinPath(dir, rel string) (string, error) {
-	full, err := project.Resolve(dir, rel)
+	full, err := repo.Resolve(dir, rel)
 	if err != nil {
 		return "", err
 	}

@@ -7,7 +7,7 @@ import (
 	"path/filepath"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 func init() {
@@ -150,7 +150,7 @@ func writeScaffold(dir string) (wrote, kept []string, err error) {
 	// stops init before it writes anything.
 	fulls := make([]string, len(files))
 	for i, f := range files {
-		full, err := project.Resolve(dir, f.path)
+		full, err := repo.Resolve(dir, f.path)
 		if err != nil {
 			return nil, nil, failf("%s: %v; nothing was written", f.path, err)
 		}

@@ -10,6 +10,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 )
 
@@ -86,7 +87,7 @@ func runGitMergeDriver(e *env, args []string) error {
 // a taxonomy file (a review packet, say).
 func findTaxonomyRepo(top, rel string) (string, error) {
 	for dir := path.Dir(rel); ; dir = path.Dir(dir) {
-		file := path.Join(dir, project.SettingsFile)
+		file := path.Join(dir, repo.SettingsFile)
 		data, err := format.ReadFileLimited(filepath.Join(top, filepath.FromSlash(file)), file, format.MaxSmallFileBytes)
 		if err == nil {
 			settings, err := format.ParseSettings(file, data)
@@ -207,7 +208,7 @@ func (m *outlineMerge) conflictedInputs(conflicted []string) []string {
 // loadMerged loads the merged repository copied to scratch, with our
 // outline as the previous version. Both sides' outlines must be as ramify
 // wrote them: a hand edit not yet absorbed would be lost by regenerating.
-func (m *outlineMerge) loadMerged(scratch string) (*project.Project, error) {
+func (m *outlineMerge) loadMerged(scratch string) (*repo.Repo, error) {
 	outlineRel := strings.TrimPrefix(m.rel, m.repo+"/")
 	if m.repo == "." {
 		outlineRel = m.rel
@@ -240,7 +241,7 @@ func (m *outlineMerge) loadMerged(scratch string) (*project.Project, error) {
 		}
 		theirs = o.Root
 	}
-	p, ds := project.Load(scratch)
+	p, ds := repo.Load(scratch)
 	if len(ds) > 0 {
 		lines := []string{"ramify: the merged taxonomy repository does not load:"}
 		for _, d := range ds {

@@ -11,6 +11,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/solve"
 )
@@ -94,7 +95,7 @@ func touchedRepos(top string, changed []string) ([]string, error) {
 				break
 			}
 			checked[dir] = true
-			_, err := os.Lstat(filepath.Join(top, filepath.FromSlash(path.Join(dir, project.SettingsFile))))
+			_, err := os.Lstat(filepath.Join(top, filepath.FromSlash(path.Join(dir, repo.SettingsFile))))
 			if err == nil {
 				found[dir] = true
 				break
@@ -118,14 +119,14 @@ func touchedRepos(top string, changed []string) ([]string, error) {
 // checkMergedRepo returns the lines that stop the merge for one
 // repository, or none; a merged outline that is merely out of date gets a
 // notice.
-func checkMergedRepo(e *env, top, repo string) []string {
+func checkMergedRepo(e *env, top, dir string) []string {
 	name := func(rel string) string {
-		if repo == "." {
+		if dir == "." {
 			return rel
 		}
-		return repo + "/" + rel
+		return dir + "/" + rel
 	}
-	p, ds := project.Load(filepath.Join(top, filepath.FromSlash(repo)))
+	p, ds := repo.Load(filepath.Join(top, filepath.FromSlash(dir)))
 	if len(ds) > 0 {
 		lines := []string{"ramify: the merged taxonomy repository " + name("") + " does not load:"}
 		for _, d := range ds {

@@ -9,6 +9,7 @@ import (
 	"time"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/review/release"
@@ -82,12 +83,12 @@ func runRelease(e *env, o *releaseOptions, args []string) error {
 		return err
 	}
 	dir := e.dir()
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		return ds
 	}
 	manifestRel := release.ManifestPath(version)
-	manifestPath, err := project.Resolve(dir, manifestRel)
+	manifestPath, err := repo.Resolve(dir, manifestRel)
 	if err != nil {
 		return failf("%s: %v", manifestRel, err)
 	}
@@ -136,7 +137,7 @@ func runRelease(e *env, o *releaseOptions, args []string) error {
 
 // releaseGates runs every gate of a release, in order, and returns the
 // checked solution and the release's input files.
-func releaseGates(e *env, o *releaseOptions, rep *releaseReport, p *project.Project, version string) (*project.Solution, []string, error) {
+func releaseGates(e *env, o *releaseOptions, rep *releaseReport, p *repo.Repo, version string) (*project.Solution, []string, error) {
 	dir := p.Dir
 	// Gate 1: check.
 	sol, err := checkRepository(e, p, &rep.checkReport)
@@ -192,7 +193,7 @@ func releaseGates(e *env, o *releaseOptions, rep *releaseReport, p *project.Proj
 }
 
 // blockedError says why a review gate stops the release, and what to do.
-func blockedError(b *release.Blocked, p *project.Project) error {
+func blockedError(b *release.Blocked, p *repo.Repo) error {
 	s, r := b.Audits, p.Settings.Release
 	switch b.Gate {
 	case release.GateOpenPackets:

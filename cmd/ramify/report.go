@@ -11,6 +11,7 @@ import (
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/review/report"
@@ -80,7 +81,7 @@ func runReport(e *env, o *reportOptions, args []string) error {
 	if err := noArguments("report", args, ""); err != nil {
 		return err
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -132,7 +133,7 @@ func runReport(e *env, o *reportOptions, args []string) error {
 // reportInput gathers what the page shows: the tree and its records, the
 // review state, the changes since the base and, with --support, the
 // committee's support.
-func reportInput(e *env, o *reportOptions, p *project.Project) (report.Input, error) {
+func reportInput(e *env, o *reportOptions, p *repo.Repo) (report.Input, error) {
 	structure := format.StructureHash(p.Outline.Root)
 	in := report.Input{
 		Title:     reportTitle(o, p),
@@ -175,7 +176,7 @@ func reportInput(e *env, o *reportOptions, p *project.Project) (report.Input, er
 	return in, nil
 }
 
-func reportTitle(o *reportOptions, p *project.Project) string {
+func reportTitle(o *reportOptions, p *repo.Repo) string {
 	if t := o.title; t != "" {
 		return t
 	}
@@ -199,7 +200,7 @@ func sizeText(n int) string {
 // reportBase finds the version to show changes against and diffs it with
 // the current outline. No base (no git, no earlier version) is not an
 // error; the page then says why it shows no changes.
-func reportBase(p *project.Project, since string, in *report.Input) error {
+func reportBase(p *repo.Repo, since string, in *report.Input) error {
 	var side *diffSide
 	if since != "" {
 		s, err := loadDiffSide(p.Dir, since)
@@ -230,7 +231,7 @@ func reportBase(p *project.Project, since string, in *report.Input) error {
 // defaultBase is the last release tag's outline, else the last committed
 // outline that differs from the one in the folder. It returns nil and a
 // note when there is none.
-func defaultBase(p *project.Project) (*diffSide, string, error) {
+func defaultBase(p *repo.Repo) (*diffSide, string, error) {
 	if _, err := gitTopLevel(p.Dir); err != nil {
 		if errors.Is(err, errNotGitRepo) || errors.Is(err, errNoGit) {
 			return nil, "the repository is not under git, so there is no earlier version; pass --since FILE to compare with one", nil
@@ -283,7 +284,7 @@ func lastReleaseTag(dir string) string {
 
 // categorySupport solves the committee and measures every category of the
 // committed outline against it.
-func categorySupport(e *env, p *project.Project, structure string) (map[*format.Category]float64, int, error) {
+func categorySupport(e *env, p *repo.Repo, structure string) (map[*format.Category]float64, int, error) {
 	committee, err := reviewCommittee(e, p, structure)
 	if err != nil {
 		return nil, 0, err

@@ -7,6 +7,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/spf13/pflag"
@@ -109,7 +110,7 @@ func runReviewDraw(e *env, o *drawOptions, args []string) error {
 	if err != nil {
 		return err
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -163,7 +164,7 @@ func runReviewDraw(e *env, o *drawOptions, args []string) error {
 // drawHistory is what the packets already drawn and answered mean for a
 // new draw: the items not to put in uncertain packets again, the stale
 // audits to draw again first, and which audit sets were answered already.
-func drawHistory(p *project.Project, open, done []*review.Answer, structure string) (avoid []bool, redraw [][]int32, skipAudit func([]int32) bool) {
+func drawHistory(p *repo.Repo, open, done []*review.Answer, structure string) (avoid []bool, redraw [][]int32, skipAudit func([]int32) bool) {
 	// Open packets of this version are part of the stream being drawn again
 	// (they come back and are left as they are); everything else that is
 	// waiting or was answered on this version is not asked again.
@@ -216,7 +217,7 @@ func drawHistory(p *project.Project, open, done []*review.Answer, structure stri
 
 // itemIndices maps item ids to indices, sorted; false when an item is no
 // longer in the repository.
-func itemIndices(p *project.Project, set []string) ([]int32, bool) {
+func itemIndices(p *repo.Repo, set []string) ([]int32, bool) {
 	out := make([]int32, 0, len(set))
 	for _, id := range set {
 		i, ok := p.Index[id]
@@ -242,8 +243,8 @@ type drawnJSON struct {
 	Written bool `json:"written"`
 }
 
-func writeDrafts(e *env, p *project.Project, committee *review.Committee, drafts []review.Draft, existing map[string]string, structure, date string, asked int) error {
-	openDir, err := project.Resolve(p.Dir, review.OpenDir)
+func writeDrafts(e *env, p *repo.Repo, committee *review.Committee, drafts []review.Draft, existing map[string]string, structure, date string, asked int) error {
+	openDir, err := repo.Resolve(p.Dir, review.OpenDir)
 	if err != nil {
 		return err
 	}

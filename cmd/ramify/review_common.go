@@ -11,6 +11,7 @@ import (
 	"time"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/spf13/pflag"
@@ -53,7 +54,7 @@ type packetFile struct {
 // A missing folder holds no packets; links and other odd entries are
 // skipped, so nothing outside the repository is read through them.
 func listPackets(dir, rel string) ([]packetFile, error) {
-	full, err := project.Resolve(dir, rel)
+	full, err := repo.Resolve(dir, rel)
 	if err != nil {
 		return nil, err
 	}
@@ -114,7 +115,7 @@ func parsePackets(files []packetFile) ([]*review.Answer, format.Diags) {
 // currentTaxonomy checks that the committed outline can be reviewed: it
 // exists, places exactly the repository's items, and was not reshaped by
 // hand. It returns the outline's structure hash.
-func currentTaxonomy(p *project.Project, what string) (string, error) {
+func currentTaxonomy(p *repo.Repo, what string) (string, error) {
 	rel := p.Settings.Taxonomy.File
 	if p.Outline == nil {
 		return "", failf("%s does not exist yet; run `ramify solve` first, then %s", rel, what)
@@ -131,7 +132,7 @@ func currentTaxonomy(p *project.Project, what string) (string, error) {
 // reviewCommittee solves the committee for the current taxonomy. The seed
 // comes from the structure hash, so the same taxonomy always gets the same
 // committee.
-func reviewCommittee(e *env, p *project.Project, structure string) (*review.Committee, error) {
+func reviewCommittee(e *env, p *repo.Repo, structure string) (*review.Committee, error) {
 	c, compiled, err := project.ReviewCommittee(p, structure, e.progressFunc())
 	e.endProgress()
 	if err != nil {

@@ -11,6 +11,7 @@ import (
 
 	"github.com/ramify-tax/ramify/cmd/bench/reviewloop/loop"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve"
@@ -44,7 +45,7 @@ func TestReviewRoundsKeepApprovedPackets(t *testing.T) {
 				shapes = append(shapes, rel)
 			}
 		}
-		p, ds := project.Load(dir)
+		p, ds := repo.Load(dir)
 		if len(ds) > 0 {
 			t.Fatalf("round %d: %v", round, ds)
 		}
@@ -94,7 +95,7 @@ func ramify(t *testing.T, args ...string) string {
 // order) moved into the category of the item 50 places further on.
 func hiddenTarget(t *testing.T, dir string) *format.Category {
 	t.Helper()
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

@@ -5,6 +5,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/spf13/pflag"
@@ -109,7 +110,7 @@ func runReviewStatus(e *env, o *statusOptions, args []string) error {
 	if top < 0 {
 		return usagef("--top must be 0 or more, not %d", top)
 	}
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -158,7 +159,7 @@ func reportOpen(e *env, open []*review.Answer, structure string) []openJSON {
 	return list
 }
 
-func reportAudits(e *env, p *project.Project, done []*review.Answer, structure string) *auditsJSON {
+func reportAudits(e *env, p *repo.Repo, done []*review.Answer, structure string) *auditsJSON {
 	packets := make([]*format.Packet, len(done))
 	for i, a := range done {
 		packets[i] = a.Packet
@@ -210,7 +211,7 @@ func reportAudits(e *env, p *project.Project, done []*review.Answer, structure s
 	return tally
 }
 
-func reportSupport(e *env, rep *statusReport, p *project.Project, structure string, top int) error {
+func reportSupport(e *env, rep *statusReport, p *repo.Repo, structure string, top int) error {
 	committee, err := reviewCommittee(e, p, structure)
 	if err != nil {
 		return err

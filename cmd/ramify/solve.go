@@ -8,6 +8,7 @@ import (
 
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/spf13/pflag"
 )
@@ -108,7 +109,7 @@ func runSolve(e *env, o *solveOptions, args []string) error {
 		return usagef("--method must be constrained or average, not %q", method)
 	}
 	dryRun := o.dryRun
-	p, ds := project.Load(e.dir())
+	p, ds := repo.Load(e.dir())
 	if len(ds) > 0 {
 		return ds
 	}
@@ -206,7 +207,7 @@ func quoteNote(n string) string {
 	return `"` + n + `"`
 }
 
-func solveReportOf(p *project.Project, sol *project.Solution, prev *format.Category) *solveReport {
+func solveReportOf(p *repo.Repo, sol *project.Solution, prev *format.Category) *solveReport {
 	total := len(sol.Compiled.Records)
 	violated := len(sol.Violated)
 	counts := countRecords(p.Constraints)
@@ -244,7 +245,7 @@ func solveReportOf(p *project.Project, sol *project.Solution, prev *format.Categ
 	return rep
 }
 
-func printSolveReport(e *env, r *solveReport, p *project.Project, sol *project.Solution) {
+func printSolveReport(e *env, r *solveReport, p *repo.Repo, sol *project.Solution) {
 	e.say("%s in %s, depth %d", plural(len(p.Items), "item", "items"), plural(r.Categories, "category", "categories"), r.Depth)
 	e.say("  cost         %s  (Dasgupta, on a graph of %d edges)", formatCost(sol.Cost), sol.Graph.NumEdges())
 	c := r.Constraints

@@ -8,7 +8,7 @@ import (
 	"path/filepath"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 // beforeOutlineRename runs between staging the new outline and checking
@@ -20,7 +20,7 @@ var beforeOutlineRename func()
 // hand edit while solve ran, which the new outline would silently
 // overwrite. The file is read again after the new outline is staged,
 // just before the rename, so the window left is the rename itself.
-func writeOutlineGuarded(p *project.Project, data []byte) error {
+func writeOutlineGuarded(p *repo.Repo, data []byte) error {
 	target := p.OutlinePath()
 	tmp, err := format.StageFile(target, data, 0o644)
 	if err != nil {
@@ -43,7 +43,7 @@ func writeOutlineGuarded(p *project.Project, data []byte) error {
 
 // outlineUnchanged fails when the outline on disk is not the one the
 // project was loaded with.
-func outlineUnchanged(p *project.Project, target string) error {
+func outlineUnchanged(p *repo.Repo, target string) error {
 	rel := p.Settings.Taxonomy.File
 	now, err := os.ReadFile(target)
 	existed := p.Outline != nil

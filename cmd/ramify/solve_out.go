@@ -2,6 +2,7 @@ package main
 
 import (
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 )
 
@@ -11,7 +12,7 @@ import (
 // replaces the taxonomy only with --replace, and solve says what it
 // breaks either way. handled is true when solve is done (written to
 // --out, or refused).
-func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *project.Project, sol *project.Solution) (handled bool, err error) {
+func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *repo.Repo, sol *project.Solution) (handled bool, err error) {
 	method, out, replace, dryRun := project.Method(o.method), o.out, o.replace, o.dryRun
 	rel := p.Settings.Taxonomy.File
 	broken := len(sol.Violated)
@@ -36,7 +37,7 @@ func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *project.Projec
 		if out == rel {
 			return true, usagef("--out %s is the taxonomy itself; leave --out away to write it", out)
 		}
-		full, err := project.Resolve(p.Dir, out)
+		full, err := repo.Resolve(p.Dir, out)
 		if err != nil {
 			return true, usagef("--out: %v", err)
 		}

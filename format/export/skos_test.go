@@ -9,7 +9,7 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 const testBase = "https://example.org/tools/"
@@ -185,7 +185,7 @@ func TestSKOSReadByRapper(t *testing.T) {
 }
 
 func demoSKOS(t *testing.T) (*format.Category, []format.Item, SKOSOptions) {
-	p, ds := project.Load(filepath.Join("..", "..", "examples", "tool-library"))
+	p, ds := repo.Load(filepath.Join("..", "..", "examples", "tool-library"))
 	if len(ds) > 0 {
 		t.Fatalf("the demo does not load: %v", ds)
 	}

@@ -31,7 +31,7 @@ var Layers = [][]string{
 	// names, writers.
 	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "format/shape", "internal/realdata"},
 	// 3, the solver and what builds on comparison and names.
-	{"solve", "diff/concept", "format/rdf", "cmd/bench/stability/stable"},
+	{"solve", "diff/concept", "format/rdf", "format/repo", "cmd/bench/stability/stable"},
 	// 4, what runs the solver.
 	{"review", "solve/planted", "format/skos"},
 	// 5, a whole repository: loading, regenerating, the committee for it.

@@ -15,13 +15,14 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
 // Input is what an explanation is computed from.
 type Input struct {
-	Project *project.Project
+	Project *repo.Repo
 	// Graph is the combined similarity graph; Sources the graph of each
 	// source, which it sums.
 	Graph   *graph.CSR

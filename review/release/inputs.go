@@ -8,14 +8,14 @@ import (
 
 	"github.com/BurntSushi/toml"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 // Inputs lists the files a release is made of, repository-relative and
 // sorted: settings, items, vectors, links, constraints, the outline, and
 // the audit log (done, the answered packets' paths).
-func Inputs(p *project.Project, done []string) ([]string, error) {
-	set := map[string]bool{project.SettingsFile: true, p.Settings.Taxonomy.File: true}
+func Inputs(p *repo.Repo, done []string) ([]string, error) {
+	set := map[string]bool{repo.SettingsFile: true, p.Settings.Taxonomy.File: true}
 	for _, f := range p.Settings.Items.Files {
 		set[f] = true
 	}
@@ -27,7 +27,7 @@ func Inputs(p *project.Project, done []string) ([]string, error) {
 			set[s.File] = true
 		}
 	}
-	files, err := project.ConstraintFiles(p.Dir)
+	files, err := repo.ConstraintFiles(p.Dir)
 	if err != nil {
 		return nil, err
 	}
@@ -49,7 +49,7 @@ func Inputs(p *project.Project, done []string) ([]string, error) {
 // manifest date, then version) whose exported outline is readable, and
 // returns its version and tree; "" and nil when there is none.
 func Previous(dir string) (string, *format.Category) {
-	releases, err := project.Resolve(dir, Dir)
+	releases, err := repo.Resolve(dir, Dir)
 	if err != nil {
 		return "", nil
 	}
@@ -77,7 +77,7 @@ func Previous(dir string) (string, *format.Category) {
 		return found[i].version > found[j].version
 	})
 	for _, r := range found {
-		path, err := project.Resolve(dir, Dir+"/"+r.version+"/taxonomy.outline")
+		path, err := repo.Resolve(dir, Dir+"/"+r.version+"/taxonomy.outline")
 		if err != nil {
 			continue
 		}

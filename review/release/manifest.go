@@ -18,6 +18,7 @@ import (
 	"github.com/ramify-tax/ramify/diff/concept"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/export"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/round"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
@@ -110,7 +111,7 @@ type File struct {
 // Build makes the release of the committed outline of p as version on
 // date: sol is the solution check found equal to it, inputs the files
 // the release is made of (see Inputs).
-func Build(p *project.Project, sol *project.Solution, version, date string, audits Audits, inputs []string) (*Release, error) {
+func Build(p *repo.Repo, sol *project.Solution, version, date string, audits Audits, inputs []string) (*Release, error) {
 	root := p.Outline.Root
 	m := &Manifest{
 		Version: version, Date: date, Structure: format.StructureHash(root),
@@ -128,7 +129,7 @@ func Build(p *project.Project, sol *project.Solution, version, date string, audi
 	}
 	m.Constraints = Records{Records: records, Triplets: sol.Compiled.Triplets, Groups: sol.Compiled.Groups, Shapes: shapes}
 	for _, rel := range inputs {
-		full, err := project.Resolve(p.Dir, rel)
+		full, err := repo.Resolve(p.Dir, rel)
 		if err != nil {
 			return nil, err
 		}
@@ -172,14 +173,14 @@ func Build(p *project.Project, sol *project.Solution, version, date string, audi
 func (r *Release) Write(dir string) ([]string, error) {
 	targets := make([]string, len(r.Exports))
 	for i, f := range r.Exports {
-		full, err := project.Resolve(dir, f.Path)
+		full, err := repo.Resolve(dir, f.Path)
 		if err != nil {
 			return nil, &PathError{Path: f.Path, Err: err}
 		}
 		targets[i] = full
 	}
 	manifest := ManifestPath(r.Manifest.Version)
-	manifestFull, err := project.Resolve(dir, manifest)
+	manifestFull, err := repo.Resolve(dir, manifest)
 	if err != nil {
 		return nil, &PathError{Path: manifest, Err: err}
 	}
@@ -217,7 +218,7 @@ func sha256Hex(b []byte) string {
 
 // exports renders the committed outline in every export form, as the
 // files of releases/VERSION/ in name order.
-func exports(p *project.Project, version string) ([]File, error) {
+func exports(p *repo.Repo, version string) ([]File, error) {
 	root := p.Outline.Root
 	out := map[string][]byte{"taxonomy.outline": p.OutlineText}
 	render := []struct {

@@ -12,7 +12,7 @@ import (
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/format/repo"
 )
 
 var update = flag.Bool("update", false, "rewrite the golden files under testdata/")
@@ -22,7 +22,7 @@ var update = flag.Bool("update", false, "rewrite the golden files under testdata
 // shelved with the car tools) and no support.
 func demoInput(t *testing.T) Input {
 	t.Helper()
-	p, ds := project.Load(filepath.Join("..", "..", "examples", "tool-library"))
+	p, ds := repo.Load(filepath.Join("..", "..", "examples", "tool-library"))
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}

@@ -21,6 +21,7 @@ import (
 	"strings"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/realdata"
 	"github.com/ramify-tax/ramify/project"
 )
@@ -115,13 +116,13 @@ func measure(s *realdata.Set, method project.Method, settings string) (row, erro
 		return row{}, err
 	}
 	defer os.RemoveAll(dir)
-	if err := os.WriteFile(filepath.Join(dir, project.SettingsFile), []byte(settings), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, repo.SettingsFile), []byte(settings), 0o644); err != nil {
 		return row{}, err
 	}
 	if err := os.WriteFile(filepath.Join(dir, "items.tsv"), s.ItemsTSV, 0o644); err != nil {
 		return row{}, err
 	}
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		return row{}, ds
 	}

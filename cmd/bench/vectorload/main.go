@@ -1,7 +1,7 @@
 // Command vectorload measures what embeddings cost to bring in: it writes
 // a repository of n items with generated float32 embeddings of dim
 // dimensions as a Parquet table (items around n/1000 random centres), then
-// in a child process per stage loads it (project.Load) and, with -graph,
+// in a child process per stage loads it (repo.Load) and, with -graph,
 // also builds the similarity graph, and prints a table of the seconds and
 // the peak resident memory of each child:
 //
@@ -27,6 +27,7 @@ import (
 
 	"github.com/parquet-go/parquet-go"
 
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/project"
 )
 
@@ -56,7 +57,7 @@ func main() {
 		runStage(*dir, *stage)
 		return
 	}
-	if _, err := os.Stat(filepath.Join(*dir, project.SettingsFile)); err != nil {
+	if _, err := os.Stat(filepath.Join(*dir, repo.SettingsFile)); err != nil {
 		if err := write(*dir, *n, *dim); err != nil {
 			fail(err)
 		}
@@ -97,7 +98,7 @@ func fail(err error) {
 // prints the time and this process's peak memory as JSON.
 func runStage(dir, stage string) {
 	start := time.Now()
-	p, ds := project.Load(dir)
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		fail(ds)
 	}
@@ -128,7 +129,7 @@ func write(dir string, n, dim int) error {
 		return err
 	}
 	settings := "[items]\nfiles = [\"items.tsv\"]\nvectors = \"embeddings.parquet\"\n\n[[similarity.source]]\nkind = \"vector\"\nweight = 1.0\n"
-	if err := os.WriteFile(filepath.Join(dir, project.SettingsFile), []byte(settings), 0o644); err != nil {
+	if err := os.WriteFile(filepath.Join(dir, repo.SettingsFile), []byte(settings), 0o644); err != nil {
 		return err
 	}
 	id := func(i int) string { return "item-" + strconv.Itoa(i) }

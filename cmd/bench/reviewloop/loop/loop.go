@@ -18,6 +18,7 @@ import (
 
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/realdata"
 	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
@@ -173,8 +174,8 @@ func shuffledItems(tsv []byte, order int) []byte {
 	return []byte(lines[0] + "\n" + strings.Join(rows, "\n") + "\n")
 }
 
-func load(dir string) (*project.Project, *solve.Tree, error) {
-	p, ds := project.Load(dir)
+func load(dir string) (*repo.Repo, *solve.Tree, error) {
+	p, ds := repo.Load(dir)
 	if len(ds) > 0 {
 		return nil, nil, ds
 	}
@@ -186,7 +187,7 @@ func load(dir string) (*project.Project, *solve.Tree, error) {
 
 // uncertaintyAUC solves the committee `review draw` solves for the tree
 // and scores its per-item uncertainty against the misplaced items.
-func uncertaintyAUC(p *project.Project, tree, ref *solve.Tree) (float64, error) {
+func uncertaintyAUC(p *repo.Repo, tree, ref *solve.Tree) (float64, error) {
 	structure := format.StructureHash(p.Outline.Root)
 	c, _, err := project.ReviewCommittee(p, structure, nil)
 	if err != nil {

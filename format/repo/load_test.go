@@ -1,4 +1,4 @@
-package project
+package repo
 
 import (
 	"fmt"
@@ -11,7 +11,7 @@ import (
 // A shape of wide categories that would need more than
 // shape.MaxTripletsPerItem triplets per item is refused at its header.
 func TestShapeProblemsRefusesWideShapes(t *testing.T) {
-	p := &Project{Index: map[string]int{}}
+	p := &Repo{Index: map[string]int{}}
 	root := &format.Category{}
 	// 1,200 pairs under the root: 1,200 × 1,199 triplets, about 600 per
 	// item, more than the limit.

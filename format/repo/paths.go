@@ -1,7 +1,7 @@
 // Package project loads a whole taxonomy repository — settings, items,
 // vectors, links, constraint files and the outline — checks every cross
 // reference, and reports every problem with its file, line and column.
-package project
+package repo
 
 import (
 	"errors"

@@ -1,4 +1,4 @@
-package project
+package repo
 
 import (
 	"errors"
@@ -20,12 +20,16 @@ import (
 // SettingsFile is the name of the settings file at a repository's root.
 const SettingsFile = "ramify.toml"
 
+// HandEditPrefix begins the name of every constraint file that absorb
+// writes for hand edits of the outline (constraints/edit-HASH.toml).
+const HandEditPrefix = "edit-"
+
 // MaxConstraintFiles bounds how many constraint files a repository may
 // hold, so a hostile pull request cannot make a check run for hours.
 const MaxConstraintFiles = 10000
 
-// Project is a loaded taxonomy repository.
-type Project struct {
+// Repo is a loaded taxonomy repository.
+type Repo struct {
 	Dir      string
 	Settings *format.Settings
 	// Items are in id order, whatever the order of the items files.
@@ -48,7 +52,7 @@ type Project struct {
 	OutlineText []byte
 	// NameSources are other versions of the outline (the other side of a
 	// merge) whose confirmed names were typed by people and count as such
-	// when naming a regenerated tree (see nameCategories); their concept
+	// when naming a regenerated tree (project.Regenerate); their concept
 	// identifiers are carried too, after the outline's, so a category made
 	// on either branch keeps its identifier.
 	NameSources []*format.Category
@@ -64,8 +68,18 @@ type Project struct {
 	linkItems map[*format.LinkTable][]int32
 }
 
+// ItemIDs lists the item ids in index order (position i is item i of the
+// graph and of every solver tree).
+func (p *Repo) ItemIDs() []string {
+	ids := make([]string, len(p.Items))
+	for i, it := range p.Items {
+		ids[i] = it.ID
+	}
+	return ids
+}
+
 // OutlinePath is the taxonomy file's path on disk.
-func (p *Project) OutlinePath() string {
+func (p *Repo) OutlinePath() string {
 	full, err := Resolve(p.Dir, p.Settings.Taxonomy.File)
 	if err != nil {
 		return filepath.Join(p.Dir, p.Settings.Taxonomy.File)
@@ -76,8 +90,8 @@ func (p *Project) OutlinePath() string {
 // Load reads every input of the repository at dir and checks it. It
 // returns the project together with every problem found; callers decide
 // whether problems are fatal (they always are for commands that write).
-func Load(dir string) (*Project, format.Diags) {
-	p := &Project{Dir: dir, Index: map[string]int{}, Links: map[string]*format.LinkTable{}}
+func Load(dir string) (*Repo, format.Diags) {
+	p := &Repo{Dir: dir, Index: map[string]int{}, Links: map[string]*format.LinkTable{}}
 	var ds format.Diags
 	settingsData, err := ReadSettingsFile(dir)
 	if err != nil {
@@ -111,7 +125,7 @@ func Load(dir string) (*Project, format.Diags) {
 }
 
 // read opens a configured file through Resolve and the size limit.
-func (p *Project) read(rel string, limit int64, keyPos format.Pos) ([]byte, format.Diags) {
+func (p *Repo) read(rel string, limit int64, keyPos format.Pos) ([]byte, format.Diags) {
 	full, err := Resolve(p.Dir, rel)
 	if err != nil {
 		return nil, format.Diags{{Pos: keyPos, Msg: err.Error()}}
@@ -121,7 +135,7 @@ func (p *Project) read(rel string, limit int64, keyPos format.Pos) ([]byte, form
 
 // readResolved reads a resolved file of at most limit bytes, counting it
 // against limits.bytes from its size before anything is read.
-func (p *Project) readResolved(full, rel string, limit int64, keyPos format.Pos) ([]byte, format.Diags) {
+func (p *Repo) readResolved(full, rel string, limit int64, keyPos format.Pos) ([]byte, format.Diags) {
 	budget := int64(p.Settings.Limits.Bytes)
 	if info, err := os.Stat(full); err == nil && info.Mode().IsRegular() && p.bytesRead+info.Size() > budget {
 		return nil, format.Diags{{Pos: format.Pos{File: rel, Line: 1, Col: 1}, Msg: fmt.Sprintf(
@@ -143,7 +157,7 @@ func (p *Project) readResolved(full, rel string, limit int64, keyPos format.Pos)
 
 // readBinary opens a repository file of at most limit bytes and hands it
 // to decode as a random-access reader, for formats read in place.
-func (p *Project) readBinary(rel string, limit int64, keyPos format.Pos, decode func(io.ReaderAt, int64) error) error {
+func (p *Repo) readBinary(rel string, limit int64, keyPos format.Pos, decode func(io.ReaderAt, int64) error) error {
 	full, err := Resolve(p.Dir, rel)
 	if err != nil {
 		return format.Diags{{Pos: keyPos, Msg: err.Error()}}
@@ -168,14 +182,14 @@ func (p *Project) readBinary(rel string, limit int64, keyPos format.Pos, decode 
 	return decode(f, info.Size())
 }
 
-func (p *Project) keyPos(key string) format.Pos {
+func (p *Repo) keyPos(key string) format.Pos {
 	if pos, ok := p.Settings.KeyPos[key]; ok {
 		return pos
 	}
 	return format.Pos{File: SettingsFile, Line: 1, Col: 1}
 }
 
-func (p *Project) loadItems() format.Diags {
+func (p *Repo) loadItems() format.Diags {
 	var ds format.Diags
 	firstSeen := map[string]format.Pos{}
 	for _, rel := range p.Settings.Items.Files {
@@ -224,7 +238,7 @@ func (p *Project) loadItems() format.Diags {
 }
 
 // usesKind reports whether a similarity source of this kind is configured.
-func (p *Project) usesKind(kind string) bool {
+func (p *Repo) usesKind(kind string) bool {
 	for _, s := range p.Settings.Similarity.Sources {
 		if s.Kind == kind {
 			return true
@@ -233,7 +247,7 @@ func (p *Project) usesKind(kind string) bool {
 	return false
 }
 
-func (p *Project) loadVectors() format.Diags {
+func (p *Repo) loadVectors() format.Diags {
 	rel := p.Settings.Items.Vectors
 	if rel == "" {
 		return nil
@@ -291,7 +305,7 @@ func (p *Project) loadVectors() format.Diags {
 	return ds
 }
 
-func (p *Project) loadLinks() format.Diags {
+func (p *Repo) loadLinks() format.Diags {
 	var ds format.Diags
 	linksRead := 0
 	for i, src := range p.Settings.Similarity.Sources {
@@ -322,9 +336,9 @@ func (p *Project) loadLinks() format.Diags {
 }
 
 // unknownLinked reports each link that names an id that is not an item,
-// looking each distinct id up once (linkedItems).
-func (p *Project) unknownLinked(t *format.LinkTable) format.Diags {
-	item := p.linkedItems(t)
+// looking each distinct id up once (LinkItems).
+func (p *Repo) unknownLinked(t *format.LinkTable) format.Diags {
+	item := p.LinkItems(t)
 	if !slices.Contains(item, -1) {
 		return nil
 	}
@@ -339,9 +353,10 @@ func (p *Project) unknownLinked(t *format.LinkTable) format.Diags {
 	return ds
 }
 
-// linkedItems is the item index of each id of t, -1 for an id that is no
-// item, looked up on the first call.
-func (p *Project) linkedItems(t *format.LinkTable) []int32 {
+// LinkItems is the item index of each id of t, -1 for an id that is no
+// item, looked up on the first call (by Load, for its check; the
+// similarity graph of a links source reads it again).
+func (p *Repo) LinkItems(t *format.LinkTable) []int32 {
 	if item, ok := p.linkItems[t]; ok {
 		return item
 	}
@@ -414,7 +429,7 @@ func constraintEntries(dir string) (files []string, skipped format.Diags, err er
 	return files, skipped, nil
 }
 
-func (p *Project) loadConstraints() format.Diags {
+func (p *Repo) loadConstraints() format.Diags {
 	var ds format.Diags
 	recordsRead := 0
 	files, skipped, err := constraintEntries(p.Dir)
@@ -455,7 +470,7 @@ func (p *Project) loadConstraints() format.Diags {
 // first record past limits.records stands, if one does. A triplet or
 // group record counts one; a shape counts the triplets it compiles to
 // (at least one), which is what it costs the solver.
-func (p *Project) pastRecordBudget(cf *format.ConstraintFile, read *int) (format.Pos, bool) {
+func (p *Repo) pastRecordBudget(cf *format.ConstraintFile, read *int) (format.Pos, bool) {
 	type cost struct {
 		at format.Pos
 		n  int
@@ -492,7 +507,7 @@ func (p *Project) pastRecordBudget(cf *format.ConstraintFile, read *int) (format
 // shapeProblems reports shapes of a constraint file that would compile to
 // more than shape.MaxTripletsPerItem triplets per item, at the shape's
 // header, before anything is allocated for them.
-func (p *Project) shapeProblems(cf *format.ConstraintFile) format.Diags {
+func (p *Repo) shapeProblems(cf *format.ConstraintFile) format.Diags {
 	var ds format.Diags
 	idx := func(id string) (int32, bool) {
 		i, ok := p.Index[id]
@@ -513,7 +528,7 @@ func (p *Project) shapeProblems(cf *format.ConstraintFile) format.Diags {
 
 // checkRefs reports constraint records that name items the repository
 // does not have.
-func (p *Project) checkRefs(cf *format.ConstraintFile) format.Diags {
+func (p *Repo) checkRefs(cf *format.ConstraintFile) format.Diags {
 	var ds format.Diags
 	if p.itemsBroken {
 		return nil
@@ -544,7 +559,7 @@ func (p *Project) checkRefs(cf *format.ConstraintFile) format.Diags {
 // SuggestItem offers a did-you-mean for a mistyped item id ("; did you
 // mean "x"?", or ""), only for small repositories where scanning every id
 // is cheap.
-func (p *Project) SuggestItem(id string) string {
+func (p *Repo) SuggestItem(id string) string {
 	if len(p.Items) > 20000 {
 		return ""
 	}
@@ -554,7 +569,7 @@ func (p *Project) SuggestItem(id string) string {
 	return ""
 }
 
-func (p *Project) loadOutline() format.Diags {
+func (p *Repo) loadOutline() format.Diags {
 	rel := p.Settings.Taxonomy.File
 	full, err := Resolve(p.Dir, rel)
 	if err != nil {
@@ -582,7 +597,7 @@ func (p *Project) loadOutline() format.Diags {
 // OutlineMembership reports items of the outline that the repository does
 // not have, and items the outline does not place. For `check` both mean
 // the committed taxonomy is out of date.
-func (p *Project) OutlineMembership() format.Diags {
+func (p *Repo) OutlineMembership() format.Diags {
 	if p.Outline == nil {
 		return nil
 	}
