@@ -196,7 +196,7 @@ func pinsKeepHandEdits(t *testing.T, in testGraph) (kept, total int) {
 }
 
 // toCategory turns a solved tree into an unnamed outline, items named by
-// ids (as project.ToCategory does, which this package's tests cannot
+// ids (as regen.ToCategory does, which this package's tests cannot
 // import).
 func toCategory(t *solve.Tree, ids []string) *format.Category {
 	root := &format.Category{}

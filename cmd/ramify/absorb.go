@@ -5,8 +5,8 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -172,7 +172,7 @@ func checkAbsorbed(e *env, p *repo.Repo, added []*format.ConstraintFile) error {
 		return nil
 	}
 	p.Constraints = append(p.Constraints, added...)
-	compiled := project.Compile(p)
+	compiled := regen.Compile(p)
 	if err := compiled.Consistent(len(p.Items)); err != nil {
 		return solveError(e, err)
 	}

@@ -11,9 +11,9 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // absorbHistoryDepth bounds how many earlier commits of the outline absorb
@@ -32,7 +32,7 @@ type handEdit struct {
 	from     string // structure hash ramify wrote
 	to       string // structure hash of the edited tree
 	// overridden lists earlier records the edited outline breaks.
-	overridden []project.Record
+	overridden []regen.Record
 }
 
 // absorbHandEdit records a hand edit of the outline, or returns nil when
@@ -82,7 +82,7 @@ func absorbHandEdit(e *env, p *repo.Repo, baseFile string, names *reviewerNames,
 // one); the similarities pick the representatives the solver will find
 // hardest to move (see review.PinMoves).
 func itemAffinity(p *repo.Repo) (func(a, b string) float64, error) {
-	g, err := project.Graph(p, project.Seed)
+	g, err := regen.Graph(p, regen.Seed)
 	if err != nil {
 		return nil, err
 	}
@@ -153,10 +153,10 @@ func (h *handEdit) placeFile(cf *format.ConstraintFile, pinOf, shapeOf []string,
 // breaks. They stay in force: the next solve honours both them and the new
 // pins, which can reshape the tree around the edit, so the editor is told
 // which earlier record to remove if the edit replaces it.
-func brokenByEdit(p *repo.Repo, edited *format.Category) []project.Record {
-	compiled := project.Compile(p)
-	tree := project.FromCategory(edited, p.Index, len(p.Items))
-	var out []project.Record
+func brokenByEdit(p *repo.Repo, edited *format.Category) []regen.Record {
+	compiled := regen.Compile(p)
+	tree := regen.FromCategory(edited, p.Index, len(p.Items))
+	var out []regen.Record
 	for _, i := range solve.Satisfies(tree, compiled.Constraints) {
 		out = append(out, compiled.Records[i])
 	}

@@ -9,7 +9,7 @@ import (
 	"github.com/ramify-tax/ramify/solve"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -68,7 +68,7 @@ type recordJSON struct {
 	Note string `json:"note"`
 }
 
-func recordsJSON(recs []project.Record) []recordJSON {
+func recordsJSON(recs []regen.Record) []recordJSON {
 	var out []recordJSON
 	for _, r := range recs {
 		out = append(out, recordJSON{By: r.By, File: r.Pos.File, Kind: r.Kind, Line: r.Pos.Line, Note: r.Note})
@@ -113,7 +113,7 @@ func runCheck(e *env, o *checkOptions, args []string) error {
 // and returns the regenerated solution (which equals the committed outline
 // when it passes), filling rep as far as it gets. release runs it as its
 // first gate.
-func checkRepository(e *env, p *repo.Repo, rep *checkReport) (*project.Solution, error) {
+func checkRepository(e *env, p *repo.Repo, rep *checkReport) (*regen.Solution, error) {
 	rep.Items = len(p.Items)
 	if len(p.Warnings) > 0 {
 		rep.Warnings = problemsJSON(p.Warnings.Capped())
@@ -141,7 +141,7 @@ func checkRepository(e *env, p *repo.Repo, rep *checkReport) (*project.Solution,
 	if err := checkConstraints(e, p); err != nil {
 		return nil, err
 	}
-	sol, err := project.Regenerate(p, project.MethodConstrained, e.progressFunc())
+	sol, err := regen.Regenerate(p, regen.MethodConstrained, e.progressFunc())
 	e.endProgress()
 	if err != nil {
 		return nil, solveError(e, err)
@@ -170,18 +170,18 @@ func checkRepository(e *env, p *repo.Repo, rep *checkReport) (*project.Solution,
 // checkConstraints fails when the records contradict each other or the
 // committed outline breaks one of them, naming each record.
 func checkConstraints(e *env, p *repo.Repo) error {
-	compiled := project.Compile(p)
+	compiled := regen.Compile(p)
 	if err := compiled.Consistent(len(p.Items)); err != nil {
 		return solveError(e, err)
 	}
-	tree := project.FromCategory(p.Outline.Root, p.Index, len(p.Items))
+	tree := regen.FromCategory(p.Outline.Root, p.Index, len(p.Items))
 	violated := solve.Satisfies(tree, compiled.Constraints)
 	if len(violated) == 0 {
 		return nil
 	}
 	rel := p.Settings.Taxonomy.File
 	lines := []string{fmt.Sprintf("%s breaks %s:", rel, plural(len(violated), "constraint record", "constraint records"))}
-	recs := make([]project.Record, len(violated))
+	recs := make([]regen.Record, len(violated))
 	for k, i := range violated {
 		recs[k] = compiled.Records[i]
 		lines = append(lines, "  "+describeRecord(recs[k]))

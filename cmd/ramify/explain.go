@@ -8,8 +8,8 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review/explain"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -148,11 +148,11 @@ func explainInput(e *env, o *explainOptions, p *repo.Repo) (explain.Input, error
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	g, err := project.Graph(p, project.Seed)
+	g, err := regen.Graph(p, regen.Seed)
 	if err != nil {
 		return explain.Input{}, err
 	}
-	sources, err := project.SourceGraphs(p, project.Seed)
+	sources, err := regen.SourceGraphs(p, regen.Seed)
 	if err != nil {
 		return explain.Input{}, err
 	}
@@ -173,7 +173,7 @@ func explainInput(e *env, o *explainOptions, p *repo.Repo) (explain.Input, error
 		}
 		q := unpulled(p)
 		q.Constraints = nil
-		sol, err := project.RegenerateWith(q, project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
+		sol, err := regen.RegenerateWith(q, regen.RegenOptions{Method: regen.MethodConstrained, Rebuild: true})
 		if err != nil {
 			return explain.Input{}, err
 		}
@@ -197,7 +197,7 @@ func solverWithout(p *repo.Repo, records int, progress func(stage string, done, 
 		}
 		q := unpulled(p)
 		q.Constraints = withoutRecord(p.Constraints, r)
-		sol, err := project.RegenerateWith(q, project.RegenOptions{Method: project.MethodConstrained, Rebuild: true})
+		sol, err := regen.RegenerateWith(q, regen.RegenOptions{Method: regen.MethodConstrained, Rebuild: true})
 		if err != nil {
 			return nil, err
 		}

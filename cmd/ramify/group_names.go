@@ -7,7 +7,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // checkGroupNames refuses an outline in which a category that a named
@@ -61,7 +61,7 @@ func checkGroupNames(p *repo.Repo) error {
 			if !ok || c.DisplayName() == g.Name {
 				continue
 			}
-			rec := project.Record{Kind: "group", Pos: g.Pos, Provenance: g.Provenance}
+			rec := regen.Record{Kind: "group", Pos: g.Pos, Provenance: g.Provenance}
 			lines = append(lines,
 				fmt.Sprintf("%s:%d: category %q is named %q by a group record:", rel, c.Line, c.DisplayName(), g.Name),
 				"  "+describeRecord(rec),

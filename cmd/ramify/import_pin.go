@@ -11,7 +11,7 @@ import (
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -66,7 +66,7 @@ func firstSolvePreview(dir string, imported *format.Category) (moved, kept, tota
 	if len(ds) > 0 {
 		return 0, 0, 0, 0, ds
 	}
-	sol, err := project.Regenerate(p, project.MethodConstrained, nil)
+	sol, err := regen.Regenerate(p, regen.MethodConstrained, nil)
 	if err != nil {
 		return 0, 0, 0, 0, err
 	}

@@ -11,7 +11,7 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 func init() {
@@ -159,9 +159,9 @@ func (m *outlineMerge) run(e *env) error {
 	if err != nil {
 		return err
 	}
-	sol, err := project.Regenerate(p, project.MethodConstrained, nil)
+	sol, err := regen.Regenerate(p, regen.MethodConstrained, nil)
 	if err != nil {
-		var ce *project.ConflictError
+		var ce *regen.ConflictError
 		if !errors.As(err, &ce) {
 			return m.unresolved(err.Error())
 		}

@@ -12,8 +12,8 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 func init() {
@@ -134,7 +134,7 @@ func checkMergedRepo(e *env, top, dir string) []string {
 		}
 		return lines
 	}
-	compiled := project.Compile(p)
+	compiled := regen.Compile(p)
 	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
 		lines := []string{fmt.Sprintf("ramify: the merge makes %d constraint records contradict each other:", len(recs))}
 		for _, r := range recs {
@@ -143,7 +143,7 @@ func checkMergedRepo(e *env, top, dir string) []string {
 		return lines
 	}
 	if p.Outline != nil && !p.Outline.Edited() && len(p.OutlineMembership()) == 0 {
-		tree := project.FromCategory(p.Outline.Root, p.Index, len(p.Items))
+		tree := regen.FromCategory(p.Outline.Root, p.Index, len(p.Items))
 		if broken := solve.Satisfies(tree, compiled.Constraints); len(broken) > 0 {
 			e.notice("ramify: the merged %s breaks %s; run `ramify solve` and commit the result",
 				name(p.Settings.Taxonomy.File), plural(len(broken), "constraint record", "constraint records"))

@@ -10,9 +10,9 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/review/release"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -137,7 +137,7 @@ func runRelease(e *env, o *releaseOptions, args []string) error {
 
 // releaseGates runs every gate of a release, in order, and returns the
 // checked solution and the release's input files.
-func releaseGates(e *env, o *releaseOptions, rep *releaseReport, p *repo.Repo, version string) (*project.Solution, []string, error) {
+func releaseGates(e *env, o *releaseOptions, rep *releaseReport, p *repo.Repo, version string) (*regen.Solution, []string, error) {
 	dir := p.Dir
 	// Gate 1: check.
 	sol, err := checkRepository(e, p, &rep.checkReport)

@@ -12,9 +12,9 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/review/report"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -289,7 +289,7 @@ func categorySupport(e *env, p *repo.Repo, structure string) (map[*format.Catego
 	if err != nil {
 		return nil, 0, err
 	}
-	tree, nodes := project.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
+	tree, nodes := regen.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
 	assessment := committee.Assess(tree)
 	out := map[*format.Category]float64{}
 	p.Outline.Root.Walk(func(c *format.Category, depth int) bool {

@@ -8,8 +8,8 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -141,7 +141,7 @@ func runReviewDraw(e *env, o *drawOptions, args []string) error {
 	if err != nil {
 		return err
 	}
-	tree, _ := project.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
+	tree, _ := regen.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
 	assessment := committee.Assess(tree)
 	drafts := review.Draw(tree, committee, assessment, review.DrawOptions{
 		Count:      count,

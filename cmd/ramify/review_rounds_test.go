@@ -12,9 +12,9 @@ import (
 	"github.com/ramify-tax/ramify/cmd/bench/reviewloop/loop"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // TestReviewRoundsKeepApprovedPackets runs the review loop on a copy of
@@ -49,8 +49,8 @@ func TestReviewRoundsKeepApprovedPackets(t *testing.T) {
 		if len(ds) > 0 {
 			t.Fatalf("round %d: %v", round, ds)
 		}
-		compiled := project.Compile(p)
-		tree := project.FromCategory(p.Outline.Root, p.Index, len(p.Items))
+		compiled := regen.Compile(p)
+		tree := regen.FromCategory(p.Outline.Root, p.Index, len(p.Items))
 		broken := map[string]bool{}
 		for _, r := range solve.Satisfies(tree, compiled.Constraints) {
 			broken[compiled.Records[r].Pos.File] = true

@@ -6,8 +6,8 @@ import (
 
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -216,7 +216,7 @@ func reportSupport(e *env, rep *statusReport, p *repo.Repo, structure string, to
 	if err != nil {
 		return err
 	}
-	tree, nodes := project.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
+	tree, nodes := regen.CategoryNodes(p.Outline.Root, p.Index, len(p.Items))
 	assessment := committee.Assess(tree)
 	type row struct {
 		path    []string

@@ -9,7 +9,7 @@ import (
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 	"github.com/spf13/pflag"
 )
 
@@ -104,8 +104,8 @@ func runSolve(e *env, o *solveOptions, args []string) error {
 	if err := noArguments("solve", args, ""); err != nil {
 		return err
 	}
-	method := project.Method(o.method)
-	if method != project.MethodConstrained && method != project.MethodAverage {
+	method := regen.Method(o.method)
+	if method != regen.MethodConstrained && method != regen.MethodAverage {
 		return usagef("--method must be constrained or average, not %q", method)
 	}
 	dryRun := o.dryRun
@@ -120,7 +120,7 @@ func runSolve(e *env, o *solveOptions, args []string) error {
 	if err := checkGroupNames(p); err != nil {
 		return err
 	}
-	sol, err := project.RegenerateWith(p, project.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc()})
+	sol, err := regen.RegenerateWith(p, regen.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc()})
 	e.endProgress()
 	if err != nil {
 		return solveError(e, err)
@@ -156,7 +156,7 @@ func runSolve(e *env, o *solveOptions, args []string) error {
 
 // solveError turns a conflict into a report that names each record.
 func solveError(e *env, err error) error {
-	var ce *project.ConflictError
+	var ce *regen.ConflictError
 	if !errors.As(err, &ce) {
 		return err
 	}
@@ -185,7 +185,7 @@ type conflictRecordJSON struct {
 	Note string `json:"note"`
 }
 
-func describeRecord(r project.Record) string {
+func describeRecord(r regen.Record) string {
 	s := fmt.Sprintf("%s:%d: %s", r.Pos.File, r.Pos.Line, r.Kind)
 	if r.By != "" {
 		s += " by " + r.By
@@ -207,7 +207,7 @@ func quoteNote(n string) string {
 	return `"` + n + `"`
 }
 
-func solveReportOf(p *repo.Repo, sol *project.Solution, prev *format.Category) *solveReport {
+func solveReportOf(p *repo.Repo, sol *regen.Solution, prev *format.Category) *solveReport {
 	total := len(sol.Compiled.Records)
 	violated := len(sol.Violated)
 	counts := countRecords(p.Constraints)
@@ -245,7 +245,7 @@ func solveReportOf(p *repo.Repo, sol *project.Solution, prev *format.Category) *
 	return rep
 }
 
-func printSolveReport(e *env, r *solveReport, p *repo.Repo, sol *project.Solution) {
+func printSolveReport(e *env, r *solveReport, p *repo.Repo, sol *regen.Solution) {
 	e.say("%s in %s, depth %d", plural(len(p.Items), "item", "items"), plural(r.Categories, "category", "categories"), r.Depth)
 	e.say("  cost         %s  (Dasgupta, on a graph of %d edges)", formatCost(sol.Cost), sol.Graph.NumEdges())
 	c := r.Constraints
@@ -263,9 +263,9 @@ func printSolveReport(e *env, r *solveReport, p *repo.Repo, sol *project.Solutio
 		e.say("  moved        %s since the previous outline", describeMoves(len(r.Moved), r.MovedCategories))
 	}
 	switch sol.Mode {
-	case project.ModeRebuild:
+	case regen.ModeRebuild:
 		e.say("  solved       from scratch: %s", sol.Reason)
-	case project.ModeLocal:
+	case regen.ModeLocal:
 		var done []string
 		if sol.Placed > 0 {
 			how := "placed where the change forces"
@@ -281,7 +281,7 @@ func printSolveReport(e *env, r *solveReport, p *repo.Repo, sol *project.Solutio
 			done = append(done, "items that answers lay side by side moved up to where they meet")
 		}
 		e.say("  solved       locally: %s", strings.Join(done, "; "))
-	case project.ModeKept:
+	case regen.ModeKept:
 		e.say("  solved       locally: nothing forced a change")
 	}
 	e.say("  time         %.2f s", sol.Seconds)

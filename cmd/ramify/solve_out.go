@@ -3,7 +3,7 @@ package main
 import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // solveElsewhere handles where solve's tree goes when it is not simply the
@@ -12,12 +12,12 @@ import (
 // replaces the taxonomy only with --replace, and solve says what it
 // breaks either way. handled is true when solve is done (written to
 // --out, or refused).
-func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *repo.Repo, sol *project.Solution) (handled bool, err error) {
-	method, out, replace, dryRun := project.Method(o.method), o.out, o.replace, o.dryRun
+func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *repo.Repo, sol *regen.Solution) (handled bool, err error) {
+	method, out, replace, dryRun := regen.Method(o.method), o.out, o.replace, o.dryRun
 	rel := p.Settings.Taxonomy.File
 	broken := len(sol.Violated)
 	total := len(sol.Compiled.Records)
-	if method == project.MethodAverage && broken > 0 {
+	if method == regen.MethodAverage && broken > 0 {
 		e.notice("the average-linkage tree breaks %d of %s:", broken, plural(total, "constraint record", "constraint records"))
 		for i, r := range sol.Violated {
 			if i == 10 {
@@ -54,7 +54,7 @@ func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *repo.Repo, sol
 		e.say("wrote %s; %s is left alone", out, rel)
 		return true, nil
 	}
-	if method == project.MethodAverage && broken > 0 && !replace && !dryRun {
+	if method == regen.MethodAverage && broken > 0 && !replace && !dryRun {
 		rep.Written = new(bool)
 		return true, usagef("--method average would replace %s with a tree that breaks %d of %s; write it elsewhere with --out FILE, or pass --replace to replace the taxonomy anyway",
 			rel, broken, plural(total, "record", "records"))

@@ -52,7 +52,7 @@ type Repo struct {
 	OutlineText []byte
 	// NameSources are other versions of the outline (the other side of a
 	// merge) whose confirmed names were typed by people and count as such
-	// when naming a regenerated tree (project.Regenerate); their concept
+	// when naming a regenerated tree (regen.Regenerate); their concept
 	// identifiers are carried too, after the outline's, so a category made
 	// on either branch keeps its identifier.
 	NameSources []*format.Category
@@ -88,7 +88,7 @@ func (p *Repo) OutlinePath() string {
 }
 
 // Load reads every input of the repository at dir and checks it. It
-// returns the project together with every problem found; callers decide
+// returns the repository together with every problem found; callers decide
 // whether problems are fatal (they always are for commands that write).
 func Load(dir string) (*Repo, format.Diags) {
 	p := &Repo{Dir: dir, Index: map[string]int{}, Links: map[string]*format.LinkTable{}}

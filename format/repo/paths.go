@@ -1,6 +1,8 @@
-// Package project loads a whole taxonomy repository — settings, items,
+// Package repo loads a whole taxonomy repository — settings, items,
 // vectors, links, constraint files and the outline — checks every cross
 // reference, and reports every problem with its file, line and column.
+// It knows the document model only: regenerating the outline from what
+// it loads is package solve/regen.
 package repo
 
 import (

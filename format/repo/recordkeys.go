@@ -9,13 +9,13 @@ import (
 	"github.com/ramify-tax/ramify/format"
 )
 
-// RecordKeys lists every constraint record, in the order of the compiled
-// Records (project.Compile), as its fingerprint and the items it names. The fingerprint
-// hashes the record's kind and content (a triplet's pair and odd one out,
-// a group's items, a shape's canonical outline) and leaves out who made it,
-// when and why: rewording a note is not a new decision. The outline keeps
-// these lines, so that the next solve can tell which decisions are new and
-// which were removed.
+// RecordKeys lists every constraint record, in the order of the records
+// solve/regen compiles, as its fingerprint and the items it names. The
+// fingerprint hashes the record's kind and content (a triplet's pair and
+// odd one out, a group's items, a shape's canonical outline) and leaves
+// out who made it, when and why: rewording a note is not a new decision.
+// The outline keeps these lines, so that the next solve can tell which
+// decisions are new and which were removed.
 func (p *Repo) RecordKeys() []format.OutlineRecord {
 	return RecordKeysOf(p.Constraints...)
 }

@@ -35,7 +35,7 @@ var Layers = [][]string{
 	// 4, what runs the solver.
 	{"review", "solve/planted", "format/skos"},
 	// 5, a whole repository: loading, regenerating, the committee for it.
-	{"project"},
+	{"solve/regen"},
 	// 6, views of a loaded repository and its releases.
 	{"review/explain", "review/report", "review/release", "cmd/bench/reviewloop/loop"},
 	// 7, programs.

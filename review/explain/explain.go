@@ -16,8 +16,8 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/binding"
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // Input is what an explanation is computed from.
@@ -26,7 +26,7 @@ type Input struct {
 	// Graph is the combined similarity graph; Sources the graph of each
 	// source, which it sums.
 	Graph   *graph.CSR
-	Sources []project.SourceGraph
+	Sources []regen.SourceGraph
 	Records *binding.Index
 	// Support holds each category's committee support; nil when not
 	// computed.

@@ -20,8 +20,8 @@ import (
 	"github.com/ramify-tax/ramify/format/export"
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/round"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // Dir is the repository folder of the releases.
@@ -111,7 +111,7 @@ type File struct {
 // Build makes the release of the committed outline of p as version on
 // date: sol is the solution check found equal to it, inputs the files
 // the release is made of (see Inputs).
-func Build(p *repo.Repo, sol *project.Solution, version, date string, audits Audits, inputs []string) (*Release, error) {
+func Build(p *repo.Repo, sol *regen.Solution, version, date string, audits Audits, inputs []string) (*Release, error) {
 	root := p.Outline.Root
 	m := &Manifest{
 		Version: version, Date: date, Structure: format.StructureHash(root),

@@ -3,7 +3,7 @@ package main
 import (
 	"github.com/ramify-tax/ramify/diff"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // Scores compare a taxonomy with the reference over the same items.
@@ -25,8 +25,8 @@ const chainShare = 0.8
 // 0..n-1.
 func score(tree, ref *format.Category, index map[string]int) Scores {
 	n := len(index)
-	a := project.FromCategory(tree, index, n)
-	b := project.FromCategory(ref, index, n)
+	a := regen.FromCategory(tree, index, n)
+	b := regen.FromCategory(ref, index, n)
 	var s Scores
 	s.Precision, s.Recall = diff.TripletScores(a, b)
 	if s.Precision+s.Recall > 0 {

@@ -28,7 +28,7 @@ import (
 	"github.com/parquet-go/parquet-go"
 
 	"github.com/ramify-tax/ramify/format/repo"
-	"github.com/ramify-tax/ramify/project"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 type row struct {
@@ -104,7 +104,7 @@ func runStage(dir, stage string) {
 	}
 	r := result{Stage: stage}
 	if stage == "graph" {
-		g, err := project.Graph(p, project.Seed)
+		g, err := regen.Graph(p, regen.Seed)
 		if err != nil {
 			fail(err)
 		}

@@ -20,9 +20,9 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/realdata"
-	"github.com/ramify-tax/ramify/project"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
 // Runner runs one ramify command line (without the program name) and
@@ -87,7 +87,7 @@ func Run(cfg Config) ([]Round, error) {
 	if err != nil {
 		return nil, err
 	}
-	ref := project.FromCategory(cfg.Set.Reference, p.Index, len(p.Items))
+	ref := regen.FromCategory(cfg.Set.Reference, p.Index, len(p.Items))
 	prec, rec := diff.TripletScores(tree, ref)
 	rounds := []Round{{Precision: prec, Recall: rec, F1: f1(prec, rec)}}
 	packets := 0
@@ -182,14 +182,14 @@ func load(dir string) (*repo.Repo, *solve.Tree, error) {
 	if p.Outline == nil {
 		return nil, nil, fmt.Errorf("%s: no outline after solve", dir)
 	}
-	return p, project.FromCategory(p.Outline.Root, p.Index, len(p.Items)), nil
+	return p, regen.FromCategory(p.Outline.Root, p.Index, len(p.Items)), nil
 }
 
 // uncertaintyAUC solves the committee `review draw` solves for the tree
 // and scores its per-item uncertainty against the misplaced items.
 func uncertaintyAUC(p *repo.Repo, tree, ref *solve.Tree) (float64, error) {
 	structure := format.StructureHash(p.Outline.Root)
-	c, _, err := project.ReviewCommittee(p, structure, nil)
+	c, _, err := regen.ReviewCommittee(p, structure, nil)
 	if err != nil {
 		return 0, err
 	}

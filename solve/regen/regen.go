@@ -1,10 +1,10 @@
-// Package project regenerates the taxonomy of a repository loaded by
+// Package regen regenerates the taxonomy of a repository loaded by
 // format/repo: it compiles the constraint records into the solver's
 // triplets and clusters, builds the similarity graph and the committee's
 // views of the items, solves (a local re-solve of the previous outline
 // when the change is small, a rebuild otherwise), names the categories
 // and carries their concept identifiers, and formats the outline.
-package project
+package regen
 
 import (
 	"errors"
@@ -116,7 +116,7 @@ const (
 // for a local re-solve; a larger change rebuilds the tree.
 const LocalShare = 0.10
 
-// Regenerate solves the taxonomy from the project's inputs. progress may
+// Regenerate solves the taxonomy from the repository's inputs. progress may
 // be nil. The previous outline (if any) gives names and, with stability,
 // a pull toward the previous shape.
 func Regenerate(p *repo.Repo, method Method, progress func(stage string, done, total int)) (*Solution, error) {

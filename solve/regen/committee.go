@@ -1,4 +1,4 @@
-package project
+package regen
 
 import (
 	"github.com/ramify-tax/ramify/format/repo"
@@ -6,10 +6,10 @@ import (
 	"github.com/ramify-tax/ramify/solve/graph"
 )
 
-// ReviewCommittee solves the review committee for the project's current
+// ReviewCommittee solves the review committee for the repository's current
 // taxonomy, as `review draw` and `review status` do: the committee size of
 // the settings (review.DefaultCommitteeSize when unset), members solved
-// from the project's views of the items (Views,
+// from the repository's views of the items (Views,
 // review.BuildViewCommittee) under the compiled records, and a seed taken
 // from the structure hash, so the same taxonomy always gets the same
 // committee; a committee solved before from the same inputs is read back

@@ -1,4 +1,4 @@
-package project
+package regen
 
 import (
 	"fmt"
@@ -82,7 +82,7 @@ func sourceGraph(p *repo.Repo, b graph.Builder, src format.Source) (*graph.CSR, 
 			}
 			rows[i] = r
 		}
-		// Cosine on z-scored features is the project's chosen vector
+		// Cosine on z-scored features is ramify's chosen vector
 		// similarity; the Gaussian kernel with local scaling stays
 		// available in solve/graph. Random far partners beside the
 		// neighbours keep the coarse geometry of the points (see

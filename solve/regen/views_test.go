@@ -1,4 +1,4 @@
-package project
+package regen
 
 import (
 	"slices"
@@ -54,7 +54,7 @@ func TestGraphViewsSameAsApart(t *testing.T) {
 // demoViews loads the demo and builds its graph and views apart.
 func demoViews(t *testing.T) (*repo.Repo, *graph.CSR, []View) {
 	t.Helper()
-	p, ds := repo.Load("../examples/tool-library")
+	p, ds := repo.Load("../../examples/tool-library")
 	if len(ds) > 0 {
 		t.Fatal(ds)
 	}
