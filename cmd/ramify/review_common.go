@@ -13,7 +13,7 @@ import (
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
-	"github.com/ramify-tax/ramify/solve/regen"
+	"github.com/ramify-tax/ramify/review/committee"
 	"github.com/spf13/pflag"
 )
 
@@ -133,7 +133,7 @@ func currentTaxonomy(p *repo.Repo, what string) (string, error) {
 // comes from the structure hash, so the same taxonomy always gets the same
 // committee.
 func reviewCommittee(e *env, p *repo.Repo, structure string) (*review.Committee, error) {
-	c, compiled, err := regen.ReviewCommittee(p, structure, e.progressFunc())
+	c, compiled, err := committee.Solve(p, structure, e.progressFunc())
 	e.endProgress()
 	if err != nil {
 		if compiled == nil {

@@ -28,16 +28,19 @@ var Layers = [][]string{
 	// 1, the document model and its codecs.
 	{"format"},
 	// 2, what reads documents without solving: the graph, comparison,
-	// names, writers.
+	// names, writers, shape records over item indices.
 	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "format/shape", "internal/realdata"},
-	// 3, the solver and what builds on comparison and names.
+	// 3, the solver, what builds on comparison and names, and the
+	// repository loader.
 	{"solve", "diff/concept", "format/rdf", "format/repo", "cmd/bench/stability/stable"},
-	// 4, what runs the solver.
-	{"review", "solve/planted", "format/skos"},
-	// 5, a whole repository: loading, regenerating, the committee for it.
-	{"solve/regen"},
-	// 6, views of a loaded repository and its releases.
-	{"review/explain", "review/report", "review/release", "cmd/bench/reviewloop/loop"},
+	// 4, what runs the solver: review, and the regeneration of a loaded
+	// repository.
+	{"review", "solve/planted", "format/skos", "solve/regen"},
+	// 5, views of a loaded repository, its releases and its review
+	// committee.
+	{"review/committee", "review/explain", "review/report", "review/release"},
+	// 6, the review loop the benchmark plays.
+	{"cmd/bench/reviewloop/loop"},
 	// 7, programs.
 	{"cmd/ramify", "cmd/bench/genrepo", "cmd/bench/quality", "cmd/bench/reviewloop", "cmd/bench/solvebench", "cmd/bench/stability", "cmd/bench/vectorload"},
 }

@@ -89,7 +89,7 @@ func TestViolations(t *testing.T) {
 		want  []string
 	}{
 		{"downhill", map[string][]string{m("review"): {m("solve"), m("diff"), m("solve/hier"), "fmt"}}, nil},
-		{"uphill", map[string][]string{m("format/repo"): {m("solve/regen")}}, []string{"format/repo (layer 3) imports solve/regen (layer 5)"}},
+		{"uphill", map[string][]string{m("format/repo"): {m("solve/regen")}}, []string{"format/repo (layer 3) imports solve/regen (layer 4)"}},
 		{"same layer", map[string][]string{m("solve/naming"): {m("diff")}}, []string{"solve/naming (layer 2) imports diff (layer 2)"}},
 		{"leaf importing format", map[string][]string{m("solve/hier"): {m("format")}}, []string{"solve/hier (layer 0) imports format (layer 1)"}},
 		{"diff importing solve", map[string][]string{m("diff"): {m("solve")}}, []string{"diff (layer 2) imports solve (layer 3)"}},

@@ -21,6 +21,7 @@ import (
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/internal/realdata"
 	"github.com/ramify-tax/ramify/review"
+	"github.com/ramify-tax/ramify/review/committee"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/regen"
 )
@@ -189,7 +190,7 @@ func load(dir string) (*repo.Repo, *solve.Tree, error) {
 // and scores its per-item uncertainty against the misplaced items.
 func uncertaintyAUC(p *repo.Repo, tree, ref *solve.Tree) (float64, error) {
 	structure := format.StructureHash(p.Outline.Root)
-	c, _, err := regen.ReviewCommittee(p, structure, nil)
+	c, _, err := committee.Solve(p, structure, nil)
 	if err != nil {
 		return 0, err
 	}

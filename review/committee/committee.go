@@ -1,15 +1,20 @@
-package regen
+// Package committee solves the review committee of a loaded repository:
+// the views of its items and its compiled records (from solve/regen) fed
+// to package review's committee and its cache. It is the one place that
+// joins the two, so review itself never needs to know a repository.
+package committee
 
 import (
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/regen"
 )
 
-// ReviewCommittee solves the review committee for the repository's current
+// Solve solves the review committee for the repository's current
 // taxonomy, as `review draw` and `review status` do: the committee size of
 // the settings (review.DefaultCommitteeSize when unset), members solved
-// from the repository's views of the items (Views,
+// from the repository's views of the items (regen.GraphViews,
 // review.BuildViewCommittee) under the compiled records, and a seed taken
 // from the structure hash, so the same taxonomy always gets the same
 // committee; a committee solved before from the same inputs is read back
@@ -17,16 +22,16 @@ import (
 // nil.
 // A conflict among the records comes back as the solver's
 // *solve.ConflictError, naming records by their compiled number.
-func ReviewCommittee(p *repo.Repo, structure string, progress func(stage string, done, total int)) (*review.Committee, *Compiled, error) {
+func Solve(p *repo.Repo, structure string, progress func(stage string, done, total int)) (*review.Committee, *regen.Compiled, error) {
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	views, err := GraphViews(p, Seed)
+	views, err := regen.GraphViews(p, regen.Seed)
 	if err != nil {
 		return nil, nil, err
 	}
-	compiled := Compile(p)
-	opt := CommitteeOptions(p)
+	compiled := regen.Compile(p)
+	opt := regen.CommitteeOptions(p)
 	opt.Progress = progress
 	if progress != nil {
 		progress("committee of trees", 0, 1)
