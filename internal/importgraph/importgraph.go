@@ -45,6 +45,20 @@ var Layers = [][]string{
 	{"cmd/ramify", "cmd/bench/genrepo", "cmd/bench/quality", "cmd/bench/reviewloop", "cmd/bench/solvebench", "cmd/bench/stability", "cmd/bench/vectorload"},
 }
 
+// Apart names, for a top-level folder, the folders whose packages none
+// of its packages may import, whatever their layers: the document model,
+// its formats and the repository loader know nothing of solving or
+// review, so they stay usable (and testable) without them.
+var Apart = map[string][]string{
+	"format": {"solve", "review"},
+}
+
+// under reports whether the package path p (below Module) is folder or
+// lies below it.
+func under(p, folder string) bool {
+	return p == folder || strings.HasPrefix(p, folder+"/")
+}
+
 // layerOf maps each package path (below Module) to its layer.
 func layerOf() map[string]int {
 	m := map[string]int{}
@@ -57,9 +71,9 @@ func layerOf() map[string]int {
 }
 
 // Violations lists, sorted, what is wrong with graph (full import path →
-// its imports): packages of the module the table does not place, and
-// imports of ramify packages that are not of a lower layer. Imports from
-// outside the module are not judged.
+// its imports): packages of the module the table does not place,
+// imports of ramify packages that are not of a lower layer, and imports
+// that Apart forbids. Imports from outside the module are not judged.
 func Violations(graph map[string][]string) []string {
 	layer := layerOf()
 	rel := func(p string) (string, bool) {
@@ -84,6 +98,13 @@ func Violations(graph map[string][]string) []string {
 			to, ok := rel(imp)
 			if !ok {
 				continue
+			}
+			for folder, apart := range Apart {
+				for _, other := range apart {
+					if under(from, folder) && under(to, other) {
+						out = append(out, fmt.Sprintf("%s imports %s: nothing under %s/ may import a package under %s/", from, to, folder, other))
+					}
+				}
 			}
 			lt, placed := layer[to]
 			if !placed {

@@ -89,10 +89,13 @@ func TestViolations(t *testing.T) {
 		want  []string
 	}{
 		{"downhill", map[string][]string{m("review"): {m("solve"), m("diff"), m("solve/hier"), "fmt"}}, nil},
-		{"uphill", map[string][]string{m("format/repo"): {m("solve/regen")}}, []string{"format/repo (layer 3) imports solve/regen (layer 4)"}},
+		{"uphill", map[string][]string{m("solve/regen"): {m("review/committee")}}, []string{"solve/regen (layer 4) imports review/committee (layer 5)"}},
 		{"same layer", map[string][]string{m("solve/naming"): {m("diff")}}, []string{"solve/naming (layer 2) imports diff (layer 2)"}},
 		{"leaf importing format", map[string][]string{m("solve/hier"): {m("format")}}, []string{"solve/hier (layer 0) imports format (layer 1)"}},
 		{"diff importing solve", map[string][]string{m("diff"): {m("solve")}}, []string{"diff (layer 2) imports solve (layer 3)"}},
+		{"format importing a solve leaf", map[string][]string{m("format/repo"): {m("solve/hier"), m("format/shape")}}, []string{"format/repo imports solve/hier: nothing under format/ may import a package under solve/"}},
+		{"format importing review", map[string][]string{m("format/skos"): {m("review/bounds")}}, []string{"format/skos imports review/bounds: nothing under format/ may import a package under review/"}},
+		{"a folder's prefix is not the folder", map[string][]string{m("format/repo"): {m("solvers")}}, nil},
 		{"unplaced", map[string][]string{m("newpkg"): nil}, []string{"newpkg is in no layer; add it to importgraph.Layers and DEVELOPERS.md"}},
 		{"outside the module", map[string][]string{"example.com/x": {m("cmd/ramify")}}, nil},
 	}
