@@ -184,7 +184,7 @@ func (m *outlineMerge) conflict(e *env, err error) error {
 	}
 	lines := []string{"ramify: merging " + m.rel + ": " + fl.lines[0]}
 	for _, l := range fl.lines[1 : len(fl.lines)-1] {
-		lines = append(lines, "  "+m.repoPath(strings.TrimPrefix(l, "  ")))
+		lines = append(lines, "  "+fromTop(m.repo, strings.TrimPrefix(l, "  ")))
 	}
 	lines = append(lines, "change or remove one of them; dropping any one makes the rest agree.")
 	return &failure{lines: append(lines, m.advice()...), detail: fl.detail}
@@ -245,7 +245,7 @@ func (m *outlineMerge) loadMerged(scratch string) (*repo.Repo, error) {
 	if len(ds) > 0 {
 		lines := []string{"ramify: the merged taxonomy repository does not load:"}
 		for _, d := range ds {
-			lines = append(lines, "  "+m.repoPath(d.String()))
+			lines = append(lines, "  "+fromTop(m.repo, d.String()))
 		}
 		return nil, &failure{lines: append(lines, m.advice()...)}
 	}
@@ -257,13 +257,14 @@ func (m *outlineMerge) loadMerged(scratch string) (*repo.Repo, error) {
 	return p, nil
 }
 
-// repoPath names a repository file as git does, from the top of the work
-// tree.
-func (m *outlineMerge) repoPath(rel string) string {
-	if m.repo == "." {
+// fromTop names the file rel of the taxonomy repository in folder dir
+// (relative to the top of the work tree, "." for the top itself) as git
+// does, from the top of the work tree.
+func fromTop(dir, rel string) string {
+	if dir == "." {
 		return rel
 	}
-	return m.repo + "/" + rel
+	return dir + "/" + rel
 }
 
 // unresolved is the failure that stops the merge with the outline left

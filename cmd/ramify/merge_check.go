@@ -120,12 +120,7 @@ func touchedRepos(top string, changed []string) ([]string, error) {
 // repository, or none; a merged outline that is merely out of date gets a
 // notice.
 func checkMergedRepo(e *env, top, dir string) []string {
-	name := func(rel string) string {
-		if dir == "." {
-			return rel
-		}
-		return dir + "/" + rel
-	}
+	name := func(rel string) string { return fromTop(dir, rel) }
 	p, ds := repo.Load(filepath.Join(top, filepath.FromSlash(dir)))
 	if len(ds) > 0 {
 		lines := []string{"ramify: the merged taxonomy repository " + name("") + " does not load:"}
