@@ -93,11 +93,17 @@ func main() {
 	}
 }
 
+// plantedOptions are the solver options of every solve of a planted
+// instance, here and in the peer comparison: max_depth must admit the
+// planted depth, or folding has to flatten real levels and the comparison
+// with the planted tree is unfair.
+func plantedOptions(inst *planted.Instance) solve.Options {
+	return solve.Options{MinSize: 3, MaxChildren: 12, MaxDepth: max(6, inst.Depth), Seed: 1}
+}
+
 func measure(n int, seed uint64) (string, error) {
 	inst := planted.Generate(seed, n, 4, levelsFor(n))
-	// max_depth must admit the planted depth, or folding has to flatten
-	// real levels and the comparison with the planted tree is unfair.
-	opt := solve.Options{MinSize: 3, MaxChildren: 12, MaxDepth: max(6, inst.Depth), Seed: 1}
+	opt := plantedOptions(inst)
 	start := time.Now()
 	res, err := solve.Solve(inst.Graph, nil, opt)
 	if err != nil {

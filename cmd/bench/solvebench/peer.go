@@ -115,8 +115,7 @@ func measurePeerOne(n int, seed uint64) (string, error) {
 	if err != nil {
 		return "", err
 	}
-	opt := solve.Options{MinSize: 3, MaxChildren: 12, MaxDepth: max(6, inst.Depth), Seed: 1}
-	res, err := solve.Solve(g, nil, opt)
+	res, err := solve.Solve(g, nil, plantedOptions(inst))
 	if err != nil {
 		return "", err
 	}
