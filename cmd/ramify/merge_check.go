@@ -130,10 +130,11 @@ func checkMergedRepo(e *env, top, dir string) []string {
 		return lines
 	}
 	compiled := regen.Compile(p)
-	if ok, recs := solve.Consistent(len(p.Items), compiled.Constraints); !ok {
-		lines := []string{fmt.Sprintf("ramify: the merge makes %d constraint records contradict each other:", len(recs))}
-		for _, r := range recs {
-			lines = append(lines, "  "+name(describeRecord(compiled.Records[r])))
+	var ce *regen.ConflictError
+	if errors.As(compiled.Consistent(len(p.Items)), &ce) {
+		lines := []string{fmt.Sprintf("ramify: the merge makes %d constraint records contradict each other:", len(ce.Records))}
+		for _, r := range ce.Records {
+			lines = append(lines, "  "+name(describeRecord(r)))
 		}
 		return lines
 	}
