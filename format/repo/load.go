@@ -78,6 +78,14 @@ func (p *Repo) ItemIDs() []string {
 	return ids
 }
 
+// ItemIndex is the index of the item id (its position in Items, in the
+// graph and in every solver tree) as the solver numbers leaves, and
+// whether the repository has such an item.
+func (p *Repo) ItemIndex(id string) (int32, bool) {
+	i, ok := p.Index[id]
+	return int32(i), ok
+}
+
 // OutlinePath is the taxonomy file's path on disk.
 func (p *Repo) OutlinePath() string {
 	full, err := Resolve(p.Dir, p.Settings.Taxonomy.File)
@@ -482,13 +490,9 @@ func (p *Repo) pastRecordBudget(cf *format.ConstraintFile, read *int) (format.Po
 	for _, g := range cf.Groups {
 		costs = append(costs, cost{g.Pos, 1})
 	}
-	idx := func(id string) (int32, bool) {
-		i, ok := p.Index[id]
-		return int32(i), ok
-	}
 	for _, sh := range cf.Shapes {
 		n := int64(1)
-		if nodes := shape.Nodes(sh.Tree, idx); nodes != nil {
+		if nodes := shape.Nodes(sh.Tree, p.ItemIndex); nodes != nil {
 			n = max(n, nodes.TripletCount())
 		}
 		costs = append(costs, cost{sh.Pos, int(min(n, 1<<40))})
@@ -509,12 +513,8 @@ func (p *Repo) pastRecordBudget(cf *format.ConstraintFile, read *int) (format.Po
 // header, before anything is allocated for them.
 func (p *Repo) shapeProblems(cf *format.ConstraintFile) format.Diags {
 	var ds format.Diags
-	idx := func(id string) (int32, bool) {
-		i, ok := p.Index[id]
-		return int32(i), ok
-	}
 	for _, s := range cf.Shapes {
-		n := shape.Nodes(s.Tree, idx)
+		n := shape.Nodes(s.Tree, p.ItemIndex)
 		if n == nil {
 			continue
 		}

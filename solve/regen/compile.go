@@ -63,17 +63,13 @@ func (c *Compiled) Consistent(n int) error {
 func Compile(p *repo.Repo) *Compiled {
 	c := &Compiled{Constraints: &solve.Constraints{}}
 	tripletRecords, shapeTriplets := 0, int64(0)
-	idx := func(id string) (int32, bool) {
-		i, ok := p.Index[id]
-		return int32(i), ok
-	}
 	for _, f := range p.Constraints {
 		for _, t := range f.Triplets {
 			rec := len(c.Records)
 			c.Records = append(c.Records, Record{Kind: "triplet", Pos: t.Pos, Provenance: t.Provenance})
-			a, ok1 := idx(t.Pair[0])
-			b, ok2 := idx(t.Pair[1])
-			o, ok3 := idx(t.Out)
+			a, ok1 := p.ItemIndex(t.Pair[0])
+			b, ok2 := p.ItemIndex(t.Pair[1])
+			o, ok3 := p.ItemIndex(t.Out)
 			if ok1 && ok2 && ok3 {
 				c.Constraints.Triplets = append(c.Constraints.Triplets, solve.Triplet{A: a, B: b, C: o, Record: rec})
 				tripletRecords++
@@ -84,7 +80,7 @@ func Compile(p *repo.Repo) *Compiled {
 			c.Records = append(c.Records, Record{Kind: "group", Pos: g.Pos, Provenance: g.Provenance})
 			var leaves []int32
 			for _, id := range g.Items {
-				if i, ok := idx(id); ok {
+				if i, ok := p.ItemIndex(id); ok {
 					leaves = append(leaves, i)
 				}
 			}
@@ -93,7 +89,7 @@ func Compile(p *repo.Repo) *Compiled {
 		for _, s := range f.Shapes {
 			rec := len(c.Records)
 			c.Records = append(c.Records, Record{Kind: "shape", Pos: s.Pos, Provenance: s.Provenance})
-			nodes := shape.Nodes(s.Tree, idx)
+			nodes := shape.Nodes(s.Tree, p.ItemIndex)
 			nodes.Triplets(func(a, b, o int32) {
 				c.Constraints.Triplets = append(c.Constraints.Triplets, solve.Triplet{A: a, B: b, C: o, Record: rec})
 			})
