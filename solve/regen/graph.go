@@ -56,11 +56,7 @@ func sourceGraph(p *repo.Repo, b graph.Builder, src format.Source) (*graph.CSR, 
 		}
 		return b.Tags(tags)
 	case format.SourceText:
-		labels := make([]string, n)
-		texts := make([]string, n)
-		for i, it := range p.Items {
-			labels[i], texts[i] = it.Label, it.Text
-		}
+		labels, texts := labelsAndTexts(p.Items)
 		ts := p.Settings.Similarity.Text
 		return b.LabelText(labels, texts, graph.TextMix{Heads: ts.LabelHeads, Grams: ts.LabelGrams, Words: ts.Description})
 	case format.SourceVector:
@@ -100,4 +96,15 @@ func sourceGraph(p *repo.Repo, b graph.Builder, src format.Source) (*graph.CSR, 
 		return graph.LinkColumns(n, p.LinkItems(t), t.A, t.B, t.Weight)
 	}
 	return nil, fmt.Errorf("unknown kind")
+}
+
+// labelsAndTexts lists the items' labels and descriptions, in item order,
+// as the text graphs read them.
+func labelsAndTexts(items []format.Item) (labels, texts []string) {
+	labels = make([]string, len(items))
+	texts = make([]string, len(items))
+	for i, it := range items {
+		labels[i], texts[i] = it.Label, it.Text
+	}
+	return labels, texts
 }

@@ -76,11 +76,7 @@ func listViews(p *repo.Repo, seed uint64, all *graph.CSR, parts []*graph.CSR) ([
 		if src.Kind != format.SourceText || !hasLabelsAndText(p) {
 			continue
 		}
-		labels := make([]string, len(p.Items))
-		texts := make([]string, len(p.Items))
-		for i, it := range p.Items {
-			labels[i], texts[i] = it.Label, it.Text
-		}
+		labels, texts := labelsAndTexts(p.Items)
 		mix := p.Settings.Similarity.Text
 		channels := []struct {
 			name string
