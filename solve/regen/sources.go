@@ -1,8 +1,6 @@
 package regen
 
 import (
-	"fmt"
-
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -17,16 +15,15 @@ type SourceGraph struct {
 
 // SourceGraphs builds each configured source's graph on its own, so that
 // a similarity in the combined graph can be traced to where it comes
-// from. It gives the same graphs Graph sums.
+// from: the graphs Graph sums, each with its source.
 func SourceGraphs(p *repo.Repo, seed uint64) ([]SourceGraph, error) {
-	b := graph.Builder{K: p.Settings.Similarity.Neighbors, Seed: seed}
+	parts, err := sourceGraphs(p, seed)
+	if err != nil {
+		return nil, err
+	}
 	var out []SourceGraph
-	for _, src := range p.Settings.Similarity.Sources {
-		g, err := sourceGraph(p, b, src)
-		if err != nil {
-			return nil, fmt.Errorf("similarity source %q: %w", src.Kind, err)
-		}
-		out = append(out, SourceGraph{Source: src, Graph: g})
+	for i, g := range parts {
+		out = append(out, SourceGraph{Source: p.Settings.Similarity.Sources[i], Graph: g})
 	}
 	return out, nil
 }
