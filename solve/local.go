@@ -728,7 +728,7 @@ func (r *repairer) resolveRegion(ix *treeIndex, u unit, oldParent map[int32]int3
 		opt.MaxDepth = max(1, opt.MaxDepth-int(ix.depth[region]))
 	}
 	opt.Prior = t.priorUnder(region, items)
-	res, err := Solve(sub.g, sub.c, opt)
+	res, err := r.solveAroundBlocks(region, items, u, sub, opt)
 	if err != nil {
 		return err
 	}

@@ -1,6 +1,7 @@
 package solve
 
 import (
+	"fmt"
 	"maps"
 	"math/rand/v2"
 	"slices"
@@ -225,6 +226,7 @@ func TestRepairMendsAShapeInPlace(t *testing.T) {
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			regions, moved, packets := 0, 0, 0
+			kept, untouched := 0, 0 // categories no packet names, in rounds with a re-solve
 			for trial := range 60 {
 				r := rand.New(rand.NewPCG(uint64(trial), 7))
 				n := 30 + r.IntN(60)
@@ -262,6 +264,9 @@ func TestRepairMendsAShapeInPlace(t *testing.T) {
 					}
 					if len(rep.Regions) > 0 || rep.Rebuilt {
 						regions++
+						k, all := keptCategories(prev, got, touched)
+						kept += k
+						untouched += all
 					} else {
 						before, after := homesWithout(prev, touched), homesWithout(got, touched)
 						for x := range int32(n) {
@@ -276,10 +281,41 @@ func TestRepairMendsAShapeInPlace(t *testing.T) {
 			// Random packets on a random hidden tree disagree with the
 			// solved tree far more than a reviewer's do; how often a round
 			// still needs a subtree re-solved is measured by cmd/bench/reviewloop.
-			t.Logf("%d of %d rounds needed a subtree re-solved", regions, packets/2)
+			t.Logf("%d of %d rounds needed a subtree re-solved; they kept %d of %d categories that hold no packet item", regions, packets/2, kept, untouched)
+			if untouched > 0 && float64(kept) < 0.85*float64(untouched) {
+				t.Errorf("re-solved subtrees kept %d of %d categories that hold no packet item, want at least 85%%", kept, untouched)
+			}
 			if moved > 0 {
 				t.Errorf("%d items outside the packets changed category", moved)
 			}
 		})
 	}
+}
+
+// keptCategories counts the categories of prev with two or more items and
+// none of skip, and how many of them are categories of got too.
+func keptCategories(prev, got *Tree, skip map[int32]bool) (kept, all int) {
+	sets := func(t *Tree) map[string]bool {
+		out := map[string]bool{}
+		for _, v := range t.PostOrder() {
+			if t.IsLeaf(v) || v == t.Root {
+				continue
+			}
+			ls := t.Leaves(v)
+			if len(ls) < 2 || slices.ContainsFunc(ls, func(l int32) bool { return skip[l] }) {
+				continue
+			}
+			slices.Sort(ls)
+			out[fmt.Sprint(ls)] = true
+		}
+		return out
+	}
+	after := sets(got)
+	for k := range sets(prev) {
+		all++
+		if after[k] {
+			kept++
+		}
+	}
+	return kept, all
 }
