@@ -68,10 +68,47 @@ type frontierMove struct {
 	masks  []uint32 // and its own block set
 }
 
+// frontierMemo carries each node's best move from one pass to the next.
+// A node's move depends only on its region: the region's nodes and blocks,
+// the blocks' leaf sets and the edges, pins and triplets whose LCA lies in
+// its top. A move rewires only its region's nodes and keeps the leaf set of
+// its root and of every block, so a region none of whose nodes the last
+// pass rewired is the same region over the same leaves, and the DP would
+// give the same move bit for bit (the edges of a bucket come in the order
+// of their lower end, whatever the layout). Later passes therefore solve
+// the DP only at nodes within depth−1 levels above a rewired one.
+type frontierMemo struct {
+	known   []bool // known[v]: move[v] and has[v] hold v's result
+	has     []bool
+	move    []frontierMove
+	changed []bool // the nodes the last pass rewired
+}
+
+func newFrontierMemo(nodes int) *frontierMemo {
+	return &frontierMemo{known: make([]bool, nodes), has: make([]bool, nodes), move: make([]frontierMove, nodes)}
+}
+
+// clean reports whether the memo holds v's move for its region reg.
+func (m *frontierMemo) clean(v int32, reg topRegion) bool {
+	if m == nil || !m.known[v] {
+		return false
+	}
+	if m.changed != nil {
+		for _, x := range reg.nodes {
+			if m.changed[x] {
+				return false
+			}
+		}
+	}
+	return true
+}
+
 // frontierPass applies improving re-arrangements, best first, that do not
 // touch a node an earlier one of the same pass changed. It returns their
-// number, the cost they saved and the cost before the pass.
-func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth int) (int, float64, float64) {
+// number, the cost they saved and the cost before the pass. memo, when not
+// nil, holds what earlier passes over the same tree found (frontierMemo);
+// the pass updates it.
+func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth int, memo *frontierMemo) (int, float64, float64) {
 	if t.N < 4 {
 		return 0, 0, 0
 	}
@@ -90,7 +127,18 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 		if lay.Parent[v] < 0 && v != t.Root {
 			continue
 		}
-		if mv, ok := sc.bestTop(v, regionOf(t, v, depth)); ok {
+		reg := regionOf(t, v, depth)
+		if memo.clean(v, reg) {
+			if memo.has[v] {
+				moves = append(moves, memo.move[v])
+			}
+			continue
+		}
+		mv, ok := sc.bestTop(v, reg)
+		if memo != nil {
+			memo.known[v], memo.has[v], memo.move[v] = true, ok, mv
+		}
+		if ok {
 			moves = append(moves, mv)
 		}
 	}
@@ -100,7 +148,10 @@ func frontierPass(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, depth 
 		}
 		return moves[i].v < moves[j].v
 	})
-	applied, saved := applyDisjoint(t, moves, nodes)
+	applied, saved, changed := applyDisjoint(t, moves, nodes)
+	if memo != nil {
+		memo.changed = changed
+	}
 	return applied, saved, sc.edges.cost
 }
 
@@ -260,9 +311,9 @@ func (sc *frontierScan) loadTop(v int32, reg topRegion) (float64, *ahoMasks) {
 }
 
 // applyDisjoint applies the moves in their order, skipping any that
-// touches a node an earlier one changed, and returns how many it applied
-// and the cost they saved.
-func applyDisjoint(t *Tree, moves []frontierMove, nodes int) (int, float64) {
+// touches a node an earlier one changed, and returns how many it applied,
+// the cost they saved and which nodes they rewired.
+func applyDisjoint(t *Tree, moves []frontierMove, nodes int) (int, float64, []bool) {
 	changed := make([]bool, nodes)
 	applied, saved := 0, 0.0
 	for _, mv := range moves {
@@ -283,7 +334,7 @@ func applyDisjoint(t *Tree, moves []frontierMove, nodes int) (int, float64) {
 		applied++
 		saved += mv.gain
 	}
-	return applied, saved
+	return applied, saved, changed
 }
 
 // rewire replaces the top of the region by the DP's tree. Its internal

@@ -60,8 +60,9 @@ func improveRotations(g *graph.CSR, t *Tree, c *Constraints, prior [][]int32, ma
 			break
 		}
 	}
+	memo := newFrontierMemo(t.NumNodes())
 	for pass := 0; pass < maxPasses; pass++ {
-		k, gain, cost := frontierPass(g, t, c, prior, frontierDepth(t.N))
+		k, gain, cost := frontierPass(g, t, c, prior, frontierDepth(t.N), memo)
 		applied += k
 		if k == 0 || gain < minGain*cost {
 			break

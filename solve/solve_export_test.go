@@ -48,6 +48,26 @@ func RandomGraph(tb testing.TB, seed, stream uint64, n, extra int) *graph.CSR {
 // at the depth the solver uses for t.N leaves, and returns how many moves
 // it applied and the cost they saved.
 func FrontierPassForTest(g *graph.CSR, t *Tree, c *Constraints) (int, float64) {
-	k, saved, _ := frontierPass(g, t, c, nil, frontierDepth(t.N))
+	k, saved, _ := frontierPass(g, t, c, nil, frontierDepth(t.N), nil)
 	return k, saved
+}
+
+// FrontierPassesForTest runs up to passes frontier passes on t in place,
+// as improveRotations does (stopping at a pass that moves nothing), with
+// the memo of earlier passes when remember is set, and returns the moves
+// each pass applied.
+func FrontierPassesForTest(g *graph.CSR, t *Tree, c *Constraints, passes int, remember bool) []int {
+	var memo *frontierMemo
+	if remember {
+		memo = newFrontierMemo(t.NumNodes())
+	}
+	var moves []int
+	for range passes {
+		k, _, _ := frontierPass(g, t, c, nil, frontierDepth(t.N), memo)
+		moves = append(moves, k)
+		if k == 0 {
+			break
+		}
+	}
+	return moves
 }
