@@ -5,6 +5,7 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"github.com/ramify-tax/ramify/internal/naivelca"
 	"github.com/ramify-tax/ramify/solve/hier"
 )
 
@@ -228,12 +229,12 @@ func TestTripletScoresMatchBruteForce(t *testing.T) {
 		n := 3 + rng.IntN(38)
 		a := randomTree(rng, n, rng.Float64()*0.8, 0.1)
 		b := randomTree(rng, n, rng.Float64()*0.8, 0.1)
-		na, nb := newNaive(a), newNaive(b)
+		na, nb := naivelca.New(a.Parents()), naivelca.New(b.Parents())
 		var same, resA, resB int
 		for p := int32(0); p < int32(n); p++ {
 			for q := p + 1; q < int32(n); q++ {
 				for r := q + 1; r < int32(n); r++ {
-					ta, tb := na.topology(p, q, r), nb.topology(p, q, r)
+					ta, tb := na.Topology(p, q, r), nb.Topology(p, q, r)
 					if ta != 0 {
 						resA++
 					}

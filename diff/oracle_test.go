@@ -5,72 +5,9 @@ import (
 	"math/rand/v2"
 	"sort"
 
+	"github.com/ramify-tax/ramify/internal/naivelca"
 	"github.com/ramify-tax/ramify/solve/hier"
 )
-
-// naiveTree answers lca queries by walking parent pointers: slow and
-// obviously right, for the brute-force oracles.
-type naiveTree struct {
-	parent []int32
-	depth  []int32
-	size   []int
-}
-
-func newNaive(t *hier.Tree) *naiveTree {
-	m := len(t.Kids)
-	nt := &naiveTree{parent: make([]int32, m), depth: make([]int32, m), size: t.Sizes()}
-	for i := range nt.parent {
-		nt.parent[i] = -1
-	}
-	for v, kids := range t.Kids {
-		for _, c := range kids {
-			nt.parent[c] = int32(v)
-		}
-	}
-	for _, v := range reversed(t.PostOrder()) {
-		if p := nt.parent[v]; p >= 0 {
-			nt.depth[v] = nt.depth[p] + 1
-		}
-	}
-	return nt
-}
-
-func reversed(s []int32) []int32 {
-	out := make([]int32, len(s))
-	for i, v := range s {
-		out[len(s)-1-i] = v
-	}
-	return out
-}
-
-func (nt *naiveTree) lca(u, v int32) int32 {
-	for nt.depth[u] > nt.depth[v] {
-		u = nt.parent[u]
-	}
-	for nt.depth[v] > nt.depth[u] {
-		v = nt.parent[v]
-	}
-	for u != v {
-		u, v = nt.parent[u], nt.parent[v]
-	}
-	return u
-}
-
-// topology codes a triple as tripletTopology does, from naive lcas and
-// the definition: ab|c iff lca(a,b) is strictly below lca(a,b,c).
-func (nt *naiveTree) topology(p, q, r int32) int {
-	pq, pr, qr := nt.lca(p, q), nt.lca(p, r), nt.lca(q, r)
-	top := nt.lca(pq, r)
-	switch {
-	case pq != top:
-		return 1
-	case pr != top:
-		return 2
-	case qr != top:
-		return 3
-	}
-	return 0
-}
 
 // bruteTripletAgreement compares all C(n,3) triples: O(n³ · depth).
 func bruteTripletAgreement(a, b *hier.Tree) float64 {
@@ -78,13 +15,13 @@ func bruteTripletAgreement(a, b *hier.Tree) float64 {
 	if n < 3 {
 		return 1
 	}
-	na, nb := newNaive(a), newNaive(b)
+	na, nb := naivelca.New(a.Parents()), naivelca.New(b.Parents())
 	same, all := 0, 0
 	for p := int32(0); p < n; p++ {
 		for q := p + 1; q < n; q++ {
 			for r := q + 1; r < n; r++ {
 				all++
-				if na.topology(p, q, r) == nb.topology(p, q, r) {
+				if na.Topology(p, q, r) == nb.Topology(p, q, r) {
 					same++
 				}
 			}
@@ -133,12 +70,13 @@ func bruteRF(a, b *hier.Tree) int {
 // bruteCophenetic computes Pearson's r over all pairs in float64, the
 // textbook two-pass way.
 func bruteCophenetic(a, b *hier.Tree) (float64, bool) {
-	na, nb := newNaive(a), newNaive(b)
+	na, nb := naivelca.New(a.Parents()), naivelca.New(b.Parents())
+	sa, sb := a.Sizes(), b.Sizes()
 	var xs, ys []float64
 	for p := int32(0); p < int32(a.N); p++ {
 		for q := p + 1; q < int32(a.N); q++ {
-			xs = append(xs, float64(na.size[na.lca(p, q)]))
-			ys = append(ys, float64(nb.size[nb.lca(p, q)]))
+			xs = append(xs, float64(sa[na.LCA(p, q)]))
+			ys = append(ys, float64(sb[nb.LCA(p, q)]))
 		}
 	}
 	if len(xs) == 0 {

@@ -6,6 +6,8 @@ import (
 	"sort"
 	"strings"
 	"testing"
+
+	"github.com/ramify-tax/ramify/internal/naivelca"
 )
 
 // Leaves a..e are 0..4 in the BUILD examples below.
@@ -94,43 +96,33 @@ func TestBuildExamples(t *testing.T) {
 	}
 }
 
-// naiveDepthLCA finds lowest common ancestors by walking parents; the
-// tests use it instead of the package's layout to stay independent.
+// naiveLCA is the parent-climbing oracle of internal/naivelca over a
+// tree, so that the tests check the solver against code it does not
+// share; depth and lca are the names local_test.go reads it by.
 type naiveLCA struct {
-	parent []int32
-	depth  []int
+	*naivelca.Tree
+	depth []int32
 }
 
-func newNaiveLCA(t *Tree) *naiveLCA {
-	p := t.Parents()
-	d := make([]int, len(p))
-	for _, v := range reversed(t.PostOrder()) {
-		if p[v] >= 0 {
-			d[v] = d[p[v]] + 1
-		}
-	}
-	return &naiveLCA{p, d}
+func newNaiveLCA(t *Tree) naiveLCA {
+	o := naivelca.New(t.Parents())
+	return naiveLCA{o, o.Depth}
 }
 
-func reversed(x []int32) []int32 {
-	y := make([]int32, len(x))
-	for i, v := range x {
-		y[len(x)-1-i] = v
-	}
-	return y
-}
+func (l naiveLCA) lca(a, b int32) int32 { return l.LCA(a, b) }
 
-func (l *naiveLCA) lca(a, b int32) int32 {
-	for l.depth[a] > l.depth[b] {
-		a = l.parent[a]
+// displayedTriplet is the triplet, numbered rec, that l's tree displays on
+// the leaves a, b, c; ok is false when the tree leaves them unresolved.
+func (l naiveLCA) displayedTriplet(a, b, c int32, rec int) (tr Triplet, ok bool) {
+	switch l.Topology(a, b, c) {
+	case 1:
+		return trip(a, b, c, rec), true
+	case 2:
+		return trip(a, c, b, rec), true
+	case 3:
+		return trip(b, c, a, rec), true
 	}
-	for l.depth[b] > l.depth[a] {
-		b = l.parent[b]
-	}
-	for a != b {
-		a, b = l.parent[a], l.parent[b]
-	}
-	return a
+	return Triplet{}, false
 }
 
 // allTriplets lists, for every triple resolved by t, its triplet.
@@ -141,14 +133,8 @@ func allTriplets(t *Tree) []Triplet {
 	for i := int32(0); i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			for k := j + 1; k < n; k++ {
-				ij, ik, jk := l.depth[l.lca(i, j)], l.depth[l.lca(i, k)], l.depth[l.lca(j, k)]
-				switch {
-				case ij > ik:
-					out = append(out, trip(i, j, k, len(out)))
-				case ik > ij:
-					out = append(out, trip(i, k, j, len(out)))
-				case jk > ij:
-					out = append(out, trip(j, k, i, len(out)))
+				if tr, ok := l.displayedTriplet(i, j, k, len(out)); ok {
+					out = append(out, tr)
 				}
 			}
 		}
@@ -304,14 +290,8 @@ func TestConsistentLargeMinimalConflict(t *testing.T) {
 		if a == b || b == x || a == x {
 			continue
 		}
-		dab, dax, dbx := l.depth[l.lca(a, b)], l.depth[l.lca(a, x)], l.depth[l.lca(b, x)]
-		switch {
-		case dab > dax:
-			c.Triplets = append(c.Triplets, trip(a, b, x, len(c.Triplets)))
-		case dax > dab:
-			c.Triplets = append(c.Triplets, trip(a, x, b, len(c.Triplets)))
-		case dbx > dab:
-			c.Triplets = append(c.Triplets, trip(b, x, a, len(c.Triplets)))
+		if tr, ok := l.displayedTriplet(a, b, x, len(c.Triplets)); ok {
+			c.Triplets = append(c.Triplets, tr)
 		}
 	}
 	if ok, recs := Consistent(n, c); !ok {

@@ -3,6 +3,7 @@ package solve
 import (
 	"fmt"
 	"math/rand/v2"
+	"slices"
 	"sort"
 	"testing"
 
@@ -120,7 +121,7 @@ func clusterStrings(t *Tree) map[string]bool {
 func categoryDepth(t *Tree) int {
 	depth := make([]int, t.NumNodes())
 	best := 0
-	for _, v := range reversed(t.PostOrder()) {
+	for _, v := range slices.Backward(t.PostOrder()) {
 		for _, k := range t.Kids[v] {
 			if t.IsLeaf(k) {
 				best = max(best, depth[v])

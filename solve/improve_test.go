@@ -97,15 +97,8 @@ func hiddenConstraints(r *rand.Rand, h *Tree, triplets, clusters int) *Constrain
 		if a == b || a == x || b == x {
 			continue
 		}
-		dab, dax, dbx := l.depth[l.lca(a, b)], l.depth[l.lca(a, x)], l.depth[l.lca(b, x)]
-		rec := len(c.Triplets)
-		switch {
-		case dab > dax:
-			c.Triplets = append(c.Triplets, trip(a, b, x, rec))
-		case dax > dab:
-			c.Triplets = append(c.Triplets, trip(a, x, b, rec))
-		case dbx > dab:
-			c.Triplets = append(c.Triplets, trip(b, x, a, rec))
+		if tr, ok := l.displayedTriplet(a, b, x, len(c.Triplets)); ok {
+			c.Triplets = append(c.Triplets, tr)
 		}
 	}
 	for i := 0; i < clusters && h.NumNodes() > n; i++ {

@@ -4,55 +4,11 @@ import (
 	"math/rand/v2"
 	"testing"
 
+	"github.com/ramify-tax/ramify/internal/naivelca"
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/planted"
 )
-
-// topology returns, for leaves a < b < c of t, which pair is joined below
-// the third (0: ab|c, 1: ac|b, 2: bc|a) or 3 when t leaves them unresolved.
-type lcaDepth struct {
-	parent []int32
-	depth  []int
-}
-
-func newLCADepth(t *solve.Tree) *lcaDepth {
-	p := t.Parents()
-	d := make([]int, len(p))
-	post := t.PostOrder()
-	for i := len(post) - 1; i >= 0; i-- {
-		if v := post[i]; p[v] >= 0 {
-			d[v] = d[p[v]] + 1
-		}
-	}
-	return &lcaDepth{p, d}
-}
-
-func (l *lcaDepth) lcaDepth(a, b int32) int {
-	for l.depth[a] > l.depth[b] {
-		a = l.parent[a]
-	}
-	for l.depth[b] > l.depth[a] {
-		b = l.parent[b]
-	}
-	for a != b {
-		a, b = l.parent[a], l.parent[b]
-	}
-	return l.depth[a]
-}
-
-func (l *lcaDepth) topology(a, b, c int32) int {
-	ab, ac, bc := l.lcaDepth(a, b), l.lcaDepth(a, c), l.lcaDepth(b, c)
-	switch {
-	case ab > ac:
-		return 0
-	case ac > ab:
-		return 1
-	case bc > ab:
-		return 2
-	}
-	return 3
-}
 
 // tripletAgreement samples random triples and returns the share on which
 // both trees have the same topology (resolved the same way, or both
@@ -61,12 +17,12 @@ func (l *lcaDepth) topology(a, b, c int32) int {
 // Syst. Biol. 45(3), 1996), estimated by sampling.
 func tripletAgreement(x, y *solve.Tree, samples int, seed uint64) float64 {
 	r := rand.New(rand.NewPCG(seed, 1))
-	lx, ly := newLCADepth(x), newLCADepth(y)
+	lx, ly := naivelca.New(x.Parents()), naivelca.New(y.Parents())
 	same := 0
 	for i := 0; i < samples; i++ {
 		p := r.Perm(x.N)[:3]
 		a, b, c := int32(p[0]), int32(p[1]), int32(p[2])
-		if lx.topology(a, b, c) == ly.topology(a, b, c) {
+		if lx.Topology(a, b, c) == ly.Topology(a, b, c) {
 			same++
 		}
 	}

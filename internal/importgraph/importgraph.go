@@ -24,7 +24,7 @@ const Module = "github.com/ramify-tax/ramify"
 var Layers = [][]string{
 	// 0, leaf packages: nothing of ramify below them ("." is the module's
 	// root, which only embeds the shared testdata).
-	{".", "solve/hier", "diff/match", "review/bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/browsertest", "internal/importgraph", "internal/round", "internal/sorted"},
+	{".", "solve/hier", "diff/match", "review/bounds", "internal/disjoint", "internal/splitmix", "internal/brackets", "internal/naivelca", "internal/browsertest", "internal/importgraph", "internal/round", "internal/sorted"},
 	// 1, the document model and its codecs.
 	{"format"},
 	// 2, what reads documents without solving: the graph, comparison,

@@ -4,6 +4,8 @@ import (
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"github.com/ramify-tax/ramify/internal/naivelca"
 )
 
 // randomTree builds a tree over n leaves by merging random groups of two to
@@ -27,25 +29,12 @@ func randomTree(rng *rand.Rand, n int) *Tree {
 	return t
 }
 
-// naiveLCA climbs parent links: the first ancestor of a that is also an
-// ancestor of b.
-func naiveLCA(parent []int32, a, b int32) int32 {
-	up := map[int32]bool{}
-	for v := a; v >= 0; v = parent[v] {
-		up[v] = true
-	}
-	for v := b; ; v = parent[v] {
-		if up[v] {
-			return v
-		}
-	}
-}
-
 func TestIndexAgreesWithTree(t *testing.T) {
 	rng := rand.New(rand.NewPCG(1, 2))
 	for _, n := range []int{1, 2, 3, 7, 40} {
 		tr := randomTree(rng, n)
 		x := NewLCAIndex(tr)
+		naive := naivelca.New(tr.Parents())
 		if !slices.Equal(x.Parent, tr.Parents()) {
 			t.Fatalf("n=%d: parents %v, want %v", n, x.Parent, tr.Parents())
 		}
@@ -68,7 +57,7 @@ func TestIndexAgreesWithTree(t *testing.T) {
 				t.Fatalf("n=%d: leaf %d at position %d holds %d", n, a, x.Pos[a], x.LeafAt[x.Pos[a]])
 			}
 			for b := range int32(n) {
-				if got, want := x.LCA(a, b), naiveLCA(x.Parent, a, b); got != want {
+				if got, want := x.LCA(a, b), naive.LCA(a, b); got != want {
 					t.Fatalf("n=%d: lca(%d, %d) = %d, want %d", n, a, b, got, want)
 				}
 			}
