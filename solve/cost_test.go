@@ -67,19 +67,10 @@ func dgFourNodes(tb testing.TB) *graph.CSR {
 	})
 }
 
-// dgRandomGraph has every pair present with probability p and weights
-// uniform in (0,1], from a PCG seeded with seed.
+// dgRandomGraph is RandomWeightedGraph on the stream this package's own
+// tests draw their G(n, p) graphs from.
 func dgRandomGraph(tb testing.TB, seed uint64, n int, p float64) *graph.CSR {
-	r := rand.New(rand.NewPCG(seed, 0x5eed))
-	var e []graph.Edge
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			if r.Float64() < p {
-				e = append(e, graph.Edge{A: int32(i), B: int32(j), W: 1 - r.Float64()})
-			}
-		}
-	}
-	return MustGraph(tb, n, e)
+	return RandomWeightedGraph(tb, seed, 0x5eed, n, p)
 }
 
 // dgNested parses a nested-parenthesis tree over leaves 0..n-1, such as

@@ -27,6 +27,21 @@ func MustGraph(tb testing.TB, n int, edges []graph.Edge) *graph.CSR {
 	return g
 }
 
+// RandomWeightedGraph is G(n, p), every pair present with probability p,
+// with weights uniform in (0, 1], drawn from PCG(seed, stream).
+func RandomWeightedGraph(tb testing.TB, seed, stream uint64, n int, p float64) *graph.CSR {
+	r := rand.New(rand.NewPCG(seed, stream))
+	var es []graph.Edge
+	for i := 0; i < n; i++ {
+		for j := i + 1; j < n; j++ {
+			if r.Float64() < p {
+				es = append(es, graph.Edge{A: int32(i), B: int32(j), W: 1 - r.Float64()})
+			}
+		}
+	}
+	return MustGraph(tb, n, es)
+}
+
 // RandomGraph returns a connected graph on n vertices, drawn from
 // PCG(seed, stream): a random spanning path plus extra random edges,
 // weights in (0.1, 2.1).

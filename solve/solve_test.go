@@ -14,18 +14,10 @@ import (
 	"github.com/ramify-tax/ramify/solve/planted"
 )
 
-// randomWeighted is G(n, p) with uniform (0, 1] weights.
+// randomWeighted is solve.RandomWeightedGraph on the stream the external
+// tests draw their G(n, p) graphs from.
 func randomWeighted(t testing.TB, seed uint64, n int, p float64) *graph.CSR {
-	r := rand.New(rand.NewPCG(seed, 77))
-	var es []graph.Edge
-	for i := 0; i < n; i++ {
-		for j := i + 1; j < n; j++ {
-			if r.Float64() < p {
-				es = append(es, graph.Edge{A: int32(i), B: int32(j), W: 1 - r.Float64()})
-			}
-		}
-	}
-	return solve.MustGraph(t, n, es)
+	return solve.RandomWeightedGraph(t, seed, 77, n, p)
 }
 
 func mustSolve(t testing.TB, g *graph.CSR, c *solve.Constraints, opt solve.Options) *solve.Result {
