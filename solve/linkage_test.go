@@ -164,15 +164,22 @@ type dgSummary struct {
 }
 
 func dgReadSummary(tb testing.TB) dgSummary {
-	b, err := os.ReadFile(filepath.Join(dgRefDir, "hierarchy_summary.json"))
+	var s dgSummary
+	readJSONFile(tb, filepath.Join(dgRefDir, "hierarchy_summary.json"), &s)
+	return s
+}
+
+// readJSONFile decodes the reference file at path into v, failing the test
+// when it cannot be read or decoded.
+func readJSONFile(tb testing.TB, path string, v any) {
+	tb.Helper()
+	b, err := os.ReadFile(path)
 	if err != nil {
 		tb.Fatal(err)
 	}
-	var s dgSummary
-	if err := json.Unmarshal(b, &s); err != nil {
-		tb.Fatal(err)
+	if err := json.Unmarshal(b, v); err != nil {
+		tb.Fatalf("%s: %v", path, err)
 	}
-	return s
 }
 
 func TestAverageLinkageUPGMAExample(t *testing.T) {
@@ -285,10 +292,6 @@ func dgIrisGraph(tb testing.TB, x [][]float64) *graph.CSR {
 }
 
 func dgIrisRef(tb testing.TB) (sigma, sumW, cost float64) {
-	b, err := os.ReadFile(filepath.Join(dgRefDir, "dasgupta_iris.json"))
-	if err != nil {
-		tb.Fatal(err)
-	}
 	var ref struct {
 		Sigma float64 `json:"sigma"`
 		SumW  float64 `json:"sum_w_all_pairs"`
@@ -296,9 +299,7 @@ func dgIrisRef(tb testing.TB) (sigma, sumW, cost float64) {
 			Cost float64 `json:"cost"`
 		} `json:"trees"`
 	}
-	if err := json.Unmarshal(b, &ref); err != nil {
-		tb.Fatal(err)
-	}
+	readJSONFile(tb, filepath.Join(dgRefDir, "dasgupta_iris.json"), &ref)
 	return ref.Sigma, ref.SumW, ref.Trees["average"].Cost
 }
 

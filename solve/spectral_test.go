@@ -2,7 +2,6 @@ package solve
 
 import (
 	"encoding/csv"
-	"encoding/json"
 	"errors"
 	"math"
 	"math/rand/v2"
@@ -108,14 +107,8 @@ type referenceSpectra struct {
 
 func loadReference(t *testing.T) referenceSpectra {
 	t.Helper()
-	raw, err := os.ReadFile(filepath.Join("testdata", "spectral", "laplacian_spectra.json"))
-	if err != nil {
-		t.Fatal(err)
-	}
 	var ref referenceSpectra
-	if err := json.Unmarshal(raw, &ref); err != nil {
-		t.Fatal(err)
-	}
+	readJSONFile(t, filepath.Join("testdata", "spectral", "laplacian_spectra.json"), &ref)
 	return ref
 }
 
