@@ -157,18 +157,22 @@ func group(t *solve.Tree, kids []int32) int32 {
 	return t.Add(kids...)
 }
 
-// buildGraph draws the edges described in the package comment.
-func (in *Instance) buildGraph() {
-	r := rand.New(rand.NewPCG(in.Seed, streamEdges))
-	d := in.Depth
-	// Items ordered by bottom category: every category is a contiguous
-	// range of this order.
+// Categories lays the items out by bottom category, so that every category
+// at every level holds one contiguous range of them.
+type Categories struct {
+	in    *Instance
+	order []int32 // items by bottom category, ascending within one
+	start []int   // bottom category c holds order[start[c]:start[c+1]]
+}
+
+// Categories returns the instance's items laid out by category.
+func (in *Instance) Categories() *Categories {
 	order := make([]int32, in.N)
 	for i := range order {
 		order[i] = int32(i)
 	}
 	sort.SliceStable(order, func(a, b int) bool { return in.Bottom[order[a]] < in.Bottom[order[b]] })
-	bottoms := pow(in.Branching, d)
+	bottoms := pow(in.Branching, in.Depth)
 	start := make([]int, bottoms+1)
 	for _, b := range in.Bottom {
 		start[b+1]++
@@ -176,36 +180,70 @@ func (in *Instance) buildGraph() {
 	for c := 0; c < bottoms; c++ {
 		start[c+1] += start[c]
 	}
-	// Cumulative level probabilities ∝ Decay^(D−ℓ), ℓ = 0..D.
+	return &Categories{in, order, start}
+}
+
+// Members lists the items of item i's category at level ℓ (0 = root),
+// i among them, by bottom category and then by id: a shared slice, not
+// to be modified.
+func (cs *Categories) Members(i, level int) []int32 {
+	span := pow(cs.in.Branching, cs.in.Depth-level)
+	c := cs.in.Ancestor(i, level)
+	return cs.order[cs.start[c*span]:cs.start[(c+1)*span]]
+}
+
+// Levels draws levels ℓ = 0..Depth of an item's ancestry with probability
+// ∝ decay^(Depth−ℓ): decay < 1 favours the bottom categories.
+type Levels struct {
+	cum   []float64 // cum[ℓ] is the sum of the weights of levels 0..ℓ
+	total float64
+}
+
+// Levels returns the level draw for decay.
+func (in *Instance) Levels(decay float64) Levels {
+	d := in.Depth
 	cum := make([]float64, d+1)
 	total := 0.0
 	for l := 0; l <= d; l++ {
-		total += math.Pow(Decay, float64(d-l))
+		total += math.Pow(decay, float64(d-l))
 		cum[l] = total
 	}
+	return Levels{cum, total}
+}
+
+// Draw draws one level from r (one Float64).
+func (ls Levels) Draw(r *rand.Rand) int {
+	return min(sort.SearchFloat64s(ls.cum, r.Float64()*ls.total), len(ls.cum)-1)
+}
+
+// Affinity is the noiseless weight of an edge between items i and j,
+// (1 + depth of their deepest common category)/(1 + Depth).
+func (in *Instance) Affinity(i, j int) float64 {
+	return float64(1+in.CommonDepth(i, j)) / float64(1+in.Depth)
+}
+
+// buildGraph draws the edges described in the package comment.
+func (in *Instance) buildGraph() {
+	r := rand.New(rand.NewPCG(in.Seed, streamEdges))
+	cats := in.Categories()
+	levels := in.Levels(Decay)
 	weight := func(i, j int) float64 {
-		base := float64(1+in.CommonDepth(i, j)) / float64(1+d)
-		return base * math.Exp(float64(Noise*r.NormFloat64()))
+		return in.Affinity(i, j) * math.Exp(float64(Noise*r.NormFloat64()))
 	}
 	edges := make([]graph.Edge, 0, in.N*EdgesPerItem+in.N/8)
 	for i := 0; i < in.N; i++ {
 		for k := 0; k < EdgesPerItem; k++ {
-			u := r.Float64() * total
-			level := sort.SearchFloat64s(cum, u)
-			level = min(level, d)
 			j := -1
-			for ; level >= 0 && j < 0; level-- {
-				span := pow(in.Branching, d-level)
-				c := in.Ancestor(i, level)
-				lo, hi := start[c*span], start[(c+1)*span]
-				if hi-lo < 2 {
+			for level := levels.Draw(r); level >= 0 && j < 0; level-- {
+				m := cats.Members(i, level)
+				if len(m) < 2 {
 					continue // i is alone here: look one level up
 				}
-				pick := lo + r.IntN(hi-lo-1)
-				if order[pick] == int32(i) {
-					pick = hi - 1 // skip i itself, keeping the draw uniform
+				pick := r.IntN(len(m) - 1)
+				if m[pick] == int32(i) {
+					pick = len(m) - 1 // skip i itself, keeping the draw uniform
 				}
-				j = int(order[pick])
+				j = int(m[pick])
 			}
 			if j >= 0 {
 				edges = append(edges, graph.Edge{A: int32(i), B: int32(j), W: weight(i, j)})
