@@ -210,6 +210,20 @@ func checkUnionOf(t *testing.T, g *CSR, l *neighborLists, ref func(i, j int) flo
 	}
 }
 
+// checkSparseMatchesReference checks, for one k, the exact top-k lists of
+// the sparse rows and the graph g built from the same items (err its
+// builder's error) against the brute-force similarity ref.
+func checkSparseMatchesReference(t *testing.T, rows *sparseRows, k int, ref func(i, j int) float64, g *CSR, err error) {
+	t.Helper()
+	l := exactSparse(rows, effectiveK(k, rows.n), nil)
+	checkTopLists(t, l, rows.n, k, true, ref, 1e-12)
+	if err != nil {
+		t.Fatal(err)
+	}
+	checkGraph(t, g)
+	checkUnionOf(t, g, l, ref, 1e-12)
+}
+
 func TestTagsMatchBruteForce(t *testing.T) {
 	// Few tags over a small vocabulary: many exact ties, which the checks
 	// must tolerate.
@@ -219,14 +233,8 @@ func TestTagsMatchBruteForce(t *testing.T) {
 	ref := refTagCosine(tags)
 	for _, k := range []int{1, 5, 10, 0} {
 		t.Run(fmt.Sprintf("k=%d", k), func(t *testing.T) {
-			l := exactSparse(tagRows(tags), effectiveK(k, len(tags)), nil)
-			checkTopLists(t, l, len(tags), k, true, ref, 1e-12)
 			g, err := Tags(tags, k)
-			if err != nil {
-				t.Fatal(err)
-			}
-			checkGraph(t, g)
-			checkUnionOf(t, g, l, ref, 1e-12)
+			checkSparseMatchesReference(t, tagRows(tags), k, ref, g, err)
 		})
 	}
 }
@@ -237,14 +245,8 @@ func TestTextMatchesBruteForce(t *testing.T) {
 	ref := refTextCosine(texts)
 	for _, k := range []int{1, 4, 12, 0} {
 		t.Run(fmt.Sprintf("k=%d", k), func(t *testing.T) {
-			l := exactSparse(Builder{}.textRows(texts), effectiveK(k, len(texts)), nil)
-			checkTopLists(t, l, len(texts), k, true, ref, 1e-12)
 			g, err := Text(texts, k)
-			if err != nil {
-				t.Fatal(err)
-			}
-			checkGraph(t, g)
-			checkUnionOf(t, g, l, ref, 1e-12)
+			checkSparseMatchesReference(t, Builder{}.textRows(texts), k, ref, g, err)
 		})
 	}
 }
