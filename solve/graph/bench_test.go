@@ -78,6 +78,13 @@ func sampleItems(n, m int, seed uint64) []int32 {
 	return out
 }
 
+// reportSampledRecall reports the recall of the approximate lists against
+// the exact lists of the sampled items, and the edges of the graph g.
+func reportSampledRecall(b *testing.B, g *CSR, approx, exact *neighborLists, sample []int32) {
+	b.ReportMetric(listRecall(approx, exact, func(i int) int { return int(sample[i]) }), "recall")
+	b.ReportMetric(float64(g.NumEdges()), "edges")
+}
+
 func BenchmarkNNDescentVectors(b *testing.B) {
 	for _, n := range benchSizes(true) {
 		vals := clusteredVectors(n, 16, 20, 54)
@@ -91,11 +98,8 @@ func BenchmarkNNDescentVectors(b *testing.B) {
 			x, d := standardize(vals, nil, n, 16)
 			normalizeRows(x, n, d)
 			r := &denseRows[float64]{n: n, d: d, x: x}
-			approx := approxDense(r, benchK, DefaultSeed)
 			sample := sampleItems(n, 500, 55)
-			exact := exactDense(r, benchK, sample)
-			b.ReportMetric(listRecall(approx, exact, func(i int) int { return int(sample[i]) }), "recall")
-			b.ReportMetric(float64(g.NumEdges()), "edges")
+			reportSampledRecall(b, g, approxDense(r, benchK, DefaultSeed), exactDense(r, benchK, sample), sample)
 		})
 	}
 }
@@ -111,11 +115,8 @@ func BenchmarkNNDescentTags(b *testing.B) {
 			}
 			b.StopTimer()
 			rows := tagRows(tags)
-			approx := approxSparse(rows, benchK, DefaultSeed)
 			sample := sampleItems(n, 500, 57)
-			exact := exactSparse(rows, benchK, sample)
-			b.ReportMetric(listRecall(approx, exact, func(i int) int { return int(sample[i]) }), "recall")
-			b.ReportMetric(float64(g.NumEdges()), "edges")
+			reportSampledRecall(b, g, approxSparse(rows, benchK, DefaultSeed), exactSparse(rows, benchK, sample), sample)
 		})
 	}
 }

@@ -16,18 +16,23 @@ func denseTestRows(n, dim int, gaussian bool, seed uint64) *denseRows[float64] {
 	return &denseRows[float64]{n: n, d: d, x: x, gaussian: gaussian}
 }
 
+// checkRecallTarget logs the recall of the approximate lists against the
+// exact ones over all items and fails below the 0.9 target.
+func checkRecallTarget(t *testing.T, approx, exact *neighborLists) {
+	t.Helper()
+	rec := listRecall(approx, exact, func(r int) int { return r })
+	t.Logf("neighbour recall %.4f", rec)
+	if rec < 0.9 {
+		t.Errorf("recall %.4f < 0.9", rec)
+	}
+}
+
 func TestNNDescentRecallVectors(t *testing.T) {
 	for _, gaussian := range []bool{false, true} {
 		t.Run(fmt.Sprintf("gaussian=%v", gaussian), func(t *testing.T) {
 			r := denseTestRows(5000, 16, gaussian, 21)
 			const k = 15
-			exact := exactDense(r, k, nil)
-			approx := approxDense(r, k, 1)
-			rec := listRecall(approx, exact, func(r int) int { return r })
-			t.Logf("neighbour recall %.4f", rec)
-			if rec < 0.9 {
-				t.Errorf("recall %.4f < 0.9", rec)
-			}
+			checkRecallTarget(t, approxDense(r, k, 1), exactDense(r, k, nil))
 		})
 	}
 }
@@ -36,11 +41,5 @@ func TestNNDescentRecallTags(t *testing.T) {
 	tags := topicTags(5000, 500, 50, 5, 22)
 	rows := tagRows(tags)
 	const k = 15
-	exact := exactSparse(rows, k, nil)
-	approx := approxSparse(rows, k, 1)
-	rec := listRecall(approx, exact, func(r int) int { return r })
-	t.Logf("neighbour recall %.4f", rec)
-	if rec < 0.9 {
-		t.Errorf("recall %.4f < 0.9", rec)
-	}
+	checkRecallTarget(t, approxSparse(rows, k, 1), exactSparse(rows, k, nil))
 }
