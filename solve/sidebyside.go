@@ -1,6 +1,9 @@
 package solve
 
-import "slices"
+import (
+	"maps"
+	"slices"
+)
 
 // SideBySide is a reviewer's "these meet in one category": the items of
 // Branches meet at one node, so that two items of different branches have
@@ -120,12 +123,7 @@ const maxSideBySidePasses = 16
 // that holds items of several branches, the items of all but the largest
 // branch up into w.
 func liftSideBySide(t *mutableTree, s SideBySide, w int32, byChild map[int32][]int) {
-	children := make([]int32, 0, len(byChild))
-	for ch := range byChild {
-		children = append(children, ch)
-	}
-	slices.Sort(children) // map order must not reach the tree
-	for _, ch := range children {
+	for _, ch := range slices.Sorted(maps.Keys(byChild)) { // map order must not reach the tree
 		branches := byChild[ch]
 		if len(branches) < 2 {
 			continue

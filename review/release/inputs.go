@@ -1,8 +1,10 @@
 package release
 
 import (
+	"maps"
 	"os"
 	"path/filepath"
+	"slices"
 	"sort"
 	"strings"
 
@@ -37,12 +39,7 @@ func Inputs(p *repo.Repo, done []string) ([]string, error) {
 	for _, f := range done {
 		set[f] = true
 	}
-	out := make([]string, 0, len(set))
-	for f := range set {
-		out = append(out, f)
-	}
-	sort.Strings(out)
-	return out, nil
+	return slices.Sorted(maps.Keys(set)), nil
 }
 
 // Previous finds the newest release of the repository at dir (by

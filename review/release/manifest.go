@@ -8,10 +8,11 @@ import (
 	"bytes"
 	"crypto/sha256"
 	"encoding/hex"
+	"maps"
 	"os"
 	"path/filepath"
 	"regexp"
-	"sort"
+	"slices"
 
 	"github.com/BurntSushi/toml"
 	"github.com/ramify-tax/ramify/diff"
@@ -239,11 +240,7 @@ func exports(p *repo.Repo, version string) ([]File, error) {
 		}
 		out[r.name] = b.Bytes()
 	}
-	names := make([]string, 0, len(out))
-	for name := range out {
-		names = append(names, name)
-	}
-	sort.Strings(names)
+	names := slices.Sorted(maps.Keys(out))
 	files := make([]File, len(names))
 	for i, name := range names {
 		files[i] = File{Path: Dir + "/" + version + "/" + name, Data: out[name]}

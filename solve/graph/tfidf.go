@@ -1,7 +1,9 @@
 package graph
 
 import (
+	"maps"
 	"math"
+	"slices"
 	"sort"
 )
 
@@ -74,11 +76,7 @@ func weighDocs(docs [][]string, w Weighting, maxDocFreq int) ([]string, *sparseR
 			seen[t] = true
 		}
 	}
-	terms := make([]string, 0, len(seen))
-	for t := range seen {
-		terms = append(terms, t)
-	}
-	sort.Strings(terms)
+	terms := slices.Sorted(maps.Keys(seen))
 	id := make(map[string]int32, len(terms))
 	for i, t := range terms {
 		id[t] = int32(i)
