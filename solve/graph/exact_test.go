@@ -2,7 +2,9 @@ package graph
 
 import (
 	"fmt"
+	"maps"
 	"math"
+	"slices"
 	"sort"
 	"testing"
 
@@ -117,16 +119,25 @@ func refTagCosine(tags [][]string) func(i, j int) float64 {
 			}
 		}
 	}
-	u := func(t string) float64 { return math.Log(float64(n) / float64(df[t])) }
-	sorted := make([][]string, n)
-	norm := make([]float64, n)
+	vec := make([]map[string]float64, n)
 	for i := range sets {
+		vec[i] = map[string]float64{}
 		for t := range sets[i] {
-			sorted[i] = append(sorted[i], t)
+			vec[i][t] = math.Log(float64(n) / float64(df[t]))
 		}
-		sort.Strings(sorted[i])
-		for _, t := range sorted[i] {
-			norm[i] += u(t) * u(t)
+	}
+	return refCosine(vec)
+}
+
+// refCosine is the cosine of sparse term vectors written out directly,
+// cos = Σ_t x_t·y_t / (‖x‖·‖y‖) summed in term order, 0 for a zero vector.
+func refCosine(vec []map[string]float64) func(i, j int) float64 {
+	terms := make([][]string, len(vec))
+	norm := make([]float64, len(vec))
+	for i := range vec {
+		terms[i] = slices.Sorted(maps.Keys(vec[i]))
+		for _, t := range terms[i] {
+			norm[i] += vec[i][t] * vec[i][t]
 		}
 		norm[i] = math.Sqrt(norm[i])
 	}
@@ -135,10 +146,8 @@ func refTagCosine(tags [][]string) func(i, j int) float64 {
 			return 0
 		}
 		s := 0.0
-		for _, t := range sorted[i] {
-			if sets[j][t] {
-				s += u(t) * u(t)
-			}
+		for _, t := range terms[i] {
+			s += vec[i][t] * vec[j][t]
 		}
 		return s / (norm[i] * norm[j])
 	}
@@ -161,31 +170,13 @@ func refTextCosine(texts []string) func(i, j int) float64 {
 		}
 	}
 	vec := make([]map[string]float64, n)
-	norm := make([]float64, n)
 	for i := range counts {
 		vec[i] = map[string]float64{}
-		words := make([]string, 0, len(counts[i]))
-		for w := range counts[i] {
-			words = append(words, w)
+		for w, c := range counts[i] {
+			vec[i][w] = float64(c) * math.Log(float64(n)/float64(df[w]))
 		}
-		sort.Strings(words)
-		for _, w := range words {
-			x := float64(counts[i][w]) * math.Log(float64(n)/float64(df[w]))
-			vec[i][w] = x
-			norm[i] += x * x
-		}
-		norm[i] = math.Sqrt(norm[i])
 	}
-	return func(i, j int) float64 {
-		if norm[i] == 0 || norm[j] == 0 {
-			return 0
-		}
-		s := 0.0
-		for w, x := range vec[i] {
-			s += x * vec[j][w]
-		}
-		return s / (norm[i] * norm[j])
-	}
+	return refCosine(vec)
 }
 
 // checkUnionOf asserts that g is exactly the union-kNN graph of lists with
