@@ -24,7 +24,15 @@ const dgRefDir = "testdata/reference"
 // dgReadCSV returns the numeric columns of a data file in testdata.
 func dgReadCSV(tb testing.TB, name string, cols []int) [][]float64 {
 	tb.Helper()
-	f, err := os.Open(filepath.Join(dgRefDir, name))
+	return readCSVColumns(tb, filepath.Join(dgRefDir, name), cols)
+}
+
+// readCSVColumns returns, for every row of the CSV file at path after its
+// header, the numbers in the columns cols, failing the test on a file it
+// cannot read or a cell that is not a number.
+func readCSVColumns(tb testing.TB, path string, cols []int) [][]float64 {
+	tb.Helper()
+	f, err := os.Open(path)
 	if err != nil {
 		tb.Fatal(err)
 	}

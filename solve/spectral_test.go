@@ -1,11 +1,9 @@
 package solve
 
 import (
-	"encoding/csv"
 	"errors"
 	"math"
 	"math/rand/v2"
-	"os"
 	"path/filepath"
 	"sort"
 	"strconv"
@@ -134,22 +132,9 @@ func TestFiedlerP10MatchesNumpy(t *testing.T) {
 	// must return numpy's eigh(L)[1][:,1] up to sign (fiedler_P10.csv,
 	// numpy 1.24.2) and its eigenvalue 2 − 2cos(π/10).
 	ref := loadReference(t)
-	f, err := os.Open(filepath.Join("testdata", "spectral", "fiedler_P10.csv"))
-	if err != nil {
-		t.Fatal(err)
-	}
-	defer f.Close()
-	rows, err := csv.NewReader(f).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
 	var want []float64
-	for _, r := range rows[1:] {
-		v, err := strconv.ParseFloat(r[1], 64)
-		if err != nil {
-			t.Fatal(err)
-		}
-		want = append(want, v)
+	for _, r := range readCSVColumns(t, filepath.Join("testdata", "spectral", "fiedler_P10.csv"), []int{1}) {
+		want = append(want, r[0])
 	}
 	closeSlices(t, "csv vs json", want, ref.Fiedler.Vector, 0)
 	ones := make([]float64, 10)
