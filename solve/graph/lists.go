@@ -198,7 +198,7 @@ func mergeRow(aT []int32, aW []float64, bT []int32, bW []float64, outT []int32, 
 // sortByTarget sorts a row's parallel slices by target id.
 func sortByTarget(ts []int32, ws []float64) {
 	if len(ts) > 32 {
-		sort.Sort(byTarget{ts, ws})
+		sort.Sort(byTarget{parallelRows{ts, ws}})
 		return
 	}
 	for i := 1; i < len(ts); i++ {
@@ -209,14 +209,20 @@ func sortByTarget(ts []int32, ws []float64) {
 	}
 }
 
-type byTarget struct {
-	ts []int32
-	ws []float64
+// parallelRows are an adjacency row's targets and weights, swapped
+// together; byTarget and rankedPair order them two ways.
+type parallelRows struct {
+	ids []int32
+	ws  []float64
 }
 
-func (b byTarget) Len() int           { return len(b.ts) }
-func (b byTarget) Less(i, j int) bool { return b.ts[i] < b.ts[j] }
-func (b byTarget) Swap(i, j int) {
-	b.ts[i], b.ts[j] = b.ts[j], b.ts[i]
-	b.ws[i], b.ws[j] = b.ws[j], b.ws[i]
+func (r parallelRows) Len() int { return len(r.ids) }
+func (r parallelRows) Swap(i, j int) {
+	r.ids[i], r.ids[j] = r.ids[j], r.ids[i]
+	r.ws[i], r.ws[j] = r.ws[j], r.ws[i]
 }
+
+// byTarget sorts a row by target.
+type byTarget struct{ parallelRows }
+
+func (b byTarget) Less(i, j int) bool { return b.ids[i] < b.ids[j] }

@@ -96,7 +96,7 @@ func siftDown(ids []int32, sims []float64, i int) {
 // (all-pairs mode) take the library sort.
 func sortBestFirst(ids []int32, sims []float64) {
 	if len(ids) > 32 {
-		sort.Sort(rankedPair{ids, sims})
+		sort.Sort(rankedPair{parallelRows{ids, sims}})
 		return
 	}
 	for i := 1; i < len(ids); i++ {
@@ -108,16 +108,8 @@ func sortBestFirst(ids []int32, sims []float64) {
 }
 
 // rankedPair sorts parallel id/score slices best first.
-type rankedPair struct {
-	ids  []int32
-	sims []float64
-}
+type rankedPair struct{ parallelRows }
 
-func (r rankedPair) Len() int { return len(r.ids) }
 func (r rankedPair) Less(i, j int) bool {
-	return better(r.sims[i], r.ids[i], r.sims[j], r.ids[j])
-}
-func (r rankedPair) Swap(i, j int) {
-	r.ids[i], r.ids[j] = r.ids[j], r.ids[i]
-	r.sims[i], r.sims[j] = r.sims[j], r.sims[i]
+	return better(r.ws[i], r.ids[i], r.ws[j], r.ids[j])
 }
