@@ -7,6 +7,7 @@
 //
 //	go run ./cmd/bench/reviewloop                      # all sets, both arms, 3 orders, 10 rounds
 //	go run ./cmd/bench/reviewloop -sets furniture -orders 1 -rounds 3
+//	go run ./cmd/bench/reviewloop -sets music -orders 1 -keep      # keep each repository and its rounds' solve --json
 //
 // It builds the ramify command once and runs it as a user would.
 package main
@@ -33,19 +34,24 @@ func main() {
 	arms := flag.String("arms", "default,random", "arms to run")
 	bin := flag.String("ramify", "", "ramify binary to run (default: build ./cmd/ramify)")
 	perRound := flag.Bool("rounds-table", true, "print the per-round table")
+	keep := flag.Bool("keep", false, "keep each run's repository (with each round's solve --json) and print where")
 	flag.Parse()
-	if err := run(strings.Split(*sets, ","), strings.Split(*arms, ","), *rounds, *count, *orders, *bin, *perRound); err != nil {
+	if err := run(strings.Split(*sets, ","), strings.Split(*arms, ","), *rounds, *count, *orders, *bin, *perRound, *keep); err != nil {
 		fmt.Fprintln(os.Stderr, "reviewloop:", err)
 		os.Exit(1)
 	}
 }
 
-func run(sets, arms []string, rounds, count, orders int, bin string, perRound bool) error {
+func run(sets, arms []string, rounds, count, orders int, bin string, perRound, keep bool) error {
 	work, err := os.MkdirTemp("", "reviewloop-")
 	if err != nil {
 		return err
 	}
-	defer os.RemoveAll(work)
+	if keep {
+		fmt.Fprintln(os.Stderr, "repositories kept in", work)
+	} else {
+		defer os.RemoveAll(work)
+	}
 	if bin == "" {
 		bin = filepath.Join(work, "ramify")
 		build := exec.Command("go", "build", "-o", bin, "./cmd/ramify")
@@ -83,7 +89,9 @@ func run(sets, arms []string, rounds, count, orders int, bin string, perRound bo
 				last := rs[len(rs)-1]
 				fmt.Fprintf(os.Stderr, "%s %s order %d: F1 %.4f -> %.4f in %.0fs\n", name, arm.Name, order, rs[0].F1, last.F1, time.Since(start).Seconds())
 				results = append(results, loop.Result{Set: name, Arm: arm.Name, Order: order, Rounds: rs})
-				os.RemoveAll(dir)
+				if !keep {
+					os.RemoveAll(dir)
+				}
 			}
 		}
 	}

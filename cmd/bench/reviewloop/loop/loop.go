@@ -110,7 +110,14 @@ func Run(cfg Config) ([]Round, error) {
 		if _, err := cfg.Run("absorb", "--dir", dir, "--date", date, "--quiet"); err != nil {
 			return nil, err
 		}
-		if _, err := cfg.Run("solve", "--dir", dir, "--quiet"); err != nil {
+		report, err := cfg.Run("solve", "--dir", dir, "--json")
+		if err != nil {
+			return nil, err
+		}
+		// What each round's solve did (local or rebuilt, the items moved,
+		// the subtrees re-solved) stays beside the repository, for a run
+		// kept with -keep.
+		if err := os.WriteFile(filepath.Join(dir, fmt.Sprintf("solve-round-%02d.json", r)), []byte(report), 0o644); err != nil {
 			return nil, err
 		}
 		np, next, err := load(dir)
