@@ -52,122 +52,85 @@ func (pg *Page) WriteHTML(w io.Writer) error {
 
 // writeMeta writes everything but the items.
 func (pg *Page) writeMeta(j *jsonWriter) {
-	w := j.w
-	w.WriteString(`{"title":`)
+	j.key(`{"title"`)
 	j.str(pg.Title)
-	w.WriteString(`,"structure":`)
+	j.key(`,"structure"`)
 	j.str(pg.Structure)
-	w.WriteString(`,"base":`)
+	j.key(`,"base"`)
 	j.str(pg.Base)
-	w.WriteString(`,"note":`)
+	j.key(`,"note"`)
 	j.str(pg.Note)
-	w.WriteString(`,"support":`)
+	j.key(`,"support"`)
 	j.value(pg.Support)
-	w.WriteString(`,"weakest":`)
+	j.key(`,"weakest"`)
 	j.ints(pg.Weakest)
-	w.WriteString(`,"tags":`)
+	j.key(`,"tags"`)
 	j.strs(pg.Tags)
-	w.WriteString(`,"recs":[`)
-	for i, r := range pg.Recs {
-		if i > 0 {
-			w.WriteByte(',')
-		}
+	j.key(`,"recs"`)
+	j.open()
+	for _, r := range pg.Recs {
 		j.strs([]string{r.Kind, r.Where, r.By, r.Date, r.Note, r.Summary})
 	}
-	w.WriteString("],\n\"cats\":[")
+	j.close()
+	j.key(",\n\"cats\"")
+	j.open()
 	for i := range pg.Cats {
 		c := &pg.Cats[i]
-		if i > 0 {
-			w.WriteString(",\n")
-		}
-		w.WriteByte('[')
+		j.row(i)
 		j.str(c.Name)
-		w.WriteByte(',')
-		w.WriteString(boolDigit(c.Provisional))
-		w.WriteByte(',')
-		w.WriteString(strconv.Itoa(c.Parent))
-		w.WriteByte(',')
-		w.WriteString(strconv.Itoa(c.Size))
-		w.WriteByte(',')
+		j.bit(c.Provisional)
+		j.int(c.Parent)
+		j.int(c.Size)
 		j.fraction(c.Support)
-		w.WriteByte(',')
 		j.ints(c.Children)
-		w.WriteByte(',')
 		j.ints(c.Items)
-		w.WriteByte(',')
 		j.ints(c.Records)
-		w.WriteByte(',')
 		j.strs(c.Marks)
-		w.WriteByte(',')
 		j.str(c.Was)
-		w.WriteByte(']')
+		j.close()
 	}
-	w.WriteString("],\n\"moved\":[")
-	first := true
+	j.close()
+	j.key(",\n\"moved\"")
+	j.open()
 	for i := range pg.Items {
-		it := &pg.Items[i]
-		if it.Mark != "moved" {
-			continue
+		if it := &pg.Items[i]; it.Mark == "moved" {
+			j.open()
+			j.int(i)
+			j.str(it.ID)
+			j.str(it.From)
+			j.close()
 		}
-		if !first {
-			w.WriteByte(',')
-		}
-		first = false
-		w.WriteByte('[')
-		w.WriteString(strconv.Itoa(i))
-		w.WriteByte(',')
-		j.str(it.ID)
-		w.WriteByte(',')
-		j.str(it.From)
-		w.WriteByte(']')
 	}
-	w.WriteString("],\n\"changes\":")
+	j.close()
+	j.key(",\n\"changes\"")
 	j.value(pg.Changes)
-	w.WriteString(`,"review":`)
+	j.key(`,"review"`)
 	j.value(reviewJSON(pg.Review))
-	w.WriteString("}")
+	j.w.WriteString("}")
 }
 
 // writeItems writes the items.
 func (pg *Page) writeItems(j *jsonWriter) {
-	w := j.w
-	w.WriteByte('[')
+	j.open()
 	for i := range pg.Items {
 		it := &pg.Items[i]
-		if i > 0 {
-			w.WriteString(",\n")
-		}
-		w.WriteByte('[')
+		j.row(i)
 		j.str(it.ID)
-		w.WriteByte(',')
 		j.str(it.Label)
-		w.WriteByte(',')
 		j.str(it.Text)
-		w.WriteByte(',')
 		j.ints(it.Tags)
-		w.WriteByte(',')
-		w.WriteString(strconv.Itoa(it.Cat))
+		j.int(it.Cat)
 		// Trailing fields only when there is something in them.
 		if len(it.Records) > 0 || it.Mark != "" {
-			w.WriteByte(',')
 			j.ints(it.Records)
 		}
 		if it.Mark != "" {
-			w.WriteByte(',')
 			j.str(it.Mark)
-			w.WriteByte(',')
 			j.str(it.From)
 		}
-		w.WriteByte(']')
+		j.close()
 	}
-	w.WriteString("]")
-}
-
-func boolDigit(b bool) string {
-	if b {
-		return "1"
-	}
-	return "0"
+	j.close()
 }
 
 // reviewJSON is the review state with the names page.js reads.
@@ -205,38 +168,92 @@ func reviewJSON(r Review) any {
 
 func round4(x float64) float64 { return math.Round(x*1e4) / 1e4 }
 
-// jsonWriter writes JSON values straight to the page.
+// jsonWriter writes JSON values straight to the page. Inside an array
+// each value but the first is preceded by a comma, which the writer adds
+// itself: every value starts with sep, and comma says whether one is due,
+// that is whether a value has been written since the last opening bracket
+// or key. One flag serves for nested arrays too, since closing an array
+// leaves its parent holding a value.
 type jsonWriter struct {
-	w   *bufio.Writer
-	buf []byte
+	w     *bufio.Writer
+	buf   []byte
+	comma bool
+}
+
+// sep writes the comma that goes before a value, if one does.
+func (j *jsonWriter) sep() {
+	if j.comma {
+		j.w.WriteByte(',')
+	}
+	j.comma = true
+}
+
+// key writes an object's key (with whatever punctuation leads to it) and
+// the colon, after which the next value needs no comma.
+func (j *jsonWriter) key(k string) {
+	j.w.WriteString(k)
+	j.w.WriteByte(':')
+	j.comma = false
+}
+
+// open starts an array as a value.
+func (j *jsonWriter) open() {
+	j.sep()
+	j.w.WriteByte('[')
+	j.comma = false
+}
+
+// row starts the array of the i-th category or item, on a line of its own
+// after the first so that the page's source stays readable.
+func (j *jsonWriter) row(i int) {
+	if i > 0 {
+		j.w.WriteString(",\n")
+		j.comma = false
+	}
+	j.open()
+}
+
+// close ends the array; it is a value of its parent.
+func (j *jsonWriter) close() {
+	j.w.WriteByte(']')
+	j.comma = true
+}
+
+func (j *jsonWriter) int(x int) {
+	j.sep()
+	j.buf = strconv.AppendInt(j.buf[:0], int64(x), 10)
+	j.w.Write(j.buf)
+}
+
+// bit writes a flag as 1 or 0.
+func (j *jsonWriter) bit(b bool) {
+	if b {
+		j.int(1)
+	} else {
+		j.int(0)
+	}
 }
 
 func (j *jsonWriter) ints(xs []int) {
-	j.w.WriteByte('[')
-	for i, x := range xs {
-		if i > 0 {
-			j.w.WriteByte(',')
-		}
-		j.buf = strconv.AppendInt(j.buf[:0], int64(x), 10)
-		j.w.Write(j.buf)
+	j.open()
+	for _, x := range xs {
+		j.int(x)
 	}
-	j.w.WriteByte(']')
+	j.close()
 }
 
 // strs writes a JSON array of strings.
 func (j *jsonWriter) strs(ss []string) {
-	j.w.WriteByte('[')
-	for i, s := range ss {
-		if i > 0 {
-			j.w.WriteByte(',')
-		}
+	j.open()
+	for _, s := range ss {
 		j.str(s)
 	}
-	j.w.WriteByte(']')
+	j.close()
 }
 
 // fraction writes a share with four decimals, or -1.
 func (j *jsonWriter) fraction(x float64) {
+	j.sep()
 	if x < 0 {
 		j.w.WriteString("-1")
 		return
@@ -248,6 +265,7 @@ func (j *jsonWriter) fraction(x float64) {
 // value writes v with encoding/json, which escapes <, > and & so that no
 // text can close the script element it sits in.
 func (j *jsonWriter) value(v any) {
+	j.sep()
 	b, err := json.Marshal(v)
 	if err != nil {
 		panic("report: " + err.Error()) // only plain data is passed
@@ -260,6 +278,7 @@ func (j *jsonWriter) value(v any) {
 // U+2029, control characters, and invalid UTF-8 as U+FFFD.
 func (j *jsonWriter) str(s string) {
 	const hex = "0123456789abcdef"
+	j.sep()
 	w := j.w
 	w.WriteByte('"')
 	start := 0
