@@ -65,35 +65,35 @@
   const markWords = { created: "new", renamed: "renamed", split: "split", merged: "merged" };
 
   // ---- rows ----
-  function catRow(ci) {
-    const c = cats[ci];
-    const li = el("li", "cat");
+  // A closed tree entry and its row, for catRow and itemRow;
+  // kind ("cat", "item") is its class and data key.
+  function treeRow(kind, i, twist) {
+    const li = el("li", kind);
     li.setAttribute("role", "treeitem");
     li.setAttribute("aria-expanded", "false");
     li.tabIndex = -1;
-    li.dataset.cat = ci;
+    li.dataset[kind] = i;
     const row = el("div", "row");
-    row.appendChild(el("span", "twist", "\u25b8"));
+    row.appendChild(el("span", "twist", twist));
+    li.appendChild(row);
+    return [li, row];
+  }
+  function catRow(ci) {
+    const c = cats[ci];
+    const [li, row] = treeRow("cat", ci, "\u25b8");
     row.appendChild(el("span", "name", c[0]));
     if (c[1]) row.appendChild(mark("draft name", "draft", "provisional: made up from the members' tags and words"));
     row.appendChild(el("span", "count", plural(c[3], "item", "items")));
     if (c[4] >= 0) row.appendChild(supportView(c[4]));
     for (const m of c[8]) row.appendChild(mark(markWords[m] || m, m, c[9] || undefined));
     if (c[7].length) row.appendChild(mark(plural(c[7].length, "decision", "decisions"), "rec"));
-    li.appendChild(row);
     li.setAttribute("aria-label", catName(ci) + ", " + plural(c[3], "item", "items"));
     catNode.set(ci, li);
     return li;
   }
   function itemRow(ii) {
     const it = items[ii];
-    const li = el("li", "item");
-    li.setAttribute("role", "treeitem");
-    li.setAttribute("aria-expanded", "false");
-    li.tabIndex = -1;
-    li.dataset.item = ii;
-    const row = el("div", "row");
-    row.appendChild(el("span", "twist", "\u2022"));
+    const [li, row] = treeRow("item", ii, "\u2022");
     row.appendChild(el("span", "id", it[0]));
     if (it[1]) row.appendChild(el("span", "label", it[1]));
     if (it[6] === "moved") row.appendChild(mark("moved", "moved", "from " + it[7]));
@@ -101,7 +101,6 @@
     if (it[6] === "added") row.appendChild(mark("new", "added"));
     const recs = it[5] || [];
     if (recs.length) row.appendChild(mark(plural(recs.length, "decision", "decisions"), "rec"));
-    li.appendChild(row);
     itemNode.set(ii, li);
     return li;
   }
