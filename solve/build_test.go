@@ -96,24 +96,11 @@ func TestBuildExamples(t *testing.T) {
 	}
 }
 
-// naiveLCA is the parent-climbing oracle of internal/naivelca over a
-// tree, so that the tests check the solver against code it does not
-// share; depth and lca are the names local_test.go reads it by.
-type naiveLCA struct {
-	*naivelca.Tree
-	depth []int32
-}
-
-func newNaiveLCA(t *Tree) naiveLCA {
-	o := naivelca.New(t.Parents())
-	return naiveLCA{o, o.Depth}
-}
-
-func (l naiveLCA) lca(a, b int32) int32 { return l.LCA(a, b) }
-
-// displayedTriplet is the triplet, numbered rec, that l's tree displays on
-// the leaves a, b, c; ok is false when the tree leaves them unresolved.
-func (l naiveLCA) displayedTriplet(a, b, c int32, rec int) (tr Triplet, ok bool) {
+// displayedTriplet is the triplet, numbered rec, that the tree of the
+// parent-climbing oracle l displays on the leaves a, b, c (the tests check
+// the solver against code it does not share); ok is false when the tree
+// leaves them unresolved.
+func displayedTriplet(l *naivelca.Tree, a, b, c int32, rec int) (tr Triplet, ok bool) {
 	switch l.Topology(a, b, c) {
 	case 1:
 		return trip(a, b, c, rec), true
@@ -127,13 +114,13 @@ func (l naiveLCA) displayedTriplet(a, b, c int32, rec int) (tr Triplet, ok bool)
 
 // allTriplets lists, for every triple resolved by t, its triplet.
 func allTriplets(t *Tree) []Triplet {
-	l := newNaiveLCA(t)
+	l := naivelca.New(t.Parents())
 	var out []Triplet
 	n := int32(t.N)
 	for i := int32(0); i < n; i++ {
 		for j := i + 1; j < n; j++ {
 			for k := j + 1; k < n; k++ {
-				if tr, ok := l.displayedTriplet(i, j, k, len(out)); ok {
+				if tr, ok := displayedTriplet(l, i, j, k, len(out)); ok {
 					out = append(out, tr)
 				}
 			}
@@ -283,14 +270,14 @@ func TestConsistentLargeMinimalConflict(t *testing.T) {
 		n = 5000
 	}
 	hidden := RandomBinaryTree(r, n)
-	l := newNaiveLCA(hidden)
+	l := naivelca.New(hidden.Parents())
 	c := &Constraints{}
 	for len(c.Triplets) < 3000 {
 		a, b, x := int32(r.IntN(n)), int32(r.IntN(n)), int32(r.IntN(n))
 		if a == b || b == x || a == x {
 			continue
 		}
-		if tr, ok := l.displayedTriplet(a, b, x, len(c.Triplets)); ok {
+		if tr, ok := displayedTriplet(l, a, b, x, len(c.Triplets)); ok {
 			c.Triplets = append(c.Triplets, tr)
 		}
 	}

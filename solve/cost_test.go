@@ -67,11 +67,9 @@ func dgFourNodes(tb testing.TB) *graph.CSR {
 	})
 }
 
-// dgRandomGraph is RandomWeightedGraph on the stream this package's own
-// tests draw their G(n, p) graphs from.
-func dgRandomGraph(tb testing.TB, seed uint64, n int, p float64) *graph.CSR {
-	return RandomWeightedGraph(tb, seed, 0x5eed, n, p)
-}
+// dgStream is the PCG stream this package's own tests draw their G(n, p)
+// graphs from (RandomWeightedGraph).
+const dgStream = 0x5eed
 
 // dgNested parses a nested-parenthesis tree over leaves 0..n-1, such as
 // "((0,(1,2)),(3,4,5))"; a group may have any number of members.
@@ -200,7 +198,7 @@ func TestCostMatchesDefinition(t *testing.T) {
 	r := rand.New(rand.NewPCG(11, 3))
 	for trial := 0; trial < 40; trial++ {
 		n := 2 + r.IntN(30)
-		g := dgRandomGraph(t, uint64(trial), n, 0.3)
+		g := RandomWeightedGraph(t, uint64(trial), dgStream, n, 0.3)
 		tr := RandomBinaryTree(r, n)
 		if trial%2 == 1 {
 			tr = dgContractRandom(r, tr)

@@ -219,7 +219,7 @@ func TestOptimalCostBruteForce(t *testing.T) {
 			t.Fatalf("n=%d: %d trees, want %d", n, len(trees), counts[n])
 		}
 		for seed := uint64(0); seed < 8; seed++ {
-			g := dgRandomGraph(t, 100*uint64(n)+seed, n, 0.7)
+			g := RandomWeightedGraph(t, 100*uint64(n)+seed, dgStream, n, 0.7)
 			lo, hi := math.Inf(1), math.Inf(-1)
 			for _, tr := range trees {
 				c := Cost(g, tr)
@@ -323,7 +323,7 @@ func TestOptimalConstrainedExamples(t *testing.T) {
 		}
 	}
 	// No constraints: same as the unconstrained optimum.
-	g := dgRandomGraph(t, 5, 9, 0.5)
+	g := RandomWeightedGraph(t, 5, dgStream, 9, 0.5)
 	want, _ := OptimalCost(g)
 	if got, _, ok := OptimalConstrained(g, nil); !ok || got != want {
 		t.Errorf("nil constraints: %v %v, want %v", got, ok, want)
@@ -338,7 +338,7 @@ func TestOptimalConstrainedBruteForce(t *testing.T) {
 	infeasible := 0
 	for trial := 0; trial < 60; trial++ {
 		n := 4 + r.IntN(4)
-		g := dgRandomGraph(t, uint64(1000+trial), n, 0.6)
+		g := RandomWeightedGraph(t, uint64(1000+trial), dgStream, n, 0.6)
 		var c Constraints
 		for k := r.IntN(4); k > 0; k-- {
 			p := r.Perm(n)
@@ -378,7 +378,7 @@ func TestOptimalConstrainedBruteForce(t *testing.T) {
 }
 
 func BenchmarkOptimalCost16(b *testing.B) {
-	g := dgRandomGraph(b, 16, 16, 0.5)
+	g := RandomWeightedGraph(b, 16, dgStream, 16, 0.5)
 	for b.Loop() {
 		OptimalCost(g)
 	}

@@ -4,6 +4,8 @@ import (
 	"math"
 	"math/rand/v2"
 	"testing"
+
+	"github.com/ramify-tax/ramify/internal/naivelca"
 )
 
 // twoTrianglesOpt is ((0,(1,2)),(3,(4,5))), the optimum (cost 22) of the
@@ -89,7 +91,7 @@ func TestRotationDeltasAreExact(t *testing.T) {
 
 // hiddenConstraints draws triplets and clusters that the tree h displays.
 func hiddenConstraints(r *rand.Rand, h *Tree, triplets, clusters int) *Constraints {
-	l := newNaiveLCA(h)
+	l := naivelca.New(h.Parents())
 	c := &Constraints{}
 	n := h.N
 	for len(c.Triplets) < triplets && n >= 3 {
@@ -97,7 +99,7 @@ func hiddenConstraints(r *rand.Rand, h *Tree, triplets, clusters int) *Constrain
 		if a == b || a == x || b == x {
 			continue
 		}
-		if tr, ok := l.displayedTriplet(a, b, x, len(c.Triplets)); ok {
+		if tr, ok := displayedTriplet(l, a, b, x, len(c.Triplets)); ok {
 			c.Triplets = append(c.Triplets, tr)
 		}
 	}

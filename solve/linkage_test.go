@@ -479,7 +479,7 @@ func TestAverageLinkageGraphGreedyDefinition(t *testing.T) {
 	// graphs is reducible, so the NN-chain is exact; Müllner 2011).
 	for seed := uint64(0); seed < 10; seed++ {
 		n := 12 + int(seed)*3
-		g := dgRandomGraph(t, 500+seed, n, 0.25)
+		g := RandomWeightedGraph(t, 500+seed, dgStream, n, 0.25)
 		wantPairs, wantVals := dgGreedyAverage(g)
 		tr := AverageLinkageGraph(g)
 		keys := dgLeafKeys(tr)
@@ -536,7 +536,7 @@ func TestAverageLinkageGraphComponents(t *testing.T) {
 
 func TestAverageLinkageGraphDeterministic(t *testing.T) {
 	// Same result under GOMAXPROCS 1 and 2, and on repeated runs.
-	g := dgRandomGraph(t, 99, 400, 0.02)
+	g := RandomWeightedGraph(t, 99, dgStream, 400, 0.02)
 	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(0))
 	var trees []*Tree
 	for _, p := range []int{1, 2, 1} {

@@ -6,6 +6,8 @@ import (
 	"math/rand/v2"
 	"slices"
 	"testing"
+
+	"github.com/ramify-tax/ramify/internal/naivelca"
 )
 
 // leafParents maps every reachable leaf to the sorted leaf set of its
@@ -70,7 +72,7 @@ func TestRepairKeepsEveryRecord(t *testing.T) {
 	for trial := range 300 {
 		r := rand.New(rand.NewPCG(uint64(trial), 99))
 		n := 6 + r.IntN(40)
-		g := dgRandomGraph(t, uint64(trial), n, 0.25)
+		g := RandomWeightedGraph(t, uint64(trial), dgStream, n, 0.25)
 		hidden := RandomBinaryTree(r, n)
 		all := allTriplets(hidden)
 		c := &Constraints{}
@@ -119,7 +121,7 @@ func TestRepairKeepsEveryRecord(t *testing.T) {
 
 // With no change at all, Repair returns the previous tree as it is.
 func TestRepairWithoutChangeKeepsTheTree(t *testing.T) {
-	g := dgRandomGraph(t, 7, 30, 0.3)
+	g := RandomWeightedGraph(t, 7, dgStream, 30, 0.3)
 	res, err := Solve(g, nil, Options{MinSize: 2, Seed: 1})
 	if err != nil {
 		t.Fatal(err)
@@ -145,7 +147,7 @@ func TestRepairMovesOnlyWhatARecordNames(t *testing.T) {
 	for trial := range 50 {
 		r := rand.New(rand.NewPCG(uint64(trial), 5))
 		n := 30 + r.IntN(30)
-		g := dgRandomGraph(t, uint64(1000+trial), n, 0.2)
+		g := RandomWeightedGraph(t, uint64(1000+trial), dgStream, n, 0.2)
 		res, err := Solve(g, nil, Options{MinSize: 3, MaxChildren: 8, Seed: 1})
 		if err != nil {
 			t.Fatal(err)
@@ -154,11 +156,11 @@ func TestRepairMovesOnlyWhatARecordNames(t *testing.T) {
 		// A triplet prev resolves the other way (or not at all).
 		var tr Triplet
 		found := false
-		l := newNaiveLCA(prev)
+		l := naivelca.New(prev.Parents())
 		for range 200 {
 			p := r.Perm(n)
 			a, b, o := int32(p[0]), int32(p[1]), int32(p[2])
-			if l.depth[l.lca(a, b)] <= l.depth[l.lca(a, o)] {
+			if l.Depth[l.LCA(a, b)] <= l.Depth[l.LCA(a, o)] {
 				tr, found = Triplet{A: a, B: b, C: o}, true
 				break
 			}
@@ -230,7 +232,7 @@ func TestRepairMendsAShapeInPlace(t *testing.T) {
 			for trial := range 60 {
 				r := rand.New(rand.NewPCG(uint64(trial), 7))
 				n := 30 + r.IntN(60)
-				g := dgRandomGraph(t, uint64(trial), n, 0.2)
+				g := RandomWeightedGraph(t, uint64(trial), dgStream, n, 0.2)
 				first, err := Solve(g, nil, tc.opt)
 				if err != nil {
 					t.Fatal(err)

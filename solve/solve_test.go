@@ -14,11 +14,9 @@ import (
 	"github.com/ramify-tax/ramify/solve/planted"
 )
 
-// randomWeighted is solve.RandomWeightedGraph on the stream the external
-// tests draw their G(n, p) graphs from.
-func randomWeighted(t testing.TB, seed uint64, n int, p float64) *graph.CSR {
-	return solve.RandomWeightedGraph(t, seed, 77, n, p)
-}
+// externalStream is the PCG stream the external tests draw their G(n, p)
+// graphs from (solve.RandomWeightedGraph).
+const externalStream = 77
 
 func mustSolve(t testing.TB, g *graph.CSR, c *solve.Constraints, opt solve.Options) *solve.Result {
 	t.Helper()
@@ -161,7 +159,7 @@ func TestSolveNearOptimalOnSmallGraphs(t *testing.T) {
 	const trials = 200
 	for trial := 0; trial < trials; trial++ {
 		n := 4 + trial%7
-		g := randomWeighted(t, uint64(trial), n, 0.6)
+		g := solve.RandomWeightedGraph(t, uint64(trial), externalStream, n, 0.6)
 		opt, _ := solve.OptimalCost(g)
 		if opt == 0 {
 			sumDefault++
@@ -273,7 +271,7 @@ func TestSolveConstrainedNearOptimal(t *testing.T) {
 	const trials = 150
 	for trial := 0; trial < trials; trial++ {
 		n := 4 + trial%7
-		g := randomWeighted(t, uint64(1000+trial), n, 0.6)
+		g := solve.RandomWeightedGraph(t, uint64(1000+trial), externalStream, n, 0.6)
 		c := drawConstraints(r, solve.RandomBinaryTree(r, n), r.IntN(2*n), r.IntN(3))
 		opt, _, ok := solve.OptimalConstrained(g, c)
 		if !ok {

@@ -22,7 +22,7 @@ func TestRepairJoinsCategoriesForAStar(t *testing.T) {
 		{"contradiction", [][]int32{{0, 1, 4}, {2, 3}, {5}}, 0, nil},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
-			g := dgRandomGraph(t, 3, 6, 0.6)
+			g := RandomWeightedGraph(t, 3, dgStream, 6, 0.6)
 			prev := NewTree(6)
 			var tops []int32
 			for _, cat := range tc.categories {
