@@ -201,9 +201,18 @@ func sortByTarget(ts []int32, ws []float64) {
 		sort.Sort(byTarget{parallelRows{ts, ws}})
 		return
 	}
-	for i := 1; i < len(ts); i++ {
-		for j := i; j > 0 && ts[j] < ts[j-1]; j-- {
-			ts[j], ts[j-1] = ts[j-1], ts[j]
+	insertionSort(ts, ws, func(i, j int) bool { return ts[i] < ts[j] })
+}
+
+// insertionSort sorts short parallel slices (rows of up to 32 entries)
+// without allocating: before(i, j) says whether entry i goes before entry
+// j. It is small enough for the compiler to inline together with the
+// literal passed as before, so each row sort compiles to its own loop with
+// the comparison in place, as fast as writing the loop out by hand.
+func insertionSort(ids []int32, ws []float64, before func(i, j int) bool) {
+	for i := range ids {
+		for j := i; j > 0 && before(j, j-1); j-- {
+			ids[j], ids[j-1] = ids[j-1], ids[j]
 			ws[j], ws[j-1] = ws[j-1], ws[j]
 		}
 	}

@@ -99,12 +99,7 @@ func sortBestFirst(ids []int32, sims []float64) {
 		sort.Sort(rankedPair{parallelRows{ids, sims}})
 		return
 	}
-	for i := 1; i < len(ids); i++ {
-		for j := i; j > 0 && better(sims[j], ids[j], sims[j-1], ids[j-1]); j-- {
-			ids[j], ids[j-1] = ids[j-1], ids[j]
-			sims[j], sims[j-1] = sims[j-1], sims[j]
-		}
-	}
+	insertionSort(ids, sims, func(i, j int) bool { return better(sims[i], ids[i], sims[j], ids[j]) })
 }
 
 // rankedPair sorts parallel id/score slices best first.
