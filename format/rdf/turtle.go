@@ -240,17 +240,29 @@ func (p *turtleParser) triples() {
 
 func (p *turtleParser) subject() Term {
 	p.skipSpace()
-	switch c := p.peek(); {
-	case c == '<':
-		return NewIRI(p.iriRef())
-	case c == '_' && p.peekAt(1) == ':':
-		return p.blankLabel()
-	case c == '(':
-		return p.collection()
-	case c == '"' || c == '\'' || c == '+' || c == '-' || c >= '0' && c <= '9':
+	if t, ok := p.node(); ok {
+		return t
+	}
+	if c := p.peek(); c == '"' || c == '\'' || c == '+' || c == '-' || c >= '0' && c <= '9' {
 		p.fail("a literal cannot be a subject")
 	}
 	return NewIRI(p.prefixedName())
+}
+
+// node reads the terms that open alike as a subject or an object: an IRI
+// in angle brackets, a blank node label or a collection; ok is false, and
+// nothing is read, before anything else. A prefixed name, which both
+// also take, is left to the caller to try last.
+func (p *turtleParser) node() (t Term, ok bool) {
+	switch c := p.peek(); {
+	case c == '<':
+		return NewIRI(p.iriRef()), true
+	case c == '_' && p.peekAt(1) == ':':
+		return p.blankLabel(), true
+	case c == '(':
+		return p.collection(), true
+	}
+	return Term{}, false
 }
 
 // predicateObjectList reads "verb objects (; verb objects)*", a trailing
@@ -306,16 +318,13 @@ func (p *turtleParser) emit(s, pr, o Term, at int) {
 
 func (p *turtleParser) object() Term {
 	p.skipSpace()
+	if t, ok := p.node(); ok {
+		return t
+	}
 	switch c := p.peek(); {
-	case c == '<':
-		return NewIRI(p.iriRef())
-	case c == '_' && p.peekAt(1) == ':':
-		return p.blankLabel()
 	case c == '[':
 		t, _ := p.blankNodePropertyList()
 		return t
-	case c == '(':
-		return p.collection()
 	case c == '"' || c == '\'':
 		return p.rdfLiteral()
 	case c == '+' || c == '-' || c >= '0' && c <= '9' || c == '.' && isDigit(p.peekAt(1)):
@@ -398,10 +407,7 @@ func (p *turtleParser) iriRef() string {
 	p.off++ // '<'
 	var b strings.Builder
 	for {
-		if p.off >= len(p.src) {
-			p.failAt(at, "IRI not closed with \">\"")
-		}
-		c := p.src[p.off]
+		c := p.inside(at, "IRI not closed with \">\"")
 		switch {
 		case c == '>':
 			p.off++
@@ -418,9 +424,7 @@ func (p *turtleParser) iriRef() string {
 		case c <= 0x20 || strings.IndexByte("<\"{}|^`", c) >= 0:
 			p.fail("IRI holds the character %q, which an IRI cannot", rune(c))
 		default:
-			r, size := utf8.DecodeRune(p.src[p.off:])
-			b.WriteRune(r)
-			p.off += size
+			p.copyRune(&b)
 		}
 	}
 }
@@ -462,18 +466,26 @@ func (p *turtleParser) prefixName() string {
 	start := p.off
 	if r, size := p.rune(); isPNCharsBase(r) {
 		p.off += size
-		for {
-			r, size := p.rune()
-			if !isPNChars(r) && r != '.' {
-				break
-			}
-			p.off += size
-		}
-		for p.off > start && p.src[p.off-1] == '.' {
-			p.off--
-		}
+		p.nameRest()
 	}
 	return string(p.src[start:p.off])
+}
+
+// inside is the byte at the current place in a token (an IRI, a string)
+// that opened at at; the input ending first fails there with msg.
+func (p *turtleParser) inside(at int, msg string) byte {
+	if p.off >= len(p.src) {
+		p.failAt(at, "%s", msg)
+	}
+	return p.src[p.off]
+}
+
+// copyRune copies the character at the current place to b and moves past
+// it.
+func (p *turtleParser) copyRune(b *strings.Builder) {
+	r, size := p.rune()
+	b.WriteRune(r)
+	p.off += size
 }
 
 func (p *turtleParser) rune() (rune, int) {
@@ -543,22 +555,30 @@ done:
 	return s[:len(s)-trailing]
 }
 
+// nameRest reads what follows the first character of a prefix or a blank
+// node label: PN_CHARS and dots, but not a dot at the end, which is left
+// to end the statement. The first character, never a dot, stops the
+// backing up.
+func (p *turtleParser) nameRest() {
+	for {
+		r, size := p.rune()
+		if !isPNChars(r) && r != '.' {
+			break
+		}
+		p.off += size
+	}
+	for p.src[p.off-1] == '.' {
+		p.off--
+	}
+}
+
 func (p *turtleParser) blankLabel() Term {
 	at := p.off
 	p.off += 2 // "_:"
 	start := p.off
 	if r, size := p.rune(); isPNCharsU(r) || r >= '0' && r <= '9' {
 		p.off += size
-		for {
-			r, size := p.rune()
-			if !isPNChars(r) && r != '.' {
-				break
-			}
-			p.off += size
-		}
-		for p.src[p.off-1] == '.' {
-			p.off--
-		}
+		p.nameRest()
 	}
 	if p.off == start {
 		p.failAt(at, "blank node label \"_:\" has no name")
@@ -615,10 +635,7 @@ func (p *turtleParser) stringLiteral() string {
 	}
 	var b strings.Builder
 	for {
-		if p.off >= len(p.src) {
-			p.failAt(at, "string not closed")
-		}
-		c := p.src[p.off]
+		c := p.inside(at, "string not closed")
 		switch {
 		case c == q && !long:
 			p.off++
@@ -666,9 +683,7 @@ func (p *turtleParser) stringLiteral() string {
 		case (c == '\n' || c == '\r') && !long:
 			p.failAt(at, "string not closed before the end of the line (use \"\"\" for text over several lines)")
 		default:
-			r, size := utf8.DecodeRune(p.src[p.off:])
-			b.WriteRune(r)
-			p.off += size
+			p.copyRune(&b)
 		}
 	}
 }
@@ -694,21 +709,18 @@ func (p *turtleParser) number() Term {
 		digits()
 		kind = XSDDecimal
 	}
+	// The exponent's "e" is the next byte, or the one after a dot that
+	// follows the integer digits ("1.e5" is a DOUBLE too); without digits
+	// after it (and its sign) it is not read.
+	e := 0
 	if c := p.peek(); (c == 'e' || c == 'E') && (intDigits > 0 || kind == XSDDecimal) {
-		save := p.off
-		p.off++
-		if c := p.peek(); c == '+' || c == '-' {
-			p.off++
-		}
-		if digits() == 0 {
-			p.off = save
-		} else {
-			kind = XSDDouble
-		}
+		e = 1
 	} else if c == '.' && intDigits > 0 && (p.peekAt(1) == 'e' || p.peekAt(1) == 'E') {
-		// "1.e5" is a DOUBLE too.
+		e = 2
+	}
+	if e > 0 {
 		save := p.off
-		p.off += 2
+		p.off += e
 		if c := p.peek(); c == '+' || c == '-' {
 			p.off++
 		}
