@@ -10,7 +10,6 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -18,14 +17,8 @@ import (
 // hold together with a recorded decision (here the demo's "Levels" group)
 // is reported with both records, and absorb writes nothing.
 func TestAbsorbRefusesAContradictingAnswer(t *testing.T) {
-	dir := t.TempDir()
-	copyDemoInto(t, dir)
-	os.RemoveAll(filepath.Join(dir, "reviews", "open"))
-	ramify(t, "solve", "--dir", dir)
-	p, ds := repo.Load(dir)
-	if len(ds) > 0 {
-		t.Fatal(ds)
-	}
+	dir := solvedDemo(t)
+	p := loadProject(t, dir)
 	items := []string{"laser-level-cross", "spirit-level-600", "spirit-level-1200", "claw-hammer-16oz"}
 	var idx []int32
 	for _, id := range items {

@@ -6,7 +6,6 @@ import (
 
 	"github.com/google/go-cmp/cmp"
 	"github.com/ramify-tax/ramify/format"
-	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 )
 
@@ -14,10 +13,7 @@ import (
 // in the current format, every item with its label from the items file.
 func TestDemoPacketsAreCurrent(t *testing.T) {
 	const demo = "../../examples/tool-library"
-	p, ds := repo.Load(demo)
-	if len(ds) > 0 {
-		t.Fatal(ds)
-	}
+	p := loadProject(t, demo)
 	open, ds := readPackets(demo, review.OpenDir)
 	if len(ds) > 0 {
 		t.Fatal(ds)

@@ -24,10 +24,7 @@ import (
 // after every round that every shape recorded so far, from this round or
 // an earlier one, still holds in the regenerated taxonomy.
 func TestReviewRoundsKeepApprovedPackets(t *testing.T) {
-	dir := t.TempDir()
-	copyDemoInto(t, dir)
-	os.RemoveAll(filepath.Join(dir, "reviews", "open"))
-	ramify(t, "solve", "--dir", dir)
+	dir := solvedDemo(t)
 	target := hiddenTarget(t, dir)
 	var shapes []string // constraint files of approved packets, in order
 	for round := 1; round <= 4; round++ {
@@ -95,10 +92,7 @@ func ramify(t *testing.T, args ...string) string {
 // order) moved into the category of the item 50 places further on.
 func hiddenTarget(t *testing.T, dir string) *format.Category {
 	t.Helper()
-	p, ds := repo.Load(dir)
-	if len(ds) > 0 {
-		t.Fatal(ds)
-	}
+	p := loadProject(t, dir)
 	root := p.Outline.Root.Clone()
 	holder := map[string]*format.Category{}
 	root.Walk(func(c *format.Category, _ int) bool {
@@ -140,3 +134,14 @@ func sameShape(a, b *format.Category) bool { return review.SameShape(a, b) }
 
 // copyDemoInto copies the demo repository into dir.
 func copyDemoInto(t *testing.T, dst string) { copyTree(t, demoDir, dst) }
+
+// solvedDemo is a copy of the demo in a new temporary folder, without its
+// open review packets, solved: where the review tests start.
+func solvedDemo(t *testing.T) string {
+	t.Helper()
+	dir := t.TempDir()
+	copyDemoInto(t, dir)
+	os.RemoveAll(filepath.Join(dir, "reviews", "open"))
+	ramify(t, "solve", "--dir", dir)
+	return dir
+}

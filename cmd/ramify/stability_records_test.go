@@ -36,10 +36,7 @@ func categoryPaths(root *format.Category) map[string]string {
 // named. It logs the table (the stability benchmark of the review loop)
 // and fails only if a record does not hold or check fails after solve.
 func TestStabilityOfOneRecord(t *testing.T) {
-	base := t.TempDir()
-	copyDemoInto(t, base)
-	os.RemoveAll(filepath.Join(base, "reviews", "open"))
-	ramify(t, "solve", "--dir", base)
+	base := solvedDemo(t)
 	p := loadProject(t, base)
 	before := categoryPaths(p.Outline.Root)
 	top := p.Outline.Root.Children
