@@ -157,19 +157,10 @@ func (t *mutableTree) replaceUnder(v int32, sub *Tree, items []int32) {
 	t.kids[r] = nil
 }
 
+// leavesUnder lists the leaves below v (in child order; the callers sort
+// or count them), read as the Tree the main tree's links make.
 func (t *mutableTree) leavesUnder(v int32) []int32 {
-	var out []int32
-	stack := []int32{v}
-	for len(stack) > 0 {
-		x := stack[len(stack)-1]
-		stack = stack[:len(stack)-1]
-		if t.isLeaf(x) {
-			out = append(out, x)
-			continue
-		}
-		stack = append(stack, t.kids[x]...)
-	}
-	return out
+	return (&Tree{N: t.n, Kids: t.kids}).Leaves(v)
 }
 
 // priorUnder lists the leaf sets of the categories strictly below v, in
