@@ -7,9 +7,9 @@ import (
 	"testing"
 
 	"github.com/google/go-cmp/cmp"
-
 	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/internal/taxgen"
 )
 
 // naiveCommonSets is the definition match.CommonSets implements, written out
@@ -70,8 +70,8 @@ func naiveCommonSets(oldRoot, newRoot *format.Category) (oldSets, newSets [][]in
 func TestCommonSetsMatchesDefinition(t *testing.T) {
 	for seed := range uint64(12) {
 		rng := rand.New(rand.NewPCG(seed, 7))
-		old := genTaxonomy(rng, 200+rng.IntN(300), 1+rng.IntN(3), 4)
-		cur := perturb(rng, old, 0.2, 2)
+		old := taxgen.Taxonomy(rng, 200+rng.IntN(300), 1+rng.IntN(3), 4)
+		cur := taxgen.Perturb(rng, old, 0.2, 2)
 		// Items in one root that the other tree holds in a category, and
 		// items in a root only.
 		some := func(root *format.Category) *format.Category {
@@ -109,8 +109,8 @@ func TestCommonSetsMatchesDefinition(t *testing.T) {
 func TestCompareChangesIsCompareWithoutMetrics(t *testing.T) {
 	for seed := range uint64(8) {
 		rng := rand.New(rand.NewPCG(seed, 9))
-		old := genTaxonomy(rng, 300, 2, 4)
-		cur := perturb(rng, old, 0.2, 2)
+		old := taxgen.Taxonomy(rng, 300, 2, 4)
+		cur := taxgen.Perturb(rng, old, 0.2, 2)
 		full, changes := Compare(old, cur), CompareChanges(old, cur)
 		if !cmp.Equal(changes.Metrics, Metrics{}) {
 			t.Fatalf("seed %d: CompareChanges filled the metrics", seed)

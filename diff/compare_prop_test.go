@@ -8,6 +8,7 @@ import (
 	"testing"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/internal/taxgen"
 )
 
 // applyReport predicts every item's path in the new outline from the old
@@ -72,8 +73,8 @@ func applyReport(old *format.Category, r *Report) map[string][]string {
 func TestCompareReportReproducesNewOutline(t *testing.T) {
 	rng := rand.New(rand.NewPCG(21, 22))
 	for trial := range 40 {
-		old := genTaxonomy(rng, 100+rng.IntN(400), 2+rng.IntN(3), 3+rng.IntN(4))
-		new := perturb(rng, old, rng.Float64()*0.3, rng.IntN(4))
+		old := taxgen.Taxonomy(rng, 100+rng.IntN(400), 2+rng.IntN(3), 3+rng.IntN(4))
+		new := taxgen.Perturb(rng, old, rng.Float64()*0.3, rng.IntN(4))
 		r := Compare(old, new)
 		want := format.Paths(new)
 		got := applyReport(old, r)
@@ -149,8 +150,8 @@ func checkCategoriesExist(t *testing.T, old, new *format.Category, r *Report) {
 // report says so, with an interval that holds the exact value here.
 func TestCompareSamplesLargeTrees(t *testing.T) {
 	rng := rand.New(rand.NewPCG(23, 24))
-	old := genTaxonomy(rng, ExactTripletLimit+1000, 3, 6)
-	new := perturb(rng, old, 0.05, 2)
+	old := taxgen.Taxonomy(rng, ExactTripletLimit+1000, 3, 6)
+	new := taxgen.Perturb(rng, old, 0.05, 2)
 	r := Compare(old, new)
 	m := r.Metrics
 	if m.TripletExact || len(m.TripletInterval) != 2 || m.TripletSamples != TripletSamples {

@@ -29,7 +29,7 @@ var Layers = [][]string{
 	{"format"},
 	// 2, what reads documents without solving: the graph, comparison,
 	// names, writers, shape records over item indices.
-	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "format/shape", "internal/realdata"},
+	{"solve/graph", "diff", "solve/naming", "format/export", "format/binding", "format/shape", "internal/realdata", "internal/taxgen"},
 	// 3, the solver, what builds on comparison and names, and the
 	// repository loader.
 	{"solve", "diff/concept", "format/rdf", "format/repo", "cmd/bench/stability/stable"},

@@ -1,4 +1,8 @@
-package diff
+// Package taxgen generates random taxonomies and edited copies of them,
+// for the tests and benchmarks that compare versions (diff's, and the
+// diff command's). The trees are made up: names and item ids are
+// numbered, nothing of the demo.
+package taxgen
 
 import (
 	"fmt"
@@ -7,10 +11,10 @@ import (
 	"github.com/ramify-tax/ramify/format"
 )
 
-// genTaxonomy builds a random taxonomy of about items items: depth levels
+// Taxonomy builds a random taxonomy of about items items: depth levels
 // of categories with fanout children each (randomised ±50%), items spread
 // over the categories of the lowest level and a few higher up.
-func genTaxonomy(rng *rand.Rand, items, depth, fanout int) *format.Category {
+func Taxonomy(rng *rand.Rand, items, depth, fanout int) *format.Category {
 	root := &format.Category{}
 	var leaves []*format.Category
 	var grow func(c *format.Category, level int, path string)
@@ -46,16 +50,16 @@ func genTaxonomy(rng *rand.Rand, items, depth, fanout int) *format.Category {
 		}
 		target.Items = append(target.Items, id)
 	}
-	prune(root)
+	Prune(root)
 	root.Sort()
 	return root
 }
 
-// prune drops categories left without items or subcategories.
-func prune(c *format.Category) bool {
+// Prune drops categories left without items or subcategories.
+func Prune(c *format.Category) bool {
 	kept := c.Children[:0]
 	for _, ch := range c.Children {
-		if prune(ch) {
+		if Prune(ch) {
 			kept = append(kept, ch)
 		}
 	}
@@ -63,10 +67,10 @@ func prune(c *format.Category) bool {
 	return len(c.Children) > 0 || len(c.Items) > 0
 }
 
-// perturb returns an edited copy of root: a share of the items moved to
+// Perturb returns an edited copy of root: a share of the items moved to
 // random categories or removed (two to one), a sixth of that share added,
 // and renames categories renamed.
-func perturb(rng *rand.Rand, root *format.Category, share float64, renames int) *format.Category {
+func Perturb(rng *rand.Rand, root *format.Category, share float64, renames int) *format.Category {
 	out := root.Clone()
 	var cats []*format.Category
 	out.Walk(func(c *format.Category, _ int) bool {
@@ -109,7 +113,7 @@ func perturb(rng *rand.Rand, root *format.Category, share float64, renames int) 
 		c.Name += "-renamed"
 		c.Provisional = false
 	}
-	prune(out)
+	Prune(out)
 	out.Sort()
 	return out
 }
