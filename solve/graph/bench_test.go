@@ -25,46 +25,50 @@ func benchSizes(big bool) []int {
 	return []int{1000, 10000, 20000}
 }
 
-func BenchmarkExactVectors(b *testing.B) {
+// A graphBuild builds one source's graph with the builder it is given,
+// on data made beforehand.
+type graphBuild func(bd Builder) (*CSR, error)
+
+// timeBuild times build with bd and returns the last graph.
+func timeBuild(b *testing.B, bd Builder, build graphBuild) *CSR {
+	var g *CSR
+	for b.Loop() {
+		g, _ = build(bd)
+	}
+	return g
+}
+
+// benchExact times the exact search at every size on the data input makes
+// for it (outside the timing), and reports the graph's edges.
+func benchExact(b *testing.B, input func(n int) graphBuild) {
 	for _, n := range benchSizes(false) {
-		vals := clusteredVectors(n, 16, 20, 51)
+		build := input(n)
 		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
-			bd := Builder{K: benchK, Search: SearchExact}
-			var g *CSR
-			for b.Loop() {
-				g, _ = bd.Vectors(vals, n, 16, Cosine)
-			}
+			g := timeBuild(b, Builder{K: benchK, Search: SearchExact}, build)
 			b.ReportMetric(float64(g.NumEdges()), "edges")
 		})
 	}
+}
+
+func BenchmarkExactVectors(b *testing.B) {
+	benchExact(b, func(n int) graphBuild {
+		vals := clusteredVectors(n, 16, 20, 51)
+		return func(bd Builder) (*CSR, error) { return bd.Vectors(vals, n, 16, Cosine) }
+	})
 }
 
 func BenchmarkExactTags(b *testing.B) {
-	for _, n := range benchSizes(false) {
+	benchExact(b, func(n int) graphBuild {
 		tags := topicTags(n, 500, 50, 5, 52)
-		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
-			bd := Builder{K: benchK, Search: SearchExact}
-			var g *CSR
-			for b.Loop() {
-				g, _ = bd.Tags(tags)
-			}
-			b.ReportMetric(float64(g.NumEdges()), "edges")
-		})
-	}
+		return func(bd Builder) (*CSR, error) { return bd.Tags(tags) }
+	})
 }
 
 func BenchmarkExactText(b *testing.B) {
-	for _, n := range benchSizes(false) {
+	benchExact(b, func(n int) graphBuild {
 		texts := topicTexts(n, 1000, 50, 53)
-		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
-			bd := Builder{K: benchK, Search: SearchExact}
-			var g *CSR
-			for b.Loop() {
-				g, _ = bd.Text(texts)
-			}
-			b.ReportMetric(float64(g.NumEdges()), "edges")
-		})
-	}
+		return func(bd Builder) (*CSR, error) { return bd.Text(texts) }
+	})
 }
 
 // sampleItems draws m distinct items of n, seeded.
@@ -85,15 +89,14 @@ func reportSampledRecall(b *testing.B, g *CSR, approx, exact *neighborLists, sam
 	b.ReportMetric(float64(g.NumEdges()), "edges")
 }
 
+// approxBuilder is the NN-Descent benchmarks' builder.
+var approxBuilder = Builder{K: benchK, Search: SearchApprox, Seed: DefaultSeed}
+
 func BenchmarkNNDescentVectors(b *testing.B) {
 	for _, n := range benchSizes(true) {
 		vals := clusteredVectors(n, 16, 20, 54)
 		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
-			bd := Builder{K: benchK, Search: SearchApprox, Seed: DefaultSeed}
-			var g *CSR
-			for b.Loop() {
-				g, _ = bd.Vectors(vals, n, 16, Cosine)
-			}
+			g := timeBuild(b, approxBuilder, func(bd Builder) (*CSR, error) { return bd.Vectors(vals, n, 16, Cosine) })
 			b.StopTimer()
 			x, d := standardize(vals, nil, n, 16)
 			normalizeRows(x, n, d)
@@ -108,11 +111,7 @@ func BenchmarkNNDescentTags(b *testing.B) {
 	for _, n := range benchSizes(true) {
 		tags := topicTags(n, 500, 50, 5, 56)
 		b.Run(fmt.Sprintf("n=%d", n), func(b *testing.B) {
-			bd := Builder{K: benchK, Search: SearchApprox, Seed: DefaultSeed}
-			var g *CSR
-			for b.Loop() {
-				g, _ = bd.Tags(tags)
-			}
+			g := timeBuild(b, approxBuilder, func(bd Builder) (*CSR, error) { return bd.Tags(tags) })
 			b.StopTimer()
 			rows := tagRows(tags)
 			sample := sampleItems(n, 500, 57)
