@@ -45,43 +45,17 @@ func (r *Report) Markdown(w io.Writer) {
 	for _, d := range r.Dissolved {
 		rows = append(rows, [3]string{"dissolved", mdPath(d), ""})
 	}
-	if len(rows) > 0 {
-		p("\n#### Categories\n\n")
-		folded(b, len(rows), counted(len(rows), "category change", "category changes"), func() {
-			p("| change | before | after |\n| --- | --- | --- |\n")
-			for _, row := range rows {
-				p("| %s | %s | %s |\n", row[0], row[1], row[2])
-			}
+	mdTable(b, "Categories", "category change", "category changes", "| change | before | after |\n| --- | --- | --- |\n",
+		len(rows), func(i int) []string { return rows[i][:] })
+	mdTable(b, "Moved items", "moved item", "moved items", "| item | from | to |\n| --- | --- | --- |\n",
+		len(r.Moved), func(i int) []string {
+			mv := r.Moved[i]
+			return []string{"`" + mv.Item + "`", mdPath(mv.From), mdPath(mv.To)}
 		})
-	}
-
-	if len(r.Moved) > 0 {
-		p("\n#### Moved items\n\n")
-		folded(b, len(r.Moved), counted(len(r.Moved), "moved item", "moved items"), func() {
-			p("| item | from | to |\n| --- | --- | --- |\n")
-			for _, mv := range r.Moved {
-				p("| `%s` | %s | %s |\n", mv.Item, mdPath(mv.From), mdPath(mv.To))
-			}
-		})
-	}
-	if len(r.Added) > 0 {
-		p("\n#### Added items\n\n")
-		folded(b, len(r.Added), counted(len(r.Added), "added item", "added items"), func() {
-			p("| item | in |\n| --- | --- |\n")
-			for _, a := range r.Added {
-				p("| `%s` | %s |\n", a.Item, mdPath(a.To))
-			}
-		})
-	}
-	if len(r.Removed) > 0 {
-		p("\n#### Removed items\n\n")
-		folded(b, len(r.Removed), counted(len(r.Removed), "removed item", "removed items"), func() {
-			p("| item | was in |\n| --- | --- |\n")
-			for _, rm := range r.Removed {
-				p("| `%s` | %s |\n", rm.Item, mdPath(rm.From))
-			}
-		})
-	}
+	mdTable(b, "Added items", "added item", "added items", "| item | in |\n| --- | --- |\n",
+		len(r.Added), func(i int) []string { return []string{"`" + r.Added[i].Item + "`", mdPath(r.Added[i].To)} })
+	mdTable(b, "Removed items", "removed item", "removed items", "| item | was in |\n| --- | --- |\n",
+		len(r.Removed), func(i int) []string { return []string{"`" + r.Removed[i].Item + "`", mdPath(r.Removed[i].From)} })
 
 	p("\n#### Tree comparison\n\n")
 	p("On the %s in both versions.\n\n", counted(m.CommonItems, "item", "items"))
@@ -91,6 +65,22 @@ func (r *Report) Markdown(w io.Writer) {
 	p("| triplets of the new version found in the old (precision) | %s |\n", fixed4(m.TripletPrecision))
 	p("| Robinson–Foulds distance | %s |\n", m.rfText())
 	p("| cophenetic correlation | %s |\n", m.copheneticText())
+}
+
+// mdTable writes one titled table of n rows (nothing when n is 0): the
+// header, then the cells row(i) gives for each row, folded when long under
+// a summary that counts them as noun or nouns.
+func mdTable(b *bufio.Writer, title, noun, nouns, header string, n int, row func(i int) []string) {
+	if n == 0 {
+		return
+	}
+	fmt.Fprintf(b, "\n#### %s\n\n", title)
+	folded(b, n, counted(n, noun, nouns), func() {
+		b.WriteString(header)
+		for i := range n {
+			b.WriteString("| " + strings.Join(row(i), " | ") + " |\n")
+		}
+	})
 }
 
 // folded writes body directly when it has at most collapseAfter rows, and

@@ -103,29 +103,25 @@ func (r *Report) Text(w io.Writer, color bool) {
 		t.line(t.paint(ansiLoss, "-"), " dissolved ", p.String())
 	}
 
-	if len(r.Moved) > 0 {
-		t.line()
-		t.line(t.paint(ansiMove, ">"), " ", t.paint(ansiBold, "moved "+counted(len(r.Moved), "item", "items")))
-		for _, g := range groupMoves(r.Moved) {
-			t.line("    ", g.from.String(), t.paint(ansiMove, "  ->  "), g.to.String())
-			t.items(g.items)
-		}
+	t.itemSection(ansiMove, ">", "moved", len(r.Moved), groupMoves(r.Moved), func(g itemGroup) string {
+		return g.from.String() + t.paint(ansiMove, "  ->  ") + g.to.String()
+	})
+	t.itemSection(ansiGain, "+", "added", len(r.Added), groupAdded(r.Added), func(g itemGroup) string { return "in " + g.to.String() })
+	t.itemSection(ansiLoss, "-", "removed", len(r.Removed), groupRemoved(r.Removed), func(g itemGroup) string { return "from " + g.from.String() })
+}
+
+// itemSection writes one kind of item change (nothing when there are n = 0
+// of them): a heading, marked with sign in style, that counts them as
+// what, then every group's place and its items.
+func (t *textWriter) itemSection(style, sign, what string, n int, groups []itemGroup, place func(itemGroup) string) {
+	if n == 0 {
+		return
 	}
-	if len(r.Added) > 0 {
-		t.line()
-		t.line(t.paint(ansiGain, "+"), " ", t.paint(ansiBold, "added "+counted(len(r.Added), "item", "items")))
-		for _, g := range groupAdded(r.Added) {
-			t.line("    in ", g.to.String())
-			t.items(g.items)
-		}
-	}
-	if len(r.Removed) > 0 {
-		t.line()
-		t.line(t.paint(ansiLoss, "-"), " ", t.paint(ansiBold, "removed "+counted(len(r.Removed), "item", "items")))
-		for _, g := range groupRemoved(r.Removed) {
-			t.line("    from ", g.from.String())
-			t.items(g.items)
-		}
+	t.line()
+	t.line(t.paint(style, sign), " ", t.paint(ansiBold, what+" "+counted(n, "item", "items")))
+	for _, g := range groups {
+		t.line("    ", place(g))
+		t.items(g.items)
 	}
 }
 
