@@ -22,14 +22,7 @@ func TestCSVGolden(t *testing.T) {
 // rebuilds the tree from the paths alone.
 func TestCSVReadBack(t *testing.T) {
 	root, items := fixture(t, "awkward.outline", "awkward.items.toml")
-	var b bytes.Buffer
-	if err := CSV(&b, root, items); err != nil {
-		t.Fatal(err)
-	}
-	rows, err := csv.NewReader(&b).ReadAll()
-	if err != nil {
-		t.Fatal(err)
-	}
+	rows := csvRows(t, root, items)
 	if len(rows) == 0 || strings.Join(rows[0], ",") != "id,label,tags,text,path,concepts" {
 		t.Fatalf("header %v, want id,label,tags,text,path,concepts", rows)
 	}
@@ -77,4 +70,18 @@ func TestCSVRefusesAmbiguousName(t *testing.T) {
 	if b.Len() != 0 {
 		t.Error("wrote output despite the error")
 	}
+}
+
+// csvRows is the CSV export of the tree, read back with encoding/csv.
+func csvRows(t *testing.T, root *format.Category, items []format.Item) [][]string {
+	t.Helper()
+	var b bytes.Buffer
+	if err := CSV(&b, root, items); err != nil {
+		t.Fatal(err)
+	}
+	rows, err := csv.NewReader(&b).ReadAll()
+	if err != nil {
+		t.Fatal(err)
+	}
+	return rows
 }
