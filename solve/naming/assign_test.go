@@ -60,11 +60,17 @@ var toolTags = map[string]string{
 	"tape-measure-8m":  "measure tape",
 }
 
-func TestAssignProvisionalNames(t *testing.T) {
-	root := unnamed(
+// toolShelves is the unnamed tree ((claw-hammer, mallet-rubber),
+// drill-driver-18v), ((laser-level, spirit-level-60), tape-measure-8m).
+func toolShelves() *format.Category {
+	return unnamed(
 		[]any{[]any{"claw-hammer", "mallet-rubber"}, "drill-driver-18v"},
 		[]any{[]any{"laser-level", "spirit-level-60"}, "tape-measure-8m"},
 	)
+}
+
+func TestAssignProvisionalNames(t *testing.T) {
+	root := toolShelves()
 	counts := Assign(root, nil, nil, tags(toolTags))
 	// Scores hand-computed from the formula in ProvisionalName,
 	// p_C·ln(p_C/p_P):
@@ -83,12 +89,7 @@ func TestAssignProvisionalNames(t *testing.T) {
 		"  ~ striking · rubber\n" +
 		"~ measure · level\n" +
 		"  ~ laser · spirit\n"
-	if got := names(root); got != want {
-		t.Errorf("names:\n%s\nwant:\n%s", got, want)
-	}
-	if counts != (Counts{Provisional: 4}) {
-		t.Errorf("counts = %+v", counts)
-	}
+	checkAssigned(t, root, want, counts, Counts{Provisional: 4})
 }
 
 // A category whose items equal a named group's takes that name,
@@ -96,10 +97,7 @@ func TestAssignProvisionalNames(t *testing.T) {
 // category, and a group whose name is not a valid category name, change
 // nothing.
 func TestAssignFixedNames(t *testing.T) {
-	root := unnamed(
-		[]any{[]any{"claw-hammer", "mallet-rubber"}, "drill-driver-18v"},
-		[]any{[]any{"laser-level", "spirit-level-60"}, "tape-measure-8m"},
-	)
+	root := toolShelves()
 	fixed := []Fixed{
 		{Items: []string{"spirit-level-60", "laser-level"}, Name: "Levels"},
 		{Items: []string{"spirit-level-60", "laser-level"}, Name: "Second name for the same group"},
@@ -111,12 +109,7 @@ func TestAssignFixedNames(t *testing.T) {
 		"  ~ striking · rubber\n" +
 		"~ measure · level\n" +
 		"  Levels\n"
-	if got := names(root); got != want {
-		t.Errorf("names:\n%s\nwant:\n%s", got, want)
-	}
-	if counts != (Counts{Fixed: 1, Provisional: 3}) {
-		t.Errorf("counts = %+v", counts)
-	}
+	checkAssigned(t, root, want, counts, Counts{Fixed: 1, Provisional: 3})
 }
 
 // Names travel with membership: each category of the previous outline
@@ -148,12 +141,7 @@ Measuring/
 		"  Hammers\n" +
 		"Measuring\n" +
 		"  ~ laser · level\n"
-	if got := names(root); got != want {
-		t.Errorf("names:\n%s\nwant:\n%s", got, want)
-	}
-	if counts != (Counts{Carried: 4}) {
-		t.Errorf("counts = %+v", counts)
-	}
+	checkAssigned(t, root, want, counts, Counts{Carried: 4})
 }
 
 // A previous category that overlaps less than half gives no name: the new
@@ -363,4 +351,16 @@ func TestProvisionalNamesDistinctAlongPathsAndSiblings(t *testing.T) {
 		}
 	}
 	check(root, map[string]bool{})
+}
+
+// checkAssigned compares the names Assign gave (as names prints them) and
+// its counts with the expected ones.
+func checkAssigned(t *testing.T, root *format.Category, want string, counts, wantCounts Counts) {
+	t.Helper()
+	if got := names(root); got != want {
+		t.Errorf("names:\n%s\nwant:\n%s", got, want)
+	}
+	if counts != wantCounts {
+		t.Errorf("counts = %+v, want %+v", counts, wantCounts)
+	}
 }
