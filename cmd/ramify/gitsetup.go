@@ -87,15 +87,10 @@ func gitSetup(e *env, dir string) ([]string, error) {
 		return nil, err
 	}
 	var changes []string
-	path, err := repo.Resolve(dir, ".gitattributes")
+	path, old, existed, err := readSetupFile(dir, ".gitattributes")
 	if err != nil {
 		return nil, err
 	}
-	old, err := format.ReadFileLimited(path, ".gitattributes", format.MaxSmallFileBytes)
-	if err != nil && !errors.Is(err, fs.ErrNotExist) {
-		return nil, err
-	}
-	existed := err == nil
 	text, changed := withDriverAttributes(string(old))
 	if changed {
 		if err := format.WriteFileAtomic(path, []byte(text), 0o644); err != nil {
@@ -135,6 +130,21 @@ func gitSetup(e *env, dir string) ([]string, error) {
 	return append(changes, hook...), err
 }
 
+// readSetupFile reads the git file name (.gitattributes, .gitignore) at
+// the top of the repository dir, which git-setup edits: its path, its text
+// and whether it exists (a missing one reads as empty).
+func readSetupFile(dir, name string) (path string, text []byte, existed bool, err error) {
+	path, err = repo.Resolve(dir, name)
+	if err != nil {
+		return "", nil, false, err
+	}
+	text, err = format.ReadFileLimited(path, name, format.MaxSmallFileBytes)
+	if err != nil && !errors.Is(err, fs.ErrNotExist) {
+		return "", nil, false, err
+	}
+	return path, text, err == nil, nil
+}
+
 // gitSetupForInit is what `ramify init` runs: gitSetup when dir is in a
 // git repository, nothing when it is not or git is not installed. It
 // returns what changed, for init to say.
@@ -150,12 +160,8 @@ func gitSetupForInit(e *env, dir string) ([]string, error) {
 // journal to the .gitignore of dir, each when no line has it yet, and says
 // what it changed.
 func ignoreTempFiles(dir string) ([]string, error) {
-	path, err := repo.Resolve(dir, ".gitignore")
+	path, old, _, err := readSetupFile(dir, ".gitignore")
 	if err != nil {
-		return nil, err
-	}
-	old, err := format.ReadFileLimited(path, ".gitignore", format.MaxSmallFileBytes)
-	if err != nil && !errors.Is(err, fs.ErrNotExist) {
 		return nil, err
 	}
 	have := map[string]bool{}
