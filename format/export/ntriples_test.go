@@ -167,19 +167,11 @@ func unescapeNT(s string) (string, error) {
 		if i >= len(s) {
 			return "", fmt.Errorf("escape at the end")
 		}
+		if x, ok := EscapedByte(s[i]); ok {
+			b.WriteByte(x)
+			continue
+		}
 		switch s[i] {
-		case 't':
-			b.WriteByte('\t')
-		case 'b':
-			b.WriteByte('\b')
-		case 'n':
-			b.WriteByte('\n')
-		case 'r':
-			b.WriteByte('\r')
-		case 'f':
-			b.WriteByte('\f')
-		case '"', '\'', '\\':
-			b.WriteByte(s[i])
 		case 'u', 'U':
 			n := 4
 			if s[i] == 'U' {

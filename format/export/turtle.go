@@ -49,6 +49,28 @@ func QuotedString(s string) string {
 	return b.String()
 }
 
+// EscapedByte is the character the escape \c stands for in a Turtle or
+// N-Triples string (ECHAR: \t \b \n \r \f \" \' \\, the ones QuotedString
+// writes and \'); ok is false for any other c, \u and \U (UCHAR)
+// included. The readers of such strings share it.
+func EscapedByte(c byte) (b byte, ok bool) {
+	switch c {
+	case 't':
+		return '\t', true
+	case 'b':
+		return '\b', true
+	case 'n':
+		return '\n', true
+	case 'r':
+		return '\r', true
+	case 'f':
+		return '\f', true
+	case '"', '\'', '\\':
+		return c, true
+	}
+	return 0, false
+}
+
 // langString is a string with a language tag.
 func langString(s, lang string) string { return turtleString(s) + "@" + lang }
 

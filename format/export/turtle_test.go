@@ -1,6 +1,10 @@
 package export
 
-import "testing"
+import (
+	"strconv"
+	"strings"
+	"testing"
+)
 
 // Escapes from the Turtle grammar (W3C Turtle, 2014: productions
 // STRING_LITERAL_QUOTE, ECHAR and UCHAR).
@@ -42,6 +46,30 @@ func TestCheckLanguage(t *testing.T) {
 	} {
 		if err := checkLanguage(tc.tag); (err == nil) != tc.ok {
 			t.Errorf("checkLanguage(%q) = %v, want ok=%v", tc.tag, err, tc.ok)
+		}
+	}
+}
+
+// EscapedByte knows exactly the eight ECHAR escapes, each standing for the
+// character Go's own rune literal of the same escape is.
+func TestEscapedByte(t *testing.T) {
+	echar := "tbnrf\"'\\"
+	for c := 0; c < 256; c++ {
+		got, ok := EscapedByte(byte(c))
+		if want := strings.IndexByte(echar, byte(c)) >= 0; ok != want {
+			t.Errorf("EscapedByte(%q) ok = %v, want %v", rune(c), ok, want)
+			continue
+		}
+		if !ok {
+			continue
+		}
+		quote := byte('\'') // Go escapes a quote only inside its own kind of quotes
+		if c == '"' {
+			quote = '"'
+		}
+		r, _, _, err := strconv.UnquoteChar(`\`+string(rune(c)), quote)
+		if err != nil || got != byte(r) {
+			t.Errorf("EscapedByte(%q) = %q, want %q (%v)", rune(c), got, r, err)
 		}
 	}
 }

@@ -7,6 +7,7 @@ import (
 	"unicode/utf8"
 
 	"github.com/ramify-tax/ramify/format"
+	"github.com/ramify-tax/ramify/format/export"
 )
 
 // MaxNesting bounds how deeply blank-node property lists and collections
@@ -660,25 +661,16 @@ func (p *turtleParser) stringLiteral() string {
 			}
 			p.off += run
 		case c == '\\':
-			switch e := p.peekAt(1); e {
-			case 't':
-				b.WriteByte('\t')
-			case 'b':
-				b.WriteByte('\b')
-			case 'n':
-				b.WriteByte('\n')
-			case 'r':
-				b.WriteByte('\r')
-			case 'f':
-				b.WriteByte('\f')
-			case '"', '\'', '\\':
-				b.WriteByte(e)
-			case 'u', 'U':
+			e := p.peekAt(1)
+			if e == 'u' || e == 'U' {
 				b.WriteRune(p.uchar())
 				continue
-			default:
+			}
+			x, ok := export.EscapedByte(e)
+			if !ok {
 				p.fail("unknown escape %q in a string", "\\"+string(rune(e)))
 			}
+			b.WriteByte(x)
 			p.off += 2
 		case (c == '\n' || c == '\r') && !long:
 			p.failAt(at, "string not closed before the end of the line (use \"\"\" for text over several lines)")
