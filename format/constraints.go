@@ -123,11 +123,7 @@ func ParseConstraints(file string, data []byte) (*ConstraintFile, error) {
 			}
 		}
 	}
-	if len(ds) > 0 {
-		ds.Sort()
-		return nil, ds
-	}
-	return cf, nil
+	return orProblems(cf, ds)
 }
 
 func parseProvenance(r *tomlRecord, ds *Diags) Provenance {

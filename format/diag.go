@@ -180,6 +180,17 @@ func (ds Diags) Sort() {
 	})
 }
 
+// orProblems is what a reader returns: v, or, when there are problems,
+// no value and the problems in the order of Sort.
+func orProblems[T any](v T, ds Diags) (T, error) {
+	if len(ds) > 0 {
+		ds.Sort()
+		var none T
+		return none, ds
+	}
+	return v, nil
+}
+
 // AsDiags extracts the problem list from an error returned by a parser.
 // Any other error becomes a single problem without a position.
 func AsDiags(err error, file string) Diags {

@@ -146,11 +146,7 @@ func (s *itemSet) checkTags(it Item, at itemPlaces) {
 }
 
 func (s *itemSet) result() ([]Item, error) {
-	if len(s.ds) > 0 {
-		s.ds.Sort()
-		return nil, s.ds
-	}
-	return s.items, nil
+	return orProblems(s.items, s.ds)
 }
 
 func invisibleIn(s string) bool { _, r := FirstInvisible(s); return r >= 0 }

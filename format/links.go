@@ -115,11 +115,7 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 	if !header {
 		ds.Add(Pos{file, 1, 1}, "the file is empty; it needs the header \"a\\tb\\tweight\"")
 	}
-	if len(ds) > 0 {
-		ds.Sort()
-		return nil, ds
-	}
-	return t, nil
+	return orProblems(t, ds)
 }
 
 // linkWeight reads a link row's weight: a finite number above 0 that

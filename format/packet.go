@@ -123,11 +123,7 @@ func ParsePacket(file string, data []byte) (*Packet, error) {
 	tree.Sort()
 	p.Tree = tree
 	pp.finish()
-	if len(pp.ds) > 0 {
-		pp.ds.Sort()
-		return nil, pp.ds
-	}
-	return p, nil
+	return orProblems(p, pp.ds)
 }
 
 type packetParser struct {

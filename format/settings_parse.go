@@ -59,11 +59,7 @@ func ParseSettings(file string, data []byte) (*Settings, error) {
 		r.section(sec, tbl)
 	}
 	r.crossChecks()
-	if len(r.ds) > 0 {
-		r.ds.Sort()
-		return nil, r.ds
-	}
-	return s, nil
+	return orProblems(s, r.ds)
 }
 
 type settingsReader struct {

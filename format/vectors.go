@@ -129,11 +129,7 @@ func ParseVectors(file string, data []byte) (*Vectors, error) {
 	if !header {
 		ds.Add(Pos{file, 1, 1}, "the file is empty; it needs a header row: id, then the feature names")
 	}
-	if len(ds) > 0 {
-		ds.Sort()
-		return nil, ds
-	}
-	return v, nil
+	return orProblems(v, ds)
 }
 
 func readVectorHeader(file string, row *tsvRow, v *Vectors, ds *Diags) bool {
