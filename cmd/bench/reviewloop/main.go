@@ -8,6 +8,7 @@
 //	go run ./cmd/bench/reviewloop                      # all sets, both arms, 3 orders, 10 rounds
 //	go run ./cmd/bench/reviewloop -sets furniture -orders 1 -rounds 3
 //	go run ./cmd/bench/reviewloop -sets music -orders 1 -keep      # keep each repository and its rounds' solve --json
+//	go run ./cmd/bench/reviewloop -orders 1 -arms default,oracle   # beside packets an oracle who knows the reference picks
 //
 // It builds the ramify command once and runs it as a user would.
 package main
@@ -31,7 +32,7 @@ func main() {
 	rounds := flag.Int("rounds", 10, "rounds per run")
 	count := flag.Int("count", 4, "packets drawn per round (review draw --count)")
 	orders := flag.Int("orders", 3, "item orders per set and arm")
-	arms := flag.String("arms", "default,random", "arms to run")
+	arms := flag.String("arms", "default,random", "arms to run: default, random, oracle")
 	bin := flag.String("ramify", "", "ramify binary to run (default: build ./cmd/ramify)")
 	perRound := flag.Bool("rounds-table", true, "print the per-round table")
 	keep := flag.Bool("keep", false, "keep each run's repository (with each round's solve --json) and print where")

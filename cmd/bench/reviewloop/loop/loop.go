@@ -36,11 +36,14 @@ type Arm struct {
 	// AuditShare is written to review.audit_share; negative keeps the
 	// default.
 	AuditShare float64
+	// Oracle replaces the drawn packets' items by the ones an oracle who
+	// knows the reference picks (oraclePackets): the ceiling of drawing.
+	Oracle bool
 }
 
-// Arms are the two arms of the benchmark: the default packets, and every
-// packet a uniformly random audit.
-var Arms = []Arm{{"default", -1}, {"random", 1}}
+// Arms are the arms of the benchmark: the default packets, every packet a
+// uniformly random audit, and (only when asked for) the oracle's packets.
+var Arms = []Arm{{"default", -1, false}, {"random", 1, false}, {"oracle", -1, true}}
 
 // Config is one run of the loop.
 type Config struct {
@@ -68,6 +71,9 @@ type Round struct {
 	// over the round's packets: what an answer can teach (a packet inside
 	// one flat category of the reference teaches nothing).
 	Resolved float64
+	// Wrong is the mean number of those the packet as drawn arranged
+	// otherwise: what an answer can repair.
+	Wrong float64
 	// AUC is how well the committee's per-item uncertainty on the tree
 	// the round started from predicts the items misplaced in it (those
 	// whose triples are wrong more often than the tree's overall).
@@ -102,6 +108,11 @@ func Run(cfg Config) ([]Round, error) {
 		if _, err := cfg.Run("review", "draw", "--dir", dir, "--count", fmt.Sprint(cfg.Count), "--date", date, "--quiet"); err != nil {
 			return nil, err
 		}
+		if cfg.Arm.Oracle {
+			if err := oraclePackets(dir, p, tree, ref); err != nil {
+				return nil, err
+			}
+		}
 		ans, err := AnswerOpen(dir, cfg.Set.Reference)
 		if err != nil {
 			return nil, err
@@ -127,7 +138,7 @@ func Run(cfg Config) ([]Round, error) {
 		rc := compareTriples(ref, tree, next)
 		prec, rec := diff.TripletScores(next, ref)
 		rounds = append(rounds, Round{Round: r, Packets: packets, Fixed: ans.Fixed, Precision: prec, Recall: rec, F1: f1(prec, rec),
-			Repaired: rc.repaired, Broken: rc.broken, Resolved: ans.resolvedPerPacket()})
+			Repaired: rc.repaired, Broken: rc.broken, Resolved: ans.resolvedPerPacket(), Wrong: ans.wrongPerPacket()})
 		p, tree = np, next
 	}
 	auc, err := uncertaintyAUC(p, tree, ref)
@@ -212,6 +223,9 @@ type Answers struct {
 	// Resolved sums, over the answered packets, the triples of each
 	// packet's items that the reference resolves.
 	Resolved int
+	// Wrong sums the triples among those that the packet as drawn
+	// arranged otherwise: what the answers could repair.
+	Wrong int
 }
 
 func (a Answers) resolvedPerPacket() float64 {
@@ -219,6 +233,13 @@ func (a Answers) resolvedPerPacket() float64 {
 		return 0
 	}
 	return float64(a.Resolved) / float64(a.Answered)
+}
+
+func (a Answers) wrongPerPacket() float64 {
+	if a.Answered == 0 {
+		return 0
+	}
+	return float64(a.Wrong) / float64(a.Answered)
 }
 
 // AnswerOpen answers every pending open packet as a reviewer who knows
@@ -245,6 +266,9 @@ func AnswerOpen(dir string, ref *format.Category) (Answers, error) {
 			continue
 		}
 		want := review.Restrict(ref, pk.Tree.AllItems())
+		resolved, wrong := packetTriples(want, pk.Tree)
+		a.Resolved += resolved
+		a.Wrong += wrong
 		pk.Reviewer = "Scripted Reviewer"
 		pk.Verdict = format.VerdictOK
 		if !review.SameShape(pk.Tree, want) {
@@ -253,7 +277,6 @@ func AnswerOpen(dir string, ref *format.Category) (Answers, error) {
 			a.Fixed++
 		}
 		a.Answered++
-		a.Resolved += resolvedTriples(want)
 		if err := os.WriteFile(f, format.FormatPacket(pk), 0o644); err != nil {
 			return a, err
 		}
@@ -264,36 +287,71 @@ func AnswerOpen(dir string, ref *format.Category) (Answers, error) {
 // resolvedTriples counts the triples of a tree's items that it resolves:
 // one pair's lowest common category lies strictly below the other two's.
 func resolvedTriples(root *format.Category) int {
-	var paths [][]*format.Category // each item's categories, root first
+	resolved, _ := packetTriples(root, root)
+	return resolved
+}
+
+// packetTriples compares a packet as drawn (shown) with the answer (want,
+// over the same items): resolved counts the triples want resolves, wrong
+// those among them that shown does not resolve the same way, which are
+// what the answer can repair.
+func packetTriples(want, shown *format.Category) (resolved, wrong int) {
+	wantPaths, ids := itemPaths(want)
+	shownPaths, _ := itemPaths(shown)
+	topo := func(paths map[string][]*format.Category, a, b, c string) int {
+		ab, ac, bc := commonDepth(paths[a], paths[b]), commonDepth(paths[a], paths[c]), commonDepth(paths[b], paths[c])
+		switch {
+		case ab > max(ac, bc):
+			return 1
+		case ac > max(ab, bc):
+			return 2
+		case bc > max(ab, ac):
+			return 3
+		}
+		return 0
+	}
+	for i := range ids {
+		for j := i + 1; j < len(ids); j++ {
+			for k := j + 1; k < len(ids); k++ {
+				r := topo(wantPaths, ids[i], ids[j], ids[k])
+				if r == 0 {
+					continue
+				}
+				resolved++
+				if topo(shownPaths, ids[i], ids[j], ids[k]) != r {
+					wrong++
+				}
+			}
+		}
+	}
+	return resolved, wrong
+}
+
+// itemPaths is each item's categories, root first, and the items in walk
+// order.
+func itemPaths(root *format.Category) (map[string][]*format.Category, []string) {
+	paths := map[string][]*format.Category{}
+	var ids []string
 	var walk func(c *format.Category, above []*format.Category)
 	walk = func(c *format.Category, above []*format.Category) {
 		here := append(slices.Clip(above), c)
-		for range c.Items {
-			paths = append(paths, here)
+		for _, id := range c.Items {
+			paths[id] = here
+			ids = append(ids, id)
 		}
 		for _, k := range c.Children {
 			walk(k, here)
 		}
 	}
 	walk(root, nil)
-	common := func(a, b []*format.Category) int {
-		k := 0
-		for k < len(a) && k < len(b) && a[k] == b[k] {
-			k++
-		}
-		return k
+	return paths, ids
+}
+
+// commonDepth is how many categories two root-first paths share.
+func commonDepth(a, b []*format.Category) int {
+	k := 0
+	for k < len(a) && k < len(b) && a[k] == b[k] {
+		k++
 	}
-	count := 0
-	for i := range paths {
-		for j := i + 1; j < len(paths); j++ {
-			ij := common(paths[i], paths[j])
-			for k := j + 1; k < len(paths); k++ {
-				ik, jk := common(paths[i], paths[k]), common(paths[j], paths[k])
-				if ij > max(ik, jk) || ik > max(ij, jk) || jk > max(ij, ik) {
-					count++
-				}
-			}
-		}
-	}
-	return count
+	return k
 }

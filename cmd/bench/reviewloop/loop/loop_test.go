@@ -76,3 +76,32 @@ func TestResolvedTriples(t *testing.T) {
 		}
 	}
 }
+
+// TestPacketTriplesWrong counts by hand the triples an answer resolves
+// that the packet as drawn arranges otherwise: against ((a b) (c d)),
+// ((a c) (b d)) gets all four wrong; ((a b) c d) resolves abc and abd as
+// the answer does and leaves acd and bcd unresolved, so two are wrong; the
+// answer itself has none wrong.
+func TestPacketTriplesWrong(t *testing.T) {
+	parse := func(s string) *format.Category {
+		o, err := format.ParseOutline("t", []byte("# ramify outline 1\n"+s))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return o.Root
+	}
+	want := parse("A/\n  a\n  b\nB/\n  c\n  d\n")
+	for _, c := range []struct {
+		shown      string
+		wrongCount int
+	}{
+		{"A/\n  a\n  c\nB/\n  b\n  d\n", 4},
+		{"A/\n  a\n  b\nc\nd\n", 2},
+		{"A/\n  a\n  b\nB/\n  c\n  d\n", 0},
+	} {
+		resolved, wrong := packetTriples(want, parse(c.shown))
+		if resolved != 4 || wrong != c.wrongCount {
+			t.Errorf("packetTriples(answer, %q) = %d resolved, %d wrong; want 4, %d", c.shown, resolved, wrong, c.wrongCount)
+		}
+	}
+}

@@ -16,12 +16,12 @@ type Result struct {
 
 // PrintRounds writes the per-round table of every result.
 func PrintRounds(w io.Writer, results []Result) {
-	fmt.Fprintf(w, "%-10s %-7s %5s %5s %7s %5s %8s %9s %7s %7s %8s %7s %6s\n",
-		"set", "arm", "order", "round", "packets", "fixed", "resolved", "precision", "recall", "F1", "repaired", "broken", "AUC")
+	fmt.Fprintf(w, "%-10s %-7s %5s %5s %7s %5s %8s %6s %9s %7s %7s %8s %7s %6s\n",
+		"set", "arm", "order", "round", "packets", "fixed", "resolved", "wrong", "precision", "recall", "F1", "repaired", "broken", "AUC")
 	for _, r := range results {
 		for _, x := range r.Rounds {
-			fmt.Fprintf(w, "%-10s %-7s %5d %5d %7d %5d %8.1f %9.4f %7.4f %7.4f %8d %7d %6.3f\n",
-				r.Set, r.Arm, r.Order, x.Round, x.Packets, x.Fixed, x.Resolved, x.Precision, x.Recall, x.F1, x.Repaired, x.Broken, x.AUC)
+			fmt.Fprintf(w, "%-10s %-7s %5d %5d %7d %5d %8.1f %6.1f %9.4f %7.4f %7.4f %8d %7d %6.3f\n",
+				r.Set, r.Arm, r.Order, x.Round, x.Packets, x.Fixed, x.Resolved, x.Wrong, x.Precision, x.Recall, x.F1, x.Repaired, x.Broken, x.AUC)
 		}
 	}
 }
@@ -39,6 +39,7 @@ type Summary struct {
 	FinalRecall, FinalF1 float64
 	AUC                  float64 // mean over rounds
 	Resolved             float64 // triples resolved per packet, mean over rounds
+	Wrong                float64 // of those, drawn wrong per packet, mean over rounds
 	// PacketsToReach is the first packet count at which this arm's F1
 	// reaches Target (the other arm's final F1); -1 if never.
 	PacketsToReach float64
@@ -62,6 +63,7 @@ func Summarize(results []Result, set, arm string) Summary {
 				s.Repaired += float64(x.Repaired)
 				s.Broken += float64(x.Broken)
 				s.Resolved += x.Resolved
+				s.Wrong += x.Wrong
 			}
 			s.AUC += x.AUC
 			aucs++
@@ -76,6 +78,7 @@ func Summarize(results []Result, set, arm string) Summary {
 	}
 	s.NotFalling = float64(notFalling) / float64(max(1, rounds))
 	s.Resolved /= float64(max(1, rounds))
+	s.Wrong /= float64(max(1, rounds))
 	s.Repaired /= float64(runs)
 	s.Broken /= float64(runs)
 	s.FinalRecall /= float64(runs)
@@ -114,9 +117,9 @@ func F1After(results []Result, set, arm string, k int) float64 {
 // PrintSummary writes one line per set and arm, the means over sets, and
 // the targets of the benchmark with whether each is met.
 func PrintSummary(w io.Writer, results []Result, sets []string, count int) {
-	fmt.Fprintf(w, "\n%-10s %-7s %10s %9s %8s %7s %8s %8s %8s %6s %8s\n",
-		"set", "arm", "notfalling", "repaired", "broken", "ratio", "F1@20", "F1@40", "recall40", "AUC", "resolved")
-	type acc struct{ notFalling, repaired, broken, f20, f40, rec, auc, resolved float64 }
+	fmt.Fprintf(w, "\n%-10s %-7s %10s %9s %8s %7s %8s %8s %8s %6s %8s %6s\n",
+		"set", "arm", "notfalling", "repaired", "broken", "ratio", "F1@20", "F1@40", "recall40", "AUC", "resolved", "wrong")
+	type acc struct{ notFalling, repaired, broken, f20, f40, rec, auc, resolved, wrong float64 }
 	means := map[string]*acc{}
 	reach := 0.0
 	var ran []Arm // the arms with results, in Arms order
@@ -129,8 +132,8 @@ func PrintSummary(w io.Writer, results []Result, sets []string, count int) {
 		for _, arm := range ran {
 			s := Summarize(results, set, arm.Name)
 			f20, f40 := F1After(results, set, arm.Name, 20), F1After(results, set, arm.Name, 40)
-			fmt.Fprintf(w, "%-10s %-7s %10.3f %9.0f %8.0f %7.2f %8.4f %8.4f %8.4f %6.3f %8.1f\n",
-				set, arm.Name, s.NotFalling, s.Repaired, s.Broken, ratio(s.Repaired, s.Broken), f20, f40, s.FinalRecall, s.AUC, s.Resolved)
+			fmt.Fprintf(w, "%-10s %-7s %10.3f %9.0f %8.0f %7.2f %8.4f %8.4f %8.4f %6.3f %8.1f %6.1f\n",
+				set, arm.Name, s.NotFalling, s.Repaired, s.Broken, ratio(s.Repaired, s.Broken), f20, f40, s.FinalRecall, s.AUC, s.Resolved, s.Wrong)
 			m := means[arm.Name]
 			if m == nil {
 				m = &acc{}
@@ -144,6 +147,7 @@ func PrintSummary(w io.Writer, results []Result, sets []string, count int) {
 			m.rec += s.FinalRecall
 			m.auc += s.AUC
 			m.resolved += s.Resolved
+			m.wrong += s.Wrong
 		}
 		if F1After(results, set, "default", 20) >= F1After(results, set, "random", 40) {
 			reach++
@@ -152,8 +156,8 @@ func PrintSummary(w io.Writer, results []Result, sets []string, count int) {
 	k := float64(len(sets))
 	for _, arm := range ran {
 		m := means[arm.Name]
-		fmt.Fprintf(w, "%-10s %-7s %10.3f %9.0f %8.0f %7.2f %8.4f %8.4f %8.4f %6.3f %8.1f\n",
-			"MEAN", arm.Name, m.notFalling/k, m.repaired/k, m.broken/k, ratio(m.repaired, m.broken), m.f20/k, m.f40/k, m.rec/k, m.auc/k, m.resolved/k)
+		fmt.Fprintf(w, "%-10s %-7s %10.3f %9.0f %8.0f %7.2f %8.4f %8.4f %8.4f %6.3f %8.1f %6.1f\n",
+			"MEAN", arm.Name, m.notFalling/k, m.repaired/k, m.broken/k, ratio(m.repaired, m.broken), m.f20/k, m.f40/k, m.rec/k, m.auc/k, m.resolved/k, m.wrong/k)
 	}
 	d, r := means["default"], means["random"]
 	if d == nil || r == nil {
