@@ -23,8 +23,8 @@ func inProcess(args ...string) (string, error) {
 }
 
 // TestReviewLoopOnRealData runs the review loop of cmd/bench/reviewloop on the
-// WordNet furniture dev set (internal/realdata) for three rounds of both
-// arms, with the scripted reviewer answering from the reference. Answers
+// WordNet furniture dev set (internal/realdata) for three rounds of every
+// arm (the oracle's included), with the scripted reviewer answering from the reference. Answers
 // from the reference can only be consistent with each other, so every
 // round must absorb and solve cleanly, `check` must pass, and the tree
 // must end closer to the reference than it started. With RAMIFY_BIG=1 it

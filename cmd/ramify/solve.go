@@ -91,7 +91,10 @@ type solveReport struct {
 // solveConstraints counts the records by kind, as check prints them; the
 // triplets the solver works with (shapes stand for many) apart.
 type solveConstraints struct {
-	Groups         int `json:"groups"`
+	Groups int `json:"groups"`
+	// LinkedTriplets counts the triplets that link answers through the
+	// category names typed in them (regen.Compiled.Linked).
+	LinkedTriplets int `json:"linked_triplets"`
 	Records        int `json:"records"`
 	Satisfied      int `json:"satisfied"`
 	Shapes         int `json:"shapes"`
@@ -208,8 +211,8 @@ func quoteNote(n string) string {
 }
 
 func solveReportOf(p *repo.Repo, sol *regen.Solution, prev *format.Category) *solveReport {
-	total := len(sol.Compiled.Records)
-	violated := len(sol.Violated)
+	total := sol.Compiled.Editorial()
+	violated := len(sol.Compiled.EditorialViolated(sol.Violated))
 	counts := countRecords(p.Constraints)
 	rep := &solveReport{
 		Items:      len(p.Items),
@@ -223,6 +226,7 @@ func solveReportOf(p *repo.Repo, sol *regen.Solution, prev *format.Category) *so
 			Groups:         counts.Groups,
 			Shapes:         counts.Shapes,
 			SolverTriplets: sol.Compiled.Triplets,
+			LinkedTriplets: sol.Compiled.Linked,
 			Satisfied:      total - violated,
 			Violated:       violated,
 		},
@@ -255,6 +259,9 @@ func printSolveReport(e *env, r *solveReport, p *repo.Repo, sol *regen.Solution)
 		e.say("  constraints  %s, all holding", describeRecords(countRecords(p.Constraints)))
 	} else {
 		e.say("  constraints  %d of %s broken (the average-linkage baseline ignores them)", c.Violated, plural(c.Records, "record", "records"))
+	}
+	if sol.Compiled.Linked > 0 {
+		e.say("  names        answers linked by the category names typed in them (%s)", plural(sol.Compiled.Linked, "triplet", "triplets"))
 	}
 	if n := len(sol.SideBySideNotKept); n > 0 {
 		e.say("  side by side %s not kept in full: parting the items would break another record", plural(n, "answer", "answers"))

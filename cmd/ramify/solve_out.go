@@ -15,11 +15,12 @@ import (
 func solveElsewhere(e *env, o *solveOptions, rep *solveReport, p *repo.Repo, sol *regen.Solution) (handled bool, err error) {
 	method, out, replace, dryRun := regen.Method(o.method), o.out, o.replace, o.dryRun
 	rel := p.Settings.Taxonomy.File
-	broken := len(sol.Violated)
-	total := len(sol.Compiled.Records)
+	violated := sol.Compiled.EditorialViolated(sol.Violated)
+	broken := len(violated)
+	total := sol.Compiled.Editorial()
 	if method == regen.MethodAverage && broken > 0 {
 		e.notice("the average-linkage tree breaks %d of %s:", broken, plural(total, "constraint record", "constraint records"))
-		for i, r := range sol.Violated {
+		for i, r := range violated {
 			if i == 10 {
 				e.notice("  ... and %d more", broken-10)
 				break
