@@ -17,7 +17,7 @@ func parseItemsTable(file string, data []byte, sep byte, b Budget) ([]Item, erro
 	// A row a line, less the header.
 	t := &itemTable{set: newItemSet(file, b, bytes.Count(text, []byte{'\n'}))}
 	if sep == '\t' {
-		readTSV(file, string(text), &t.set.ds, func(row *tsvRow) bool {
+		readTSV(file, string(text), 0, &t.set.ds, func(row *tsvRow) bool {
 			return t.row(row.Cells, func(i int) Pos { return row.pos(file, i) })
 		})
 	} else {

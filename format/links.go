@@ -4,7 +4,10 @@ import (
 	"bytes"
 	"hash/maphash"
 	"math"
+	"runtime"
+	"slices"
 	"strings"
+	"sync"
 )
 
 // Link is an explicit similarity between two items.
@@ -42,11 +45,38 @@ const LinksHeader = "a\tb\tweight"
 // row past them is reported and reading stops there. ids is how many
 // distinct ids the file likely names (the number of items), room made up
 // front so the id map does not regrow as it fills; 0 when unknown.
+//
+// A large file is read in pieces at once, one a processor
+// (parseLinkPieces); the table is the same as one read from the top.
 func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTable, error) {
 	text, ds := CleanText(file, data)
 	if len(ds) > 0 {
 		return nil, ds
 	}
+	if n := min(runtime.GOMAXPROCS(0), len(text)/linkPieceBytes); n > 1 {
+		if t := parseLinkPieces(file, text, b, ids, n); t != nil {
+			return t, nil
+		}
+	}
+	return parseLinkText(file, text, b, ids)
+}
+
+// linkPieceBytes is the least a piece read on its own holds: below it,
+// starting a reader costs more than it saves.
+const linkPieceBytes = 1 << 20
+
+// parseLinkText reads a cleaned links file from the top: the table, or
+// every problem in it.
+func parseLinkText(file string, text []byte, b Budget, ids int) (*LinkTable, error) {
+	var ds Diags
+	t, idt := newLinkTable(file, text, b, ids)
+	readLinkRows(file, text, 0, true, b, t, idt, &ds)
+	return orProblems(t, ds)
+}
+
+// newLinkTable makes an empty table of file with room for the rows of text
+// (at most b.Left of them) and for about ids distinct ids.
+func newLinkTable(file string, text []byte, b Budget, ids int) (*LinkTable, *idTable) {
 	// Room for one link per line, up to a bound: a hostile file of empty
 	// rows must not make ramify reserve gigabytes up front.
 	room := min(bytes.Count(text, []byte{'\n'}), 1<<24, max(b.Left, 0))
@@ -60,11 +90,86 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 	// No more distinct ids than two a link.
 	idRoom := max(min(ids, 2*room), 0)
 	t.IDs = make([]string, 0, idRoom)
-	idt := newIDTable(idRoom, &t.IDs)
-	header := false
-	readTSV(file, string(text), &ds, func(row *tsvRow) bool {
-		if !header {
-			header = true
+	return t, newIDTable(idRoom, &t.IDs)
+}
+
+// parseLinkPieces reads text in n pieces that end at line ends, each on
+// its own goroutine into a table of its own, and joins the tables in file
+// order. The joined table numbers ids in order of first appearance just
+// as one read from the top does: the first piece's ids keep their
+// numbers, and each later piece's ids, in that piece's order, take the
+// number they already have or the next one. It returns nil when any
+// piece has a problem, or the pieces hold more than b.Left links, so the
+// caller reads the file from the top for the problems in file order.
+func parseLinkPieces(file string, text []byte, b Budget, ids, n int) *LinkTable {
+	type piece struct {
+		text  []byte
+		lines int // lines before the piece
+		t     *LinkTable
+		idt   *idTable
+		ds    Diags
+	}
+	pieces := make([]piece, 0, n)
+	for rest, lines := text, 0; len(rest) > 0; {
+		end := len(rest)
+		if len(pieces) < n-1 && len(rest) > len(text)/n {
+			if nl := bytes.IndexByte(rest[len(text)/n:], '\n'); nl >= 0 {
+				end = len(text)/n + nl + 1
+			}
+		}
+		pieces = append(pieces, piece{text: rest[:end], lines: lines})
+		lines += bytes.Count(rest[:end], []byte{'\n'})
+		rest = rest[end:]
+	}
+	var wg sync.WaitGroup
+	for i := range pieces {
+		wg.Add(1)
+		go func(p *piece, first bool) {
+			defer wg.Done()
+			// Every piece may hold up to b.Left links; their sum is checked
+			// once all are read.
+			p.t, p.idt = newLinkTable(file, p.text, b, ids)
+			readLinkRows(file, p.text, p.lines, first, b, p.t, p.idt, &p.ds)
+		}(&pieces[i], i == 0)
+	}
+	wg.Wait()
+	total := 0
+	for _, p := range pieces {
+		if len(p.ds) > 0 {
+			return nil
+		}
+		total += p.t.Len()
+	}
+	if total > b.Left {
+		return nil
+	}
+	t, idt := pieces[0].t, pieces[0].idt
+	t.A, t.B = slices.Grow(t.A, total-t.Len()), slices.Grow(t.B, total-t.Len())
+	t.Weight, t.Line = slices.Grow(t.Weight, total-t.Len()), slices.Grow(t.Line, total-t.Len())
+	for _, p := range pieces[1:] {
+		num := make([]int32, len(p.t.IDs))
+		for k, id := range p.t.IDs {
+			if num[k] = idt.lookup(0, id); num[k] < 0 {
+				num[k] = idt.add(0, id)
+			}
+		}
+		for k := range p.t.A {
+			t.A = append(t.A, num[p.t.A[k]])
+			t.B = append(t.B, num[p.t.B[k]])
+		}
+		t.Weight = append(t.Weight, p.t.Weight...)
+		t.Line = append(t.Line, p.t.Line...)
+	}
+	return t
+}
+
+// readLinkRows adds the links of text, whose first line is line lines+1 of
+// file, to t, numbering ids with idt, and the problems to ds. header says
+// whether text starts the file, and so with the header row.
+func readLinkRows(file string, text []byte, lines int, header bool, b Budget, t *LinkTable, idt *idTable, ds *Diags) {
+	readTSV(file, string(text), lines, ds, func(row *tsvRow) bool {
+		if header {
+			header = false
 			if strings.TrimRight(row.text, " ") != LinksHeader {
 				ds.Add(row.pos(file, 0), "the header must be a, b and weight separated by tabs (\"a\\tb\\tweight\"), not %q", clip(row.text))
 				return false
@@ -97,9 +202,9 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 			ds.Add(row.pos(file, 1), "item %q is linked to itself", a)
 			bad = true
 		}
-		w, ok := linkWeight(row, file, &ds)
+		w, ok := linkWeight(row, file, ds)
 		bad = bad || !ok
-		if !bad && len(ds) == 0 {
+		if !bad && len(*ds) == 0 {
 			for i, id := range [2]string{a, b} {
 				if num[i] < 0 {
 					num[i] = idt.add(i, id)
@@ -112,10 +217,9 @@ func ParseLinkTableWithin(file string, data []byte, b Budget, ids int) (*LinkTab
 		}
 		return true
 	})
-	if !header {
+	if header && lines == 0 {
 		ds.Add(Pos{file, 1, 1}, "the file is empty; it needs the header \"a\\tb\\tweight\"")
 	}
-	return orProblems(t, ds)
 }
 
 // linkWeight reads a link row's weight: a finite number above 0 that

@@ -1,7 +1,10 @@
 package format
 
 import (
+	"bytes"
 	"fmt"
+	"math/rand/v2"
+	"runtime"
 	"testing"
 
 	"github.com/google/go-cmp/cmp"
@@ -107,5 +110,84 @@ func TestIDTableNumbersInOrderOfFirstAppearance(t *testing.T) {
 				t.Errorf("room %d: id %d is %q, want %q", room, k, ids[k], id)
 			}
 		}
+	}
+}
+
+// randomLinkText is a links file of rows over ids drawn from a few hundred,
+// some long enough to be kept by number, with blank lines between some.
+func randomLinkText(rng *rand.Rand, rows int) []byte {
+	var b bytes.Buffer
+	b.WriteString(LinksHeader + "\n")
+	id := func() string {
+		k := rng.IntN(400)
+		if k%7 == 0 {
+			return fmt.Sprintf("item-with-a-long-name-%d", k)
+		}
+		return fmt.Sprintf("i%d", k)
+	}
+	for range rows {
+		a, c := id(), id()
+		for c == a {
+			c = id()
+		}
+		fmt.Fprintf(&b, "%s\t%s\t%.3g\n", a, c, 0.01+rng.Float64())
+		if rng.IntN(10) == 0 {
+			b.WriteString("\n")
+		}
+	}
+	return b.Bytes()
+}
+
+// Read in pieces, a links file gives the table read from the top: the
+// same ids in the same order, the same columns and lines.
+func TestLinkPiecesMatchReadingFromTheTop(t *testing.T) {
+	rng := rand.New(rand.NewPCG(7, 9))
+	for _, rows := range []int{1, 2, 5, 300, 5000} {
+		text := randomLinkText(rng, rows)
+		want, err := parseLinkText("l.tsv", text, Budget{Left: 1 << 30}, 0)
+		if err != nil {
+			t.Fatal(err)
+		}
+		for n := 2; n <= 6; n++ {
+			got := parseLinkPieces("l.tsv", text, Budget{Left: 1 << 30}, 400, n)
+			if got == nil {
+				t.Fatalf("%d rows in %d pieces: no table", rows, n)
+			}
+			if diff := cmp.Diff(want, got); diff != "" {
+				t.Errorf("%d rows in %d pieces (-top +pieces):\n%s", rows, n, diff)
+			}
+		}
+	}
+}
+
+// A problem in any piece, or more links than the budget, sends the reader
+// back to the top, so the problems are those of one read in file order.
+func TestLinkPiecesLeaveProblemsToTheTopRead(t *testing.T) {
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
+	rng := rand.New(rand.NewPCG(3, 4))
+	text := randomLinkText(rng, 150_000) // several pieces of linkPieceBytes
+	lines := bytes.Split(text, []byte{'\n'})
+	late := len(lines) * 9 / 10
+	lines[late] = []byte("i1\ti1\t1")
+	broken := bytes.Join(lines, []byte{'\n'})
+	_, err := ParseLinkTableWithin("l.tsv", broken, Budget{Left: 1 << 30}, 0)
+	want := []string{fmt.Sprintf(`l.tsv:%d:4: item "i1" is linked to itself`, late+1)}
+	checkErrors(t, err, want)
+
+	full, err := parseLinkText("l.tsv", text, Budget{Left: 1 << 30}, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if parseLinkPieces("l.tsv", text, Budget{Left: full.Len() - 1}, 0, 4) != nil {
+		t.Errorf("pieces over the budget gave a table")
+	}
+	_, err = ParseLinkTableWithin("l.tsv", text, Budget{Left: full.Len() - 1, Over: "too many links"}, 0)
+	checkErrors(t, err, []string{fmt.Sprintf("l.tsv:%d:1: too many links", full.Line[full.Len()-1])})
+	got, err := ParseLinkTableWithin("l.tsv", text, Budget{Left: full.Len()}, 0)
+	if err != nil {
+		t.Fatal(err)
+	}
+	if diff := cmp.Diff(full, got); diff != "" {
+		t.Errorf("(-top +pieces):\n%s", diff)
 	}
 }

@@ -18,13 +18,14 @@ type tsvRow struct {
 
 // readTSV calls each for every non-empty line of text, in order, until it
 // returns false, or until ds (the problems of file) is full: the rest of
-// a file with MaxProblemsPerFile problems is not read. The row and its
-// Cells slice are reused for the next line, so each must not keep them;
-// the cell strings themselves may be kept.
-func readTSV(file, text string, ds *Diags, each func(row *tsvRow) bool) {
+// a file with MaxProblemsPerFile problems is not read. text starts on
+// line lines+1 of file (0 for the whole file). The row and its Cells
+// slice are reused for the next line, so each must not keep them; the
+// cell strings themselves may be kept.
+func readTSV(file, text string, lines int, ds *Diags, each func(row *tsvRow) bool) {
 	row := &tsvRow{}
-	line := 0
-	for len(text) > 0 || line == 0 {
+	line := lines
+	for len(text) > 0 || line == lines {
 		line++
 		if ds.Full() {
 			ds.StopAt(Pos{file, line, 1})

@@ -74,7 +74,7 @@ func ParseVectors(file string, data []byte) (*Vectors, error) {
 	first := make(map[string]int, min(rowsGuess, 1<<16))
 	header := false
 	rows := 0
-	readTSV(file, string(text), &ds, func(row *tsvRow) bool {
+	readTSV(file, string(text), 0, &ds, func(row *tsvRow) bool {
 		if !header {
 			header = true
 			ok := readVectorHeader(file, row, v, &ds)
