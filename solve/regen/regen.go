@@ -145,7 +145,18 @@ func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 	if progress != nil {
 		progress("similarity graph", 0, 1)
 	}
-	g, err := Graph(p, Seed)
+	keys := p.RecordKeys()
+	// The graph and the plan of a local re-solve read the repository
+	// only, so they are made at once; each is what it would be alone.
+	var g *graph.CSR
+	var err error
+	done := make(chan struct{})
+	go func() {
+		defer close(done)
+		g, err = Graph(p, Seed)
+	}()
+	plan, reason := planLocal(p, ro, keys, compiled)
+	<-done
 	if err != nil {
 		return nil, err
 	}
@@ -156,12 +167,20 @@ func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 	opt.Stability = p.Settings.Taxonomy.Stability
 	opt.Progress = progress
 	ids := p.ItemIDs()
-	keys := p.RecordKeys()
 	sol := &Solution{Graph: g, Compiled: compiled}
-	tree, err := solveTree(p, ro, g, compiled, opt, ids, keys, sol)
+	tree, err := solveTree(p, ro, g, compiled, opt, ids, plan, reason, sol)
 	if err != nil {
 		return nil, err
 	}
+	// The cost and the records' check read the tree only, while naming
+	// and formatting work on the categories made from it: they run at
+	// once, and each gives what it would alone.
+	costDone := make(chan struct{})
+	go func() {
+		defer close(costDone)
+		sol.Cost = solve.Cost(g, tree)
+		sol.Violated = solve.Satisfies(tree, compiled.Constraints)
+	}()
 	root := ToCategory(tree, ids)
 	var prev *format.Category
 	if p.Outline != nil {
@@ -184,8 +203,7 @@ func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 	concept.CarryMatched(root, matched...)
 	sol.Root, sol.Tree = root, tree
 	sol.Text = format.FormatOutlineRecords(root, keys)
-	sol.Cost = solve.Cost(g, tree)
-	sol.Violated = solve.Satisfies(tree, compiled.Constraints)
+	<-costDone
 	sol.Seconds = time.Since(start).Seconds()
 	return sol, nil
 }
@@ -193,10 +211,9 @@ func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 // solveTree makes the tree over item indices: the local re-solve of the
 // previous outline when the change is small, else a rebuild, then the
 // side-by-side answers kept. It records in sol how the tree came about.
-func solveTree(p *repo.Repo, ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, keys []format.OutlineRecord, sol *Solution) (*solve.Tree, error) {
+func solveTree(p *repo.Repo, ro RegenOptions, g *graph.CSR, compiled *Compiled, opt solve.Options, ids []string, plan *localPlan, reason string, sol *Solution) (*solve.Tree, error) {
 	var tree *solve.Tree
 	var err error
-	plan, reason := planLocal(p, ro, keys, compiled)
 	if plan != nil {
 		if err := compiled.Consistent(len(p.Items)); err != nil {
 			return nil, err
