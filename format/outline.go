@@ -337,6 +337,12 @@ func isHex(s string) bool {
 // structure hash. root is sorted in place first.
 func FormatOutline(root *Category) []byte {
 	root.Sort()
+	return formatSortedOutline(root)
+}
+
+// formatSortedOutline is FormatOutline of a tree already in canonical
+// order: it only reads root.
+func formatSortedOutline(root *Category) []byte {
 	var b bytes.Buffer
 	b.WriteString(OutlineHeader + "\n")
 	b.WriteString("# structure " + StructureHash(root) + "\n")
@@ -351,7 +357,15 @@ func FormatOutline(root *Category) []byte {
 // per record, in key order, each with its items sorted: the decisions the
 // tree was solved under.
 func FormatOutlineRecords(root *Category, records []OutlineRecord) []byte {
-	out := FormatOutline(root)
+	root.Sort()
+	return FormatSortedOutlineRecords(root, records)
+}
+
+// FormatSortedOutlineRecords is FormatOutlineRecords of a tree already put
+// in canonical order (Sort). It only reads root, so others may read the
+// tree while it is printed.
+func FormatSortedOutlineRecords(root *Category, records []OutlineRecord) []byte {
+	out := formatSortedOutline(root)
 	recs := slices.Clone(records)
 	slices.SortFunc(recs, func(a, b OutlineRecord) int { return strings.Compare(a.Key, b.Key) })
 	var b bytes.Buffer

@@ -123,16 +123,24 @@ func runSolve(e *env, o *solveOptions, args []string) error {
 	if err := checkGroupNames(p); err != nil {
 		return err
 	}
-	sol, err := regen.RegenerateWith(p, regen.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc()})
-	e.endProgress()
-	if err != nil {
-		return solveError(e, err)
-	}
 	var prev *format.Category
 	if p.Outline != nil {
 		prev = p.Outline.Root
 	}
-	rep := solveReportOf(p, sol, prev)
+	// What moved is read off the named categories while the outline is
+	// printed from them.
+	var changes *diff.Report
+	named := func(root *format.Category) {
+		if prev != nil {
+			changes = diff.CompareChanges(prev, root)
+		}
+	}
+	sol, err := regen.RegenerateWith(p, regen.RegenOptions{Method: method, Rebuild: o.rebuild, Progress: e.progressFunc(), Named: named})
+	e.endProgress()
+	if err != nil {
+		return solveError(e, err)
+	}
+	rep := solveReportOf(p, sol, changes)
 	e.result = rep
 	if handled, err := solveElsewhere(e, o, rep, p, sol); handled {
 		return err
@@ -210,7 +218,9 @@ func quoteNote(n string) string {
 	return `"` + n + `"`
 }
 
-func solveReportOf(p *repo.Repo, sol *regen.Solution, prev *format.Category) *solveReport {
+// solveReportOf is the report of sol; changes is what moved since the
+// previous outline, nil when there is none.
+func solveReportOf(p *repo.Repo, sol *regen.Solution, changes *diff.Report) *solveReport {
 	total := sol.Compiled.Editorial()
 	violated := len(sol.Compiled.EditorialViolated(sol.Violated))
 	counts := countRecords(p.Constraints)
@@ -240,8 +250,7 @@ func solveReportOf(p *repo.Repo, sol *regen.Solution, prev *format.Category) *so
 		Joined:            sol.Joined,
 		Seconds:           roundSig(sol.Seconds, 3),
 	}
-	if prev != nil {
-		changes := diff.CompareChanges(prev, sol.Root)
+	if changes != nil {
 		rep.Moved, rep.MovedCategories = movesReport(changes)
 		added, removed := len(changes.Added), len(changes.Removed)
 		rep.Added, rep.Removed = &added, &removed

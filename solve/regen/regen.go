@@ -99,6 +99,11 @@ type RegenOptions struct {
 	// previous outline) even when a local re-solve would do.
 	Rebuild  bool
 	Progress func(stage string, done, total int)
+	// Named, when set, is called with the new categories once they are
+	// named and in canonical order, while the outline is printed from
+	// them (a report of what moved need not wait for the text). It must
+	// only read root; Regenerate returns after it does.
+	Named func(root *format.Category)
 }
 
 // Modes of a regeneration (Solution.Mode).
@@ -202,7 +207,16 @@ func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 	}
 	concept.CarryMatched(root, matched...)
 	sol.Root, sol.Tree = root, tree
-	sol.Text = format.FormatOutlineRecords(root, keys)
+	root.Sort()
+	namedDone := make(chan struct{})
+	go func() {
+		defer close(namedDone)
+		if ro.Named != nil {
+			ro.Named(root)
+		}
+	}()
+	sol.Text = format.FormatSortedOutlineRecords(root, keys)
+	<-namedDone
 	<-costDone
 	sol.Seconds = time.Since(start).Seconds()
 	return sol, nil
