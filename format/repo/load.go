@@ -1,6 +1,7 @@
 package repo
 
 import (
+	"bytes"
 	"errors"
 	"fmt"
 	"io"
@@ -119,11 +120,16 @@ func Load(dir string) (*Repo, format.Diags) {
 	// refer to them), sorted by position within each step. When the items
 	// themselves are broken, references to them cannot be judged, so the
 	// "unknown item" checks are skipped rather than flooding the report.
+	// The outline is the largest file after the links and needs nothing
+	// else to be parsed, so it is parsed while the others load; at its
+	// turn it is read as before and the early parse used only when the
+	// bytes are the same.
+	early := p.parseOutlineEarly()
 	itemDs := p.loadItems()
 	p.itemsBroken = len(itemDs) > 0
 	for _, step := range []func() format.Diags{
 		func() format.Diags { return itemDs },
-		p.loadVectors, p.loadLinks, p.loadConstraints, p.loadOutline,
+		p.loadVectors, p.loadLinks, p.loadConstraints, func() format.Diags { return p.loadOutline(early) },
 	} {
 		sds := step()
 		sds.Sort()
@@ -569,7 +575,48 @@ func (p *Repo) SuggestItem(id string) string {
 	return ""
 }
 
-func (p *Repo) loadOutline() format.Diags {
+// earlyOutline is the outline as parseOutlineEarly read and parsed it.
+type earlyOutline struct {
+	done     chan struct{}
+	data     []byte
+	outline  *format.Outline
+	err      error
+	warnings format.Diags
+}
+
+// parseOutlineEarly reads and parses the outline file on a goroutine of
+// its own, ahead of its turn and outside the byte budget; nil when there
+// is nothing to read.
+func (p *Repo) parseOutlineEarly() *earlyOutline {
+	rel := p.Settings.Taxonomy.File
+	full, err := Resolve(p.Dir, rel)
+	if err != nil {
+		return nil
+	}
+	e := &earlyOutline{done: make(chan struct{})}
+	go func() {
+		defer close(e.done)
+		data, err := format.ReadFileLimited(full, rel, format.MaxOutlineBytes)
+		if err != nil {
+			return
+		}
+		e.data = data
+		e.outline, e.err = format.ParseOutline(rel, data)
+		if e.err == nil {
+			e.warnings = format.ConfusableSiblings(rel, e.outline.Root)
+		}
+	}()
+	return e
+}
+
+// loadOutline reads and parses the outline; early, when not nil, is the
+// parse made ahead of time, used when it read the same bytes.
+func (p *Repo) loadOutline(early *earlyOutline) format.Diags {
+	if early != nil {
+		// Wait for it even when unused: nothing may still be reading
+		// once Load has returned.
+		<-early.done
+	}
 	rel := p.Settings.Taxonomy.File
 	full, err := Resolve(p.Dir, rel)
 	if err != nil {
@@ -582,15 +629,21 @@ func (p *Repo) loadOutline() format.Diags {
 	if len(ds) > 0 {
 		return ds
 	}
-	o, err := format.ParseOutline(rel, data)
-	if err != nil {
-		return format.AsDiags(err, rel)
+	if early == nil || early.data == nil || !bytes.Equal(early.data, data) {
+		early = &earlyOutline{data: data}
+		early.outline, early.err = format.ParseOutline(rel, data)
+		if early.err == nil {
+			early.warnings = format.ConfusableSiblings(rel, early.outline.Root)
+		}
 	}
-	p.Outline, p.OutlineText = o, data
+	if early.err != nil {
+		return format.AsDiags(early.err, rel)
+	}
+	p.Outline, p.OutlineText = early.outline, data
 	// Look-alike sibling names are no error (a name may mean to be what
 	// it looks like), but no reader can tell them apart: check warns,
 	// and fails under --strict.
-	p.Warnings = append(p.Warnings, format.ConfusableSiblings(rel, o.Root)...)
+	p.Warnings = append(p.Warnings, early.warnings...)
 	return nil
 }
 
