@@ -2,96 +2,60 @@ package diff
 
 import (
 	"fmt"
+	"strconv"
 	"strings"
 
+	"github.com/ramify-tax/ramify/internal/brackets"
 	"github.com/ramify-tax/ramify/solve/hier"
 )
 
-// parseNewick is a test-only reader for plain Newick without branch
-// lengths: "((a,b),c);". Leaves get ids by their position in labels; an
-// internal node may carry a label after ")" that is ignored.
+// parseNewick is a test-only reader for plain Newick: "((a,b),c);".
+// Leaves get ids by their position in labels; a label after ")" and a
+// branch length after ":" are ignored. It writes the tree in the bracket
+// notation of internal/brackets, each leaf as its number, and reads that;
+// every leaf must stand exactly once.
 func parseNewick(s string, labels []string) (*hier.Tree, error) {
-	id := map[string]int32{}
+	id := map[string]int{}
 	for i, l := range labels {
-		id[l] = int32(i)
+		id[l] = i
 	}
-	s = strings.TrimSpace(s)
-	s = strings.TrimSuffix(s, ";")
+	s = strings.TrimSuffix(strings.TrimSpace(s), ";")
+	var b strings.Builder
+	seen := map[int]bool{}
+	for i := 0; i < len(s); {
+		if strings.IndexByte("(),", s[i]) >= 0 {
+			b.WriteByte(s[i])
+			i++
+			continue
+		}
+		j := i + strings.IndexAny(s[i:]+";", "(),;")
+		label, _, _ := strings.Cut(s[i:j], ":") // the rest is a branch length
+		label = strings.TrimSpace(label)
+		afterGroup := i > 0 && s[i-1] == ')'
+		i = j
+		if afterGroup {
+			continue // an internal node's label
+		}
+		v, ok := id[label]
+		if !ok {
+			return nil, fmt.Errorf("newick: unknown leaf %q", label)
+		}
+		if seen[v] {
+			return nil, fmt.Errorf("newick: leaf %q twice", label)
+		}
+		seen[v] = true
+		b.WriteString(strconv.Itoa(v))
+	}
+	if len(seen) != len(labels) {
+		return nil, fmt.Errorf("newick: %d of %d leaves", len(seen), len(labels))
+	}
 	t := hier.NewTree(len(labels))
-	p := &newickParser{src: s, id: id, t: t, seen: map[int32]bool{}}
-	root, err := p.node()
+	root, err := brackets.Parse(b.String(), len(labels), func(kids []int32) int32 { return t.Add(kids...) })
 	if err != nil {
-		return nil, err
-	}
-	if p.i != len(p.src) {
-		return nil, fmt.Errorf("newick: trailing text %q", p.src[p.i:])
-	}
-	if len(p.seen) != len(labels) {
-		return nil, fmt.Errorf("newick: %d of %d leaves", len(p.seen), len(labels))
+		return nil, fmt.Errorf("newick: %v", err)
 	}
 	t.Root = root
 	return t, nil
-}
-
-type newickParser struct {
-	src  string
-	i    int
-	id   map[string]int32
-	t    *hier.Tree
-	seen map[int32]bool
-}
-
-func (p *newickParser) label() string {
-	j := p.i
-	for j < len(p.src) && !strings.ContainsRune("(),:;", rune(p.src[j])) {
-		j++
-	}
-	l := strings.TrimSpace(p.src[p.i:j])
-	p.i = j
-	if p.i < len(p.src) && p.src[p.i] == ':' { // skip a branch length
-		for p.i < len(p.src) && !strings.ContainsRune("(),;", rune(p.src[p.i])) {
-			p.i++
-		}
-	}
-	return l
-}
-
-func (p *newickParser) node() (int32, error) {
-	if p.i < len(p.src) && p.src[p.i] == '(' {
-		p.i++
-		var kids []int32
-		for {
-			k, err := p.node()
-			if err != nil {
-				return 0, err
-			}
-			kids = append(kids, k)
-			if p.i >= len(p.src) {
-				return 0, fmt.Errorf("newick: unclosed '('")
-			}
-			if p.src[p.i] == ',' {
-				p.i++
-				continue
-			}
-			if p.src[p.i] == ')' {
-				p.i++
-				break
-			}
-			return 0, fmt.Errorf("newick: unexpected %q", p.src[p.i])
-		}
-		p.label()
-		return p.t.Add(kids...), nil
-	}
-	l := p.label()
-	v, ok := p.id[l]
-	if !ok {
-		return 0, fmt.Errorf("newick: unknown leaf %q", l)
-	}
-	if p.seen[v] {
-		return 0, fmt.Errorf("newick: leaf %q twice", l)
-	}
-	p.seen[v] = true
-	return v, nil
 }
 
 // mustNewick parses s over the leaves named by labels and panics on error.
