@@ -282,26 +282,15 @@ func (f *folder) contract(u int32) {
 	f.rep[u] = v
 }
 
-// postOrder lists the alive internal nodes, children first.
+// postOrder lists the alive internal nodes, children first: the post-order
+// of the tree the current links make, its leaves left out.
 func (f *folder) postOrder() []int32 {
-	var out []int32
-	type frame struct {
-		v    int32
-		next int
-	}
-	stack := []frame{{f.t.Root, 0}}
-	for len(stack) > 0 {
-		fr := &stack[len(stack)-1]
-		if fr.next < len(f.kids[fr.v]) {
-			c := f.kids[fr.v][fr.next]
-			fr.next++
-			if !f.t.IsLeaf(c) {
-				stack = append(stack, frame{c, 0})
-			}
-			continue
+	all := (&Tree{N: f.t.N, Kids: f.kids, Root: f.t.Root}).PostOrder()
+	out := all[:0]
+	for _, v := range all {
+		if !f.t.IsLeaf(v) {
+			out = append(out, v)
 		}
-		out = append(out, fr.v)
-		stack = stack[:len(stack)-1]
 	}
 	return out
 }
