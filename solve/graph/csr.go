@@ -7,10 +7,8 @@ import (
 	"cmp"
 	"fmt"
 	"math"
-	"runtime"
 	"slices"
 	"sort"
-	"sync"
 )
 
 // CSR is an undirected weighted graph on vertices 0..N-1. Row i lists the
@@ -53,73 +51,22 @@ func FromEdges(n int, edges []Edge) (*CSR, error) {
 
 // fromEdgeFunc is FromEdges over m edges given by edge(k), checked
 // already: vertices in range, weights finite. An edge with a vertex below
-// 0 is left out (LinkColumns marks links to unknown items so). edge may be
-// called from several goroutines at once.
+// 0 is left out (LinkColumns marks links to unknown items so).
 func fromEdgeFunc(n, m int, edge func(k int) (a, b int32, w float64)) *CSR {
-	parts := 1
-	if m >= parallelEdges && n >= 2 {
-		parts = min(runtime.GOMAXPROCS(0), maxEdgeParts, n)
-	}
-	return fromEdgeFuncParts(n, m, edge, parts)
-}
-
-// parallelEdges is the fewest edges worth building the rows of on several
-// goroutines; maxEdgeParts bounds how many, as each reads every edge.
-const (
-	parallelEdges = 1 << 16
-	maxEdgeParts  = 8
-)
-
-// fromEdgeFuncParts is fromEdgeFunc with the rows split into parts ranges
-// of vertices, each built by a goroutine of its own. Every part reads all
-// edges in order and writes only its own rows, so each row lists its
-// entries in the order one pass gives, and the graph is the same for any
-// number of parts.
-func fromEdgeFuncParts(n, m int, edge func(k int) (a, b int32, w float64), parts int) *CSR {
 	g := &CSR{N: n, Offsets: make([]int64, n+1)}
 	// Bucket the directed edges by row (a counting sort on A), then sort
 	// each short row by (B, W): the same order as one sort of all 2m
 	// directed edges by (A, B, W), at a fraction of the cost at a million
 	// items.
-	bounds := make([]int32, parts+1)
-	for p := range bounds {
-		bounds[p] = int32(int64(n) * int64(p) / int64(parts))
-	}
-	inParts := func(each func(p int, lo, hi int32)) {
-		if parts == 1 {
-			each(0, 0, int32(n))
-			return
-		}
-		var wg sync.WaitGroup
-		for p := range parts {
-			wg.Add(1)
-			go func() {
-				defer wg.Done()
-				each(p, bounds[p], bounds[p+1])
-			}()
-		}
-		wg.Wait()
-	}
-	// ends calls visit for each end of every kept edge whose row lies in
-	// lo..hi-1, in edge order.
-	ends := func(lo, hi int32, visit func(row, other int32, w float64)) {
-		for k := range m {
-			a, b, w := edge(k)
-			if a == b || w <= 0 || a < 0 || b < 0 {
-				continue
-			}
-			if lo <= a && a < hi {
-				visit(a, b, w)
-			}
-			if lo <= b && b < hi {
-				visit(b, a, w)
-			}
-		}
-	}
 	start := make([]int64, n+1)
-	inParts(func(_ int, lo, hi int32) {
-		ends(lo, hi, func(row, _ int32, _ float64) { start[row+1]++ })
-	})
+	for k := range m {
+		a, b, w := edge(k)
+		if a == b || w <= 0 || a < 0 || b < 0 {
+			continue
+		}
+		start[a+1]++
+		start[b+1]++
+	}
 	for i := 0; i < n; i++ {
 		start[i+1] += start[i]
 	}
@@ -129,12 +76,16 @@ func fromEdgeFuncParts(n, m int, edge func(k int) (a, b int32, w float64), parts
 	}
 	dir := make([]half, start[n])
 	fill := append([]int64(nil), start[:n]...)
-	inParts(func(_ int, lo, hi int32) {
-		ends(lo, hi, func(row, other int32, w float64) {
-			dir[fill[row]] = half{other, w}
-			fill[row]++
-		})
-	})
+	for k := range m {
+		a, b, w := edge(k)
+		if a == b || w <= 0 || a < 0 || b < 0 {
+			continue
+		}
+		dir[fill[a]] = half{b, w}
+		fill[a]++
+		dir[fill[b]] = half{a, w}
+		fill[b]++
+	}
 	fill = nil
 	less := func(x, y half) int {
 		if c := cmp.Compare(x.b, y.b); c != 0 {
@@ -142,51 +93,38 @@ func fromEdgeFuncParts(n, m int, edge func(k int) (a, b int32, w float64), parts
 		}
 		return cmp.Compare(x.w, y.w)
 	}
-	// Sum the duplicates of each row in place, within its part; kept[p]
-	// is where part p's entries end, and Offsets[i+1] holds row i's count
-	// until the counts are summed.
-	kept := make([]int64, parts)
-	inParts(func(p int, lo, hi int32) {
-		at := start[lo]
-		for i := lo; i < hi; i++ {
-			row := dir[start[i]:start[i+1]]
-			if len(row) <= 16 {
-				for a := 1; a < len(row); a++ {
-					for c := a; c > 0 && less(row[c-1], row[c]) > 0; c-- {
-						row[c-1], row[c] = row[c], row[c-1]
-					}
-				}
-			} else {
-				slices.SortFunc(row, less)
-			}
-			rowStart := at
-			for a := 0; a < len(row); {
-				c := a
-				w := 0.0
-				for c < len(row) && row[c].b == row[a].b {
-					w += row[c].w
-					c++
-				}
-				dir[at] = half{row[a].b, w}
-				at++
-				a = c
-			}
-			g.Offsets[i+1] = at - rowStart
-		}
-		kept[p] = at
-	})
+	// Sum the duplicates of each row in place; kept counts the entries
+	// left, which then move into CSR arrays of their exact size.
+	kept := int64(0)
 	for i := 0; i < n; i++ {
-		g.Offsets[i+1] += g.Offsets[i]
-	}
-	g.Targets = make([]int32, g.Offsets[n])
-	g.Weights = make([]float64, g.Offsets[n])
-	for p := range parts {
-		lo := bounds[p]
-		out := g.Offsets[lo]
-		for _, h := range dir[start[lo]:kept[p]] {
-			g.Targets[out], g.Weights[out] = h.b, h.w
-			out++
+		row := dir[start[i]:start[i+1]]
+		if len(row) <= 16 {
+			for a := 1; a < len(row); a++ {
+				for c := a; c > 0 && less(row[c-1], row[c]) > 0; c-- {
+					row[c-1], row[c] = row[c], row[c-1]
+				}
+			}
+		} else {
+			slices.SortFunc(row, less)
 		}
+		rowStart := kept
+		for a := 0; a < len(row); {
+			c := a
+			w := 0.0
+			for c < len(row) && row[c].b == row[a].b {
+				w += row[c].w
+				c++
+			}
+			dir[kept] = half{row[a].b, w}
+			kept++
+			a = c
+		}
+		g.Offsets[i+1] = g.Offsets[i] + (kept - rowStart)
+	}
+	g.Targets = make([]int32, kept)
+	g.Weights = make([]float64, kept)
+	for k, h := range dir[:kept] {
+		g.Targets[k], g.Weights[k] = h.b, h.w
 	}
 	return g
 }
