@@ -1,8 +1,11 @@
 package format
 
 import (
+	"bytes"
 	"fmt"
 	"math/rand/v2"
+	"os"
+	"path/filepath"
 	"strings"
 	"testing"
 )
@@ -156,6 +159,20 @@ func BenchmarkParseLinkTableMillionIDs(b *testing.B) {
 	b.SetBytes(int64(len(data)))
 	for b.Loop() {
 		if _, err := ParseLinkTableWithin("b.tsv", data, fileLinks, 1_000_000); err != nil {
+			b.Fatal(err)
+		}
+	}
+}
+
+// BenchmarkReadFileLimited64M reads a 64 MB file whole, as Load reads a
+// large links file.
+func BenchmarkReadFileLimited64M(b *testing.B) {
+	path := filepath.Join(b.TempDir(), "links.tsv")
+	if err := os.WriteFile(path, bytes.Repeat([]byte("item-1\titem-2\t0.5\n"), 64<<20/18), 0o644); err != nil {
+		b.Fatal(err)
+	}
+	for b.Loop() {
+		if _, err := ReadFileLimited(path, "links.tsv", MaxDataFileBytes); err != nil {
 			b.Fatal(err)
 		}
 	}

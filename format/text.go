@@ -43,9 +43,23 @@ func ReadFileLimited(path, display string, limit int64) ([]byte, error) {
 	if info.Size() > limit {
 		return nil, Diags{{Pos: Pos{File: display}, Msg: fmt.Sprintf("file is %d bytes; the limit for this kind of file is %d", info.Size(), limit)}}
 	}
-	data, err := io.ReadAll(io.LimitReader(f, limit+1))
-	if err != nil {
-		return nil, err
+	// The size is known: one buffer of it, and a byte more to notice a
+	// file that grew since, instead of the copies a growing buffer makes
+	// (a quarter of a gigabyte of links would be copied about twice).
+	data := make([]byte, 0, min(info.Size(), limit)+1)
+	r := io.LimitReader(f, limit+1)
+	for {
+		if len(data) == cap(data) {
+			data = append(data, 0)[:len(data)]
+		}
+		n, err := r.Read(data[len(data):cap(data)])
+		data = data[:len(data)+n]
+		if err == io.EOF {
+			break
+		}
+		if err != nil {
+			return nil, err
+		}
 	}
 	if int64(len(data)) > limit {
 		return nil, Diags{{Pos: Pos{File: display}, Msg: fmt.Sprintf("file is larger than the limit of %d bytes", limit)}}
