@@ -23,16 +23,7 @@ func oraclePackets(dir string, p *repo.Repo, tree, ref *solve.Tree) error {
 		return err
 	}
 	slices.Sort(files)
-	n := tree.N
-	dr, dt := lcaDepths(ref), lcaDepths(tree)
-	wrong := func(a, b, c int) bool {
-		x := [3]int{a, b, c}
-		slices.Sort(x[:])
-		r := topology(dr, n, x[0], x[1], x[2])
-		return r != 0 && topology(dt, n, x[0], x[1], x[2]) != r
-	}
-	rc := compareTriples(ref, tree, tree)
-	used := make([]bool, n)
+	o := newOracle(tree, ref)
 	for _, f := range files {
 		data, err := os.ReadFile(f)
 		if err != nil {
@@ -45,54 +36,9 @@ func oraclePackets(dir string, p *repo.Repo, tree, ref *solve.Tree) error {
 		if pk.Verdict != format.VerdictPending {
 			continue
 		}
-		seed := -1
-		for x := 0; x < n; x++ {
-			if !used[x] && (seed < 0 || rc.wrongWith[x] > rc.wrongWith[seed]) {
-				seed = x
-			}
-		}
-		if seed < 0 {
+		chosen := o.pick(pk.Size)
+		if len(chosen) == 0 {
 			break
-		}
-		// pair[y]: the wrong triples holding both the seed and y, which
-		// orders candidates before any triple lies inside the packet.
-		pair := make([]int, n)
-		for y := 0; y < n; y++ {
-			if y == seed {
-				continue
-			}
-			for z := 0; z < n; z++ {
-				if z != seed && z != y && wrong(seed, y, z) {
-					pair[y]++
-				}
-			}
-		}
-		chosen := []int{seed}
-		used[seed] = true
-		for len(chosen) < pk.Size {
-			best, bestScore := -1, [2]int{-1, -1}
-			for y := 0; y < n; y++ {
-				if used[y] {
-					continue
-				}
-				inside := 0
-				for i := range chosen {
-					for j := i + 1; j < len(chosen); j++ {
-						if wrong(chosen[i], chosen[j], y) {
-							inside++
-						}
-					}
-				}
-				s := [2]int{inside, pair[y]}
-				if s[0] > bestScore[0] || (s[0] == bestScore[0] && s[1] > bestScore[1]) {
-					best, bestScore = y, s
-				}
-			}
-			if best < 0 {
-				break
-			}
-			chosen = append(chosen, best)
-			used[best] = true
 		}
 		ids := make([]string, len(chosen))
 		for i, x := range chosen {
@@ -112,4 +58,85 @@ func oraclePackets(dir string, p *repo.Repo, tree, ref *solve.Tree) error {
 		}
 	}
 	return nil
+}
+
+// oracle picks packets from what the tree gets wrong against the
+// reference; used marks the items already in a packet of this round.
+type oracle struct {
+	n          int
+	dRef, dNow []int16
+	wrongWith  []int
+	used       []bool
+}
+
+func newOracle(tree, ref *solve.Tree) *oracle {
+	rc := compareTriples(ref, tree, tree)
+	return &oracle{n: tree.N, dRef: lcaDepths(ref), dNow: lcaDepths(tree), wrongWith: rc.wrongWith, used: make([]bool, tree.N)}
+}
+
+// wrong reports whether the tree arranges the triple otherwise than the
+// reference, which resolves it.
+func (o *oracle) wrong(a, b, c int) bool {
+	x := [3]int{a, b, c}
+	slices.Sort(x[:])
+	r := topology(o.dRef, o.n, x[0], x[1], x[2])
+	return r != 0 && topology(o.dNow, o.n, x[0], x[1], x[2]) != r
+}
+
+// pick chooses up to size unused items: the one in the most wrong triples,
+// then greedily the item with the most wrong triples among the chosen
+// (ties: the most wrong triples with the first); none when every item is
+// used.
+func (o *oracle) pick(size int) []int {
+	n := o.n
+	seed := -1
+	for x := 0; x < n; x++ {
+		if !o.used[x] && (seed < 0 || o.wrongWith[x] > o.wrongWith[seed]) {
+			seed = x
+		}
+	}
+	if seed < 0 {
+		return nil
+	}
+	// pair[y]: the wrong triples holding both the seed and y, which
+	// orders candidates before any triple lies inside the packet.
+	pair := make([]int, n)
+	for y := 0; y < n; y++ {
+		if y == seed {
+			continue
+		}
+		for z := 0; z < n; z++ {
+			if z != seed && z != y && o.wrong(seed, y, z) {
+				pair[y]++
+			}
+		}
+	}
+	chosen := []int{seed}
+	o.used[seed] = true
+	for len(chosen) < size {
+		best, bestScore := -1, [2]int{-1, -1}
+		for y := 0; y < n; y++ {
+			if o.used[y] {
+				continue
+			}
+			inside := 0
+			for i := range chosen {
+				for j := i + 1; j < len(chosen); j++ {
+					if o.wrong(chosen[i], chosen[j], y) {
+						inside++
+					}
+				}
+			}
+			s := [2]int{inside, pair[y]}
+			if s[0] > bestScore[0] || (s[0] == bestScore[0] && s[1] > bestScore[1]) {
+				best, bestScore = y, s
+			}
+		}
+		if best < 0 {
+			break
+		}
+		chosen = append(chosen, best)
+		o.used[best] = true
+	}
+	return chosen
 }
