@@ -2,11 +2,14 @@ package format
 
 import (
 	"math/rand/v2"
+	"runtime"
 	"slices"
 	"testing"
 )
 
 func TestMemberListsAreTheSortedItemsBelowEachCategory(t *testing.T) {
+	// Several processors, so the large tree's subtrees are listed at once.
+	defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(4))
 	rng := rand.New(rand.NewPCG(11, 12))
 	for _, tc := range []struct {
 		name string
@@ -19,6 +22,7 @@ func TestMemberListsAreTheSortedItemsBelowEachCategory(t *testing.T) {
 			{Name: "y", Items: []string{"d"}},
 		}}},
 		{"random", randomTree(rng, 500, 5)},
+		{"large random", randomTree(rng, parallelMembers+1000, 5)},
 	} {
 		t.Run(tc.name, func(t *testing.T) {
 			var want [][]string
