@@ -62,14 +62,10 @@ type Link struct {
 // Linked yields a Link for each widest pair of names apart (see above),
 // in name order. idx maps item ids to indices; unknown ids are skipped.
 func Linked(answers []Answer, idx func(string) (int32, bool), yield func(Link)) {
-	l := newLinker()
-	for _, ans := range answers {
-		l.read(ans, idx)
-	}
-	if len(l.members) > maxLinkedNames {
+	l := readAnswers(answers, idx)
+	if l == nil {
 		return
 	}
-	l.close()
 	answered := map[int32]bool{}
 	for _, m := range l.all {
 		for x := range m {
@@ -85,6 +81,49 @@ func Linked(answers []Answer, idx func(string) (int32, bool), yield func(Link)) 
 		budget -= need
 		yield(l.link(p[0], p[1]))
 	}
+}
+
+// readAnswers reads the answers' names and closes their relations; nil
+// past the names budget.
+func readAnswers(answers []Answer, idx func(string) (int32, bool)) *linker {
+	l := newLinker()
+	for _, ans := range answers {
+		l.read(ans, idx)
+	}
+	if len(l.members) > maxLinkedNames {
+		return nil
+	}
+	l.close()
+	return l
+}
+
+// Named is a typed name the answers agree on (see Linked): the items
+// placed under it or under a name inside it, and the items known to lie
+// outside it (those of the names apart from it), both ascending. The
+// category it names is the lowest that holds Items and none of Outside.
+type Named struct {
+	Name           string
+	Items, Outside []int32
+}
+
+// NamedSets lists, in name order, the typed names the answers agree on,
+// for the names to land on one category each instead of one per answer.
+func NamedSets(answers []Answer, idx func(string) (int32, bool)) []Named {
+	l := readAnswers(answers, idx)
+	if l == nil {
+		return nil
+	}
+	var out []Named
+	for _, n := range slices.Sorted(maps.Keys(l.members)) {
+		outside := map[int32]bool{}
+		for m := range l.apart[n] {
+			for x := range l.all[m] {
+				outside[x] = true
+			}
+		}
+		out = append(out, Named{Name: n, Items: slices.Sorted(maps.Keys(l.all[n])), Outside: slices.Sorted(maps.Keys(outside))})
+	}
+	return out
 }
 
 type linker struct {

@@ -5,6 +5,7 @@ import (
 	"path/filepath"
 	"testing"
 
+	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
 )
 
@@ -82,6 +83,20 @@ func TestCompileLinksAnswersByName(t *testing.T) {
 	if !apartIn(tree.Parents(), sanders, saws) {
 		t.Errorf("sanders and saws not apart in\n%s", sol.Text)
 	}
+	// Each name the answers agree on names one category, the one that
+	// holds all its items.
+	for _, name := range []string{"Sanders", "Saws"} {
+		var at []*format.Category
+		sol.Root.Walk(func(c *format.Category, _ int) bool {
+			if c.Name == name {
+				at = append(at, c)
+			}
+			return true
+		})
+		if len(at) != 1 {
+			t.Errorf("%d categories named %s, want 1:\n%s", len(at), name, sol.Text)
+		}
+	}
 }
 
 // A record that the linked reading contradicts wins, and no conflict
@@ -142,4 +157,51 @@ func apartIn(parent []int32, a, b []int32) bool {
 		}
 	}
 	return true
+}
+
+// Per answer, a typed name lands on the lowest category that holds that
+// answer's items under it, so two answers name two categories down one
+// path. Linked, the name lands once: on the lowest category holding every
+// item the answers put under it and none of the names apart from it.
+func TestAgreedNameNamesOneCategory(t *testing.T) {
+	p := linkRepo(t, `
+[[shape]]
+outline = """
+Sanders/
+  i0
+  i1
+  i4
+Saws/
+  i5
+"""
+by = "Scripted Reviewer"
+date = 2027-01-03
+`)
+	build := func() *format.Category {
+		o, err := format.ParseOutline("t", []byte("# ramify outline 1\nA/\n  B/\n    i0\n    i1\n  i4\nC/\n  i2\n  i3\n  i5\n"))
+		if err != nil {
+			t.Fatal(err)
+		}
+		return o.Root
+	}
+	count := func(root *format.Category, name string) int {
+		n := 0
+		root.Walk(func(c *format.Category, _ int) bool {
+			if c.Name == name {
+				n++
+			}
+			return true
+		})
+		return n
+	}
+	apart := build()
+	nameCategories(p, apart, nil, nil, false)
+	linked := build()
+	nameCategories(p, linked, nil, nil, true)
+	if got := count(apart, "Sanders"); got != 2 {
+		t.Errorf("answers read apart: %d categories named Sanders, want 2 (A and B)", got)
+	}
+	if got := count(linked, "Sanders"); got != 1 || linked.Children[0].Name != "Sanders" {
+		t.Errorf("answers linked: %d categories named Sanders (top: %q), want 1, the top one", got, linked.Children[0].Name)
+	}
 }

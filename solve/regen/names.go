@@ -4,6 +4,7 @@ import (
 	"github.com/ramify-tax/ramify/diff/match"
 	"github.com/ramify-tax/ramify/format"
 	"github.com/ramify-tax/ramify/format/repo"
+	"github.com/ramify-tax/ramify/format/shape"
 	"github.com/ramify-tax/ramify/solve/graph"
 	"github.com/ramify-tax/ramify/solve/naming"
 )
@@ -14,8 +15,12 @@ import (
 // and in NameSources) replace provisional ones where the category they
 // name still exists, and the rest get a provisional name from their
 // members' tags and words. carried is naming.Carried(prev, root), or nil
-// without a previous outline.
-func nameCategories(p *repo.Repo, root, prev *format.Category, carried []match.Pair) naming.Counts {
+// without a previous outline. linked says that the answers' typed names
+// link them (Compiled.Linked): then each name the answers agree on names
+// one category, the lowest that holds every item placed under it and none
+// of the names apart from it, instead of one category per answer, which
+// would repeat the name down a path ("Wine / Wine / Wine").
+func nameCategories(p *repo.Repo, root, prev *format.Category, carried []match.Pair, linked bool) naming.Counts {
 	var fixed []naming.Fixed
 	for _, f := range p.Constraints {
 		for _, g := range f.Groups {
@@ -29,12 +34,39 @@ func nameCategories(p *repo.Repo, root, prev *format.Category, carried []match.P
 	for _, src := range p.NameSources {
 		typed = append(typed, TypedNames(src)...)
 	}
+	var answers []shape.Answer
 	for _, f := range p.Constraints {
 		for _, s := range f.Shapes {
-			typed = append(typed, TypedNames(s.Tree)...)
+			answers = append(answers, shape.Answer{Tree: s.Tree, Record: len(answers)})
 		}
 	}
+	agreed := map[string]bool{}
+	var named []naming.Typed
+	if linked {
+		for _, n := range shape.NamedSets(answers, p.ItemIndex) {
+			agreed[n.Name] = true
+			items := idsOf(p, n.Items)
+			named = append(named, naming.Typed{Items: items, Scope: append(items, idsOf(p, n.Outside)...), Name: n.Name})
+		}
+	}
+	for _, a := range answers {
+		for _, t := range TypedNames(a.Tree) {
+			if !agreed[t.Name] {
+				typed = append(typed, t)
+			}
+		}
+	}
+	typed = append(typed, named...)
 	return naming.AssignMatched(root, prev, carried, fixed, typed, words)
+}
+
+// idsOf is the ids of the items at the given indices.
+func idsOf(p *repo.Repo, xs []int32) []string {
+	ids := make([]string, len(xs))
+	for i, x := range xs {
+		ids[i] = p.Items[x].ID
+	}
+	return ids
 }
 
 // TypedNames lists the confirmed category names of a tree (a shape's

@@ -199,7 +199,7 @@ func RegenerateWith(p *repo.Repo, ro RegenOptions) (*Solution, error) {
 		carried = naming.Carried(prev, root)
 		matched = append(matched, concept.Matched{Prev: prev, Pairs: carried})
 	}
-	nameCategories(p, root, prev, carried)
+	nameCategories(p, root, prev, carried, compiled.Linked > 0)
 	for _, src := range p.NameSources {
 		if src != nil {
 			matched = append(matched, concept.Matched{Prev: src, Pairs: naming.Carried(src, root)})
