@@ -321,3 +321,49 @@ func keptCategories(prev, got *Tree, skip map[int32]bool) (kept, all int) {
 	}
 	return kept, all
 }
+
+// A record over many items (two categories kept apart, as linked answers
+// compile) that the tree breaks at one item is mended by moving that item,
+// not by re-solving the subtree where its sixty items meet: the tree
+// holds A's items and B's apart but one, which sits among B's.
+func TestRepairMendsAWideRecordByMovingWhatBreaksIt(t *testing.T) {
+	const half = 30
+	n := 2 * half
+	g := RandomWeightedGraph(t, 77, dgStream, n, 0.2)
+	var c Constraints
+	for i := int32(0); i+1 < half; i++ {
+		c.Triplets = append(c.Triplets, Triplet{A: i, B: i + 1, C: half})
+		c.Triplets = append(c.Triplets, Triplet{A: half + i, B: half + i + 1, C: 0})
+	}
+	stray := int32(half - 1)
+	prev := NewTree(n)
+	var as, bs []int32
+	for x := int32(0); x < int32(n); x++ {
+		if x < half && x != stray {
+			as = append(as, x)
+		} else {
+			bs = append(bs, x)
+		}
+	}
+	prev.Root = prev.Add(prev.Add(as...), prev.Add(bs...))
+	if len(Satisfies(prev, &c)) == 0 {
+		t.Fatal("the previous tree should break the record")
+	}
+	got, rep, err := Repair(g, &c, prev, Change{}, Options{MinSize: 3, MaxChildren: 8, Seed: 1, Stability: 0.3})
+	if err != nil {
+		t.Fatal(err)
+	}
+	if bad := Satisfies(got, &c); len(bad) > 0 {
+		t.Fatal("record broken after repair")
+	}
+	if len(rep.Regions) > 0 || rep.Rebuilt {
+		t.Errorf("re-solved subtrees %v (rebuilt %v); moving the stray item mends the record", rep.Regions, rep.Rebuilt)
+	}
+	before, after := leafHomes(prev), leafHomes(got)
+	only := map[int32]bool{stray: true}
+	for x := range before {
+		if x != stray && stripNamed(before[x], only) != stripNamed(after[x], only) {
+			t.Errorf("item %d moved; only %d had to", x, stray)
+		}
+	}
+}
