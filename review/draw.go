@@ -151,18 +151,24 @@ type drawer struct {
 	size int
 }
 
-// refinementWeight is what a star-versus-resolved difference counts for
-// in Doubt, against 1 for a contradiction.
-const refinementWeight = 0.25
-
+// doubt is how likely an answer on the triplet a|b|x repairs the tree:
+// the share of committee trees that resolve it otherwise, scaled by the
+// size of the category where the three meet (a wrong triplet high in the
+// tree misleads more items).
+//
+// A committee tree that resolves a triplet the tree leaves flat counts as
+// fully as a contradiction: the answer will very likely resolve it, and
+// the tree then gains a triplet it did not have (recall). A committee
+// tree that leaves flat what the tree resolves counts for nothing: it
+// only says the member is coarser there, not that the tree is wrong, and
+// on the dev sets (see docs/methods.md) counting it drew packets whose
+// answers repaired about a third fewer triplets.
 func (d *drawer) doubt(a, b, x int32) float64 {
 	here := d.tx.topology(a, b, x)
 	against := 0.0
 	for _, ix := range d.c.index {
 		switch there := ix.topology(a, b, x); {
-		case there == here:
-		case there == topoStar || here == topoStar:
-			against += refinementWeight
+		case there == here, there == topoStar:
 		default:
 			against++
 		}

@@ -107,10 +107,16 @@ func TestDoubtWeighsContradictionsAndHeight(t *testing.T) {
 	if got := c.Doubt(current, []int32{0, 1, 2}); math.Abs(got-0.3) > 1e-12 {
 		t.Errorf("doubt = %v, want 0.3", got)
 	}
-	// A tree that leaves {0,1,2} flat only refines: it counts a quarter.
+	// A member that leaves {0,1,2} flat is only coarser there: no doubt.
 	flat := handCommittee(t, "(((0,1),2),(3,4))", "((0,1,2),(3,4))")
-	if got := flat.Doubt(current, []int32{0, 1, 2}); math.Abs(got-0.5*refinementWeight*0.6) > 1e-12 {
-		t.Errorf("doubt with a refinement = %v, want %v", got, 0.5*refinementWeight*0.6)
+	if got := flat.Doubt(current, []int32{0, 1, 2}); got != 0 {
+		t.Errorf("doubt from a coarser member = %v, want 0", got)
+	}
+	// A member that resolves what the tree leaves flat counts in full: an
+	// answer would add a triplet the tree lacks.
+	coarse := tree(t, 5, "((0,1,2),(3,4))")
+	if got := c.Doubt(coarse, []int32{0, 1, 2}); math.Abs(got-0.6) > 1e-12 {
+		t.Errorf("doubt where the tree is flat = %v, want 0.6", got)
 	}
 	if got := c.Doubt(current, []int32{0, 3, 4}); got != 0 {
 		t.Errorf("doubt where all agree = %v, want 0", got)

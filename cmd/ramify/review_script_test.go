@@ -16,7 +16,10 @@ import (
 //	                                        ("-" keeps it, "none" clears it); with
 //	                                        "fixed", also move one item line;
 //	                                        "fixed-as-drawn" writes "fixed"
-//	                                        and moves nothing
+//	                                        and moves nothing; "fixed-pair"
+//	                                        writes "fixed" and groups the
+//	                                        first two top-level items in a
+//	                                        new category
 //	hand move FILE ITEM NEIGHBOUR           move ITEM's line next to
 //	                                        NEIGHBOUR's, into its category
 //
@@ -24,7 +27,8 @@ import (
 // (the packets depend on the solver), so the rearrangement is a fixed
 // rule: the first top-level item goes into the first top-level category,
 // or, when there is none, the first item of the first category goes to the
-// top level.
+// top level, or, when there is no category at all, the first two items
+// go into a new one.
 func cmdHand(ts *testscript.TestScript, neg bool, args []string) {
 	if neg || len(args) < 1 {
 		ts.Fatalf("usage: hand verdict VERDICT REVIEWER FILE... (VERDICT fixed, fixed-flat, fixed-as-drawn or as written) | hand move FILE ITEM NEIGHBOUR")
@@ -69,7 +73,8 @@ func cmdHand(ts *testscript.TestScript, neg bool, args []string) {
 func answerPacket(text, verdict, reviewer string) string {
 	rearrange := verdict == "fixed"
 	flatten := verdict == "fixed-flat"
-	if verdict == "fixed-as-drawn" || flatten {
+	pair := verdict == "fixed-pair"
+	if verdict == "fixed-as-drawn" || flatten || pair {
 		verdict = "fixed"
 	}
 	lines := strings.Split(text, "\n")
@@ -86,7 +91,7 @@ func answerPacket(text, verdict, reviewer string) string {
 			treeStart = i + 2 // after the blank line
 		}
 	}
-	if !(rearrange || flatten) || treeStart < 0 || treeStart >= len(lines) {
+	if !(rearrange || flatten || pair) || treeStart < 0 || treeStart >= len(lines) {
 		return strings.Join(lines, "\n")
 	}
 	tree := lines[treeStart:]
@@ -116,6 +121,8 @@ func answerPacket(text, verdict, reviewer string) string {
 	}
 	var out []string
 	switch {
+	case pair || firstCat < 0:
+		out = pairTopItems(tree)
 	case firstCat >= 0 && topItem >= 0:
 		item := tree[topItem]
 		for i, l := range tree {
@@ -147,6 +154,28 @@ func answerPacket(text, verdict, reviewer string) string {
 		out = tree
 	}
 	return strings.Join(append(lines[:treeStart], out...), "\n") + "\n"
+}
+
+// pairTopItems puts the first two top-level item lines of a packet's tree
+// into a new category at the top, leaving the rest as it is: an answer
+// that only groups items the packet showed apart.
+func pairTopItems(tree []string) []string {
+	var top []int
+	for i, l := range tree {
+		if !strings.HasPrefix(l, " ") && !strings.HasSuffix(l, "/") {
+			top = append(top, i)
+		}
+	}
+	if len(top) < 2 {
+		return tree
+	}
+	out := []string{"Paired by hand/", "  " + tree[top[0]], "  " + tree[top[1]]}
+	for i, l := range tree {
+		if i != top[0] && i != top[1] {
+			out = append(out, l)
+		}
+	}
+	return out
 }
 
 // moveLine moves the line holding item to just after the line holding
