@@ -54,10 +54,18 @@ type RepairReport struct {
 //     fewest items (mend), or else, when the tree leaves it as a star
 //     where it wants a split, by a new category over the categories that
 //     hold its items (wrap), which moves no item out of its category;
-//   - a unit with no allowed place makes Repair re-solve the smallest
-//     subtree that holds every item its records name (the solver with the
-//     region's old categories as prior), widened past categories a group
-//     fixes.
+//   - broken records that no joint move mends are mended one at a time
+//     (mendOneByOne), each by its fewest moves;
+//   - a violated group with no allowed place makes Repair re-solve the
+//     smallest subtree that holds every item its records name (the
+//     solver with the region's old categories as prior), widened past
+//     categories a group fixes; the single items with no allowed place
+//     are set aside and placed together by one such re-solve, around all
+//     of them, at the end. A re-solve per stuck item re-shuffled the
+//     same large subtree again and again: on the dev sets' review loop,
+//     one re-solve for all of them (with the one-at-a-time mend) took
+//     "F1 never falls" from 87.5% to 95% of rounds and triplets
+//     repaired per triplet broken from 1.77 to 2.46.
 //
 // Among trees that satisfy every record, the result is therefore the
 // previous tree with as few items moved as a greedy placement finds, and
@@ -193,9 +201,10 @@ func (r *repairer) pinHandEdits(ch Change) {
 }
 
 // mendBroken mends the broken triplet records: it moves the fewest items
-// that mend one, or else joins categories under a new one (wrap); where
-// both fail, it takes out every item the record names and returns them, to
-// be placed like the others.
+// that mend a set of them together, or else the fewest for each record
+// of the set in turn, or else joins categories under a new one (wrap);
+// where all fail, it takes out every item the records still broken name
+// and returns them, to be placed like the others.
 func (r *repairer) mendBroken(ch Change, taken *takenOut, rep *RepairReport) []int32 {
 	var late []int32
 	for _, s := range r.brokenRecords() {
@@ -210,6 +219,14 @@ func (r *repairer) mendBroken(ch Change, taken *takenOut, rep *RepairReport) []i
 					continue
 				}
 			}
+		}
+		if !slices.ContainsFunc(s.records, func(rs recordShape) bool { return ch.Whole[rs.record] }) {
+			rest, moved := r.mendOneByOne(s)
+			rep.Placed += moved
+			if len(rest.records) == 0 {
+				continue
+			}
+			s = rest
 		}
 		// A star where a record wants a split: a new category mends it
 		// without moving an item out of its category.
@@ -226,22 +243,33 @@ func (r *repairer) mendBroken(ch Change, taken *takenOut, rep *RepairReport) []i
 	return late
 }
 
-// placeSingles places the single items that records name, one by one, and
-// then the free ones (no record names them) all against one tree.
+// placeSingles places the single items that records name, one by one,
+// then those that found no allowed place by one re-solve around them all,
+// and then the free ones (no record names them) all against one tree.
 func (r *repairer) placeSingles(singles []unit, oldParent map[int32]int32, rep *RepairReport) error {
-	var free []int32
+	var free, stuck []int32
 	for _, u := range singles {
 		if len(r.touch[u.root]) == 0 {
 			free = append(free, u.root)
 			continue
 		}
-		if err := r.place(u, oldParent, rep); err != nil {
+		if !r.placeIfAllowed(u, oldParent) {
+			stuck = append(stuck, u.root)
+		}
+	}
+	if len(stuck) > 0 {
+		ix := r.t.index(r.g, r.keys, r.c)
+		if err := r.resolveRegion(ix, unit{items: stuck, root: stuckRoot}, oldParent, rep); err != nil {
 			return err
 		}
 	}
 	r.placeFree(free, oldParent)
 	return nil
 }
+
+// stuckRoot marks the unit of the items that found no allowed place, which
+// are placed by one re-solve of the region where their records meet.
+const stuckRoot = -2
 
 // placeFree puts items that no record names where the cost rises least,
 // each against the same tree (they are placed independently, so a batch
@@ -344,6 +372,9 @@ type repairer struct {
 	// pinned marks the items of records that Change.Whole names: mend
 	// moves other items rather than these.
 	pinned map[int32]bool
+	// unheld marks, while mendOneByOne mends one record, the other broken
+	// records, which its moves need not keep.
+	unheld map[int]bool
 }
 
 func newRepairer(g *graph.CSR, c *Constraints, prev *Tree, opt Options) *repairer {
@@ -384,7 +415,8 @@ type spot struct {
 	beside bool
 }
 
-// place puts one unit into the tree.
+// place puts one unit into the tree, re-solving the region around it
+// when it has no allowed place.
 func (r *repairer) place(u unit, oldParent map[int32]int32, rep *RepairReport) error {
 	if u.root < 0 {
 		root, err := r.buildGroup(u.items)
@@ -393,10 +425,19 @@ func (r *repairer) place(u unit, oldParent map[int32]int32, rep *RepairReport) e
 		}
 		u.root = root
 	}
+	if r.placeIfAllowed(u, oldParent) {
+		return nil
+	}
+	return r.resolveRegion(r.t.index(r.g, r.keys, r.c), u, oldParent, rep)
+}
+
+// placeIfAllowed attaches a unit at its allowed place of least cost, or
+// reports false when there is none. A single item a record names goes
+// back to its old place when that place is still allowed, unless it is
+// much worse.
+func (r *repairer) placeIfAllowed(u unit, oldParent map[int32]int32) bool {
 	ix := r.t.index(r.g, r.keys, r.c)
 	best, bestCost := r.bestSpot(ix, u, r.candidates(ix, u))
-	// The old place, when the unit is a single item a record names and
-	// that place is still allowed, wins unless it is much worse.
 	if len(u.items) == 1 {
 		if p, ok := oldParent[u.items[0]]; ok && r.t.alive(p) {
 			s := spot{p, false}
@@ -407,11 +448,11 @@ func (r *repairer) place(u unit, oldParent map[int32]int32, rep *RepairReport) e
 			}
 		}
 	}
-	if best.v >= 0 {
-		r.t.attach(u.root, best)
-		return nil
+	if best.v < 0 {
+		return false
 	}
-	return r.resolveRegion(ix, u, oldParent, rep)
+	r.t.attach(u.root, best)
+	return true
 }
 
 // bestSpot is the allowed place of least cost: a place under an existing
@@ -734,7 +775,9 @@ func (r *repairer) resolveRegion(ix *treeIndex, u unit, oldParent map[int32]int3
 	}
 	// The unit's own nodes (a group's category) are replaced by the
 	// region's new tree.
-	t.discard(u.root)
+	if u.root >= 0 {
+		t.discard(u.root)
+	}
 	t.replaceUnder(region, res.Taxonomy, items)
 	return nil
 }

@@ -284,6 +284,62 @@ func (r *repairer) mend(s brokenSet) (int, bool) {
 	return 0, false
 }
 
+// mendOneByOne mends the records of a broken set one at a time, when no
+// move mends them all at once: the joint search branches three ways on
+// every item to move, so a set that needs ten or more moves (a handful
+// of answers linked by their names, each naming a few new items) is out
+// of its reach, while each record alone needs only two or three. Each
+// record gets the fewest moves that keep it and every record the tree
+// keeps now; records of the set still broken are not held back (they
+// are mended after it). It returns the records it could not mend, with
+// their placed items, and how many items it moved. Smaller records go
+// first: they need fewer moves and pin down more of the tree.
+func (r *repairer) mendOneByOne(s brokenSet) (brokenSet, int) {
+	if len(s.records) < 2 {
+		return s, 0
+	}
+	order := slices.Clone(s.records)
+	slices.SortStableFunc(order, func(a, b recordShape) int { return cmp.Compare(len(a.items), len(b.items)) })
+	moved := 0
+	var rest brokenSet
+	for i, rs := range order {
+		gone := func(x int32) bool { return !r.t.placed(x) }
+		tv := walkedTree{r.t}
+		if r.keeps(tv, rs, gone) {
+			continue
+		}
+		r.unheld = map[int]bool{}
+		for _, other := range order[i+1:] {
+			if !r.keeps(tv, other, gone) {
+				r.unheld[other.record] = true
+			}
+		}
+		for _, other := range rest.records {
+			r.unheld[other.record] = true
+		}
+		var items []int32
+		for _, x := range rs.items {
+			if r.t.placed(x) {
+				items = append(items, x)
+			}
+		}
+		n, ok := r.mend(brokenSet{records: []recordShape{rs}, items: items})
+		r.unheld = nil
+		if ok {
+			moved += n
+			continue
+		}
+		rest.records = append(rest.records, rs)
+		for _, x := range items {
+			if !slices.Contains(rest.items, x) {
+				rest.items = append(rest.items, x)
+			}
+		}
+	}
+	slices.Sort(rest.items)
+	return rest, moved
+}
+
 // widen joins the broken set with the records that share items with it,
 // nearest first and as far as maxMoveItems allows, into one record: BUILD of all their
 // triplets. Moving items so that the tree keeps that joint tree is more
@@ -391,6 +447,9 @@ func (r *repairer) shapesAround(h []int32, records []recordShape) []recordShape 
 				continue
 			}
 			rec := r.c.Triplets[k].Record
+			if r.unheld[rec] {
+				continue // broken still, mended after this move
+			}
 			if !slices.ContainsFunc(shapes, func(rs recordShape) bool { return rs.record == rec }) {
 				if rs, ok := r.recordShape(r.recordTriplets(rec)); ok {
 					shapes = append(shapes, rs)
