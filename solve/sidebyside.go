@@ -143,21 +143,27 @@ func liftSideBySide(t *mutableTree, s SideBySide, w int32, byChild map[int32][]i
 				stay = bi
 			}
 		}
+		// The categories the items leave give way to a single child only
+		// once every branch is lifted: ch itself may be one of them, and
+		// the branches after it are found below ch.
+		var left []int32
 		for _, bi := range branches {
 			if bi == stay {
 				continue
 			}
 			items := under(bi)
+			if len(items) == 0 {
+				continue
+			}
 			shape := t.restrictedShape(ch, items)
-			var left []int32 // the categories the items leave
 			for _, x := range items {
 				left = append(left, t.parent[x])
 				t.detach(x)
 			}
 			t.attach(t.materialize(shape), spot{w, false})
-			for _, p := range left {
-				t.spliceSingle(p)
-			}
+		}
+		for _, p := range left {
+			t.spliceSingle(p)
 		}
 	}
 }
@@ -211,7 +217,7 @@ func (t *mutableTree) restrictedShape(v int32, items []int32) shapeNode {
 		}
 		switch len(kids) {
 		case 0:
-			return shapeNode{}, false
+			return shapeNode{leaf: -1}, false
 		case 1:
 			return kids[0], true
 		}

@@ -61,6 +61,10 @@ func TestKeepSideBySide(t *testing.T) {
 			nil, "((0,1,2),(3,5),4)", nil},
 		{"a branch moves with its arrangement", 7, "((((0,1),2),3),(4,5,6))", [][][]int32{{{0, 1}, {2}, {4}}},
 			nil, "(((0,1),3),2,(4,5,6))", nil},
+		// Lifting 4 leaves its category with one child, which gives way;
+		// the branch after it must still be lifted, not a stray leaf 0.
+		{"a category gives way mid-pass", 5, "(((1,2,3),4),0)", [][][]int32{{{1, 2}, {4}, {3}, {0}}},
+			nil, "(0,(1,2),3,4)", nil},
 		{"a triplet record forbids the move", 6, "(((0,1,2),3),(4,5))", [][][]int32{{{0}, {1}, {4}}},
 			[]Triplet{{A: 0, B: 2, C: 3, Record: 0}, {A: 1, B: 2, C: 3, Record: 0}}, "(((0,1,2),3),(4,5))", []int{1}},
 	} {
@@ -79,6 +83,9 @@ func TestKeepSideBySide(t *testing.T) {
 			}
 			if bad := Satisfies(got, cons); len(bad) > 0 {
 				t.Errorf("records %v broken", bad)
+			}
+			if leaves := got.Leaves(got.Root); len(leaves) != c.n {
+				t.Errorf("%d leaves, want %d", len(leaves), c.n)
 			}
 		})
 	}

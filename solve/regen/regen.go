@@ -267,7 +267,30 @@ func solveTree(p *repo.Repo, ro RegenOptions, g *graph.CSR, compiled *Compiled, 
 		}
 	}
 	sol.SideBySideNotKept = notKept
+	if err := holdsEachItemOnce(kept); err != nil {
+		return nil, err
+	}
 	return kept, nil
+}
+
+// holdsEachItemOnce refuses a tree that misses an item or holds one
+// twice. Neither can happen when the solver and the repairs are right;
+// the check is cheap next to them and keeps a flaw from ever writing an
+// outline that check would reject.
+func holdsEachItemOnce(t *solve.Tree) error {
+	seen := make([]bool, t.N)
+	count := 0
+	for _, l := range t.Leaves(t.Root) {
+		if l < 0 || int(l) >= t.N || seen[l] {
+			return fmt.Errorf("solve: internal error: the tree holds item %d twice", l)
+		}
+		seen[l] = true
+		count++
+	}
+	if count != t.N {
+		return fmt.Errorf("solve: internal error: the tree holds %d of %d items", count, t.N)
+	}
+	return nil
 }
 
 // rebuild solves from scratch. With stability, the previous outline pulls
