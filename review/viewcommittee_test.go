@@ -1,10 +1,12 @@
 package review
 
 import (
+	"runtime"
 	"testing"
 
 	"github.com/ramify-tax/ramify/solve"
 	"github.com/ramify-tax/ramify/solve/graph"
+	"github.com/ramify-tax/ramify/solve/planted"
 )
 
 // twoBlocks is a graph over 12 items with two blocks of six: view a
@@ -87,4 +89,26 @@ func sameTree(x, y *solve.Tree) bool {
 		}
 	}
 	return true
+}
+
+// TestViewCommitteeIgnoresGOMAXPROCS: the bootstrap members wait for
+// their view's own member and reuse its guide, and still the committee is
+// the same for one thread and for four.
+func TestViewCommitteeIgnoresGOMAXPROCS(t *testing.T) {
+	a := planted.Generate(6, 400, 3, 2).Graph
+	b := planted.Generate(7, 400, 3, 2).Graph
+	build := func(procs int) *Committee {
+		defer runtime.GOMAXPROCS(runtime.GOMAXPROCS(procs))
+		c, err := BuildViewCommittee([]*graph.CSR{a, b}, nil, testOptions, 7, 77)
+		if err != nil {
+			t.Fatal(err)
+		}
+		return c
+	}
+	one, many := build(1), build(4)
+	for i := range one.Trees {
+		if !sameTree(one.Trees[i], many.Trees[i]) || !sameTree(one.Binary[i], many.Binary[i]) {
+			t.Fatalf("member %d differs between GOMAXPROCS 1 and 4", i)
+		}
+	}
 }

@@ -67,6 +67,13 @@ type constructParams struct {
 	stability float64
 	// noGuide turns off the average-linkage second opinion (guide.go).
 	noGuide bool
+	// shared, if set, holds the guide of an earlier solve of the same
+	// items to use instead of building one (Shared); keep, if set, is
+	// filled with this solve's.
+	shared, keep *Shared
+	// cutSteps bounds the Krylov dimension of the spectral splits
+	// (0: cutMaxSteps).
+	cutSteps int
 }
 
 // construct builds the binary tree. c must be consistent.
@@ -86,7 +93,12 @@ func construct(g *graph.CSR, c *Constraints, p constructParams) (*Tree, error) {
 	if n == 1 {
 		return NewTree(1), nil
 	}
-	if !p.noGuide {
+	switch {
+	case !p.noGuide && p.shared != nil && p.shared.guide != nil:
+		ready := make(chan struct{})
+		close(ready)
+		b.guideReady, b.guide = ready, p.shared.guide
+	case !p.noGuide:
 		// The guide is built beside the first splits: the largest sets
 		// come first and keep one worker busy alone for a while, and
 		// nothing reads the guide before the first spectral split has
@@ -109,6 +121,10 @@ func construct(g *graph.CSR, c *Constraints, p constructParams) (*Tree, error) {
 	b.side = make([]int8, n)
 	if err := b.runWorkers(); err != nil {
 		return nil, err
+	}
+	if p.keep != nil && b.guideReady != nil {
+		<-b.guideReady
+		p.keep.guide = b.guide
 	}
 	p.progress("construct", n, n)
 	return treeFromGaps(n, b.order, b.gapDepth), nil
@@ -138,6 +154,7 @@ func (b *builder) runWorkers() error {
 			defer wg.Done()
 			w := newConstructWorker(b.n)
 			w.sp.helpers = helpers{&idle}
+			w.sp.maxSteps = b.params.cutSteps
 			mu.Lock()
 			for {
 				for len(stack) == 0 && busy > 0 && firstErr == nil {

@@ -35,6 +35,17 @@ type Options struct {
 	Stability float64
 	// Prior lists the leaf sets of the previous outline's categories.
 	Prior [][]int32
+	// CutSteps bounds the Lanczos steps of each spectral split of the
+	// construction (0: the default of 40). The review committee's members
+	// take fewer: the split is the sweep of whatever vector Lanczos ends
+	// at, so fewer steps give a rougher split, never a broken record, and
+	// the improvement passes after the construction still run in full.
+	CutSteps int
+	// KeepShared asks for Result.Shared, what later solves of reweighted
+	// copies of the same graph may reuse; SharedFrom, if set, is such a
+	// Shared from a solve of the same items (see Shared).
+	KeepShared bool
+	SharedFrom *Shared
 	// Progress, if set, is told how far each stage has come. Stages, in
 	// order: "constraints", "construct" (done = items placed), "improve",
 	// "fold". It is called from one goroutine at a time.
@@ -49,6 +60,8 @@ type Result struct {
 	// the side-by-side statements kept as far as the records allow
 	// (KeepSideBySide).
 	Taxonomy *Tree
+	// Shared is set when Options.KeepShared asked for it.
+	Shared *Shared
 }
 
 // ConflictError reports inconsistent constraints: Records is a minimal
@@ -104,6 +117,13 @@ func solveWith(g *graph.CSR, c *Constraints, opt Options, cp constructParams) (*
 		cp.prior, cp.stability = opt.Prior, math.Min(opt.Stability, 1)
 	}
 	cp.seed, cp.progress = opt.Seed, progress
+	cp.cutSteps = max(opt.CutSteps, 0)
+	if s := opt.SharedFrom; s != nil && s.n == g.N {
+		cp.shared = s
+	}
+	if opt.KeepShared {
+		cp.keep = &Shared{n: g.N}
+	}
 	binary, err := construct(g, c, cp)
 	if err != nil {
 		return nil, err
@@ -121,7 +141,7 @@ func solveWith(g *graph.CSR, c *Constraints, opt Options, cp constructParams) (*
 	// The solver builds without the side-by-side statements; the
 	// taxonomy keeps them afterwards as far as the records allow.
 	tax, _ = KeepSideBySide(tax, c)
-	return &Result{Binary: binary, Taxonomy: tax}, nil
+	return &Result{Binary: binary, Taxonomy: tax, Shared: cp.keep}, nil
 }
 
 func checkLeaves(n int, c *Constraints) error {

@@ -67,6 +67,9 @@ type spectralWork struct {
 	offA     []float64 // A's off-diagonal entries, in g's layout
 	alpha    []float64
 	beta     []float64
+	// maxSteps bounds the Krylov dimension of sparsestCut (0:
+	// cutMaxSteps).
+	maxSteps int
 }
 
 // setMeasure prepares B^{-1/2}.
@@ -121,7 +124,11 @@ func (sp *spectralWork) sparsestCut(g *graph.CSR, deg, b, mass []float64, ids []
 		}
 	} else {
 		lastTheta := math.Inf(1)
-		err := sp.lanczos(g, deg, b, ids, seed, min(cutMaxSteps, n-1), func(theta float64, _ []float64, residual float64) bool {
+		steps := cutMaxSteps
+		if sp.maxSteps > 0 {
+			steps = sp.maxSteps
+		}
+		err := sp.lanczos(g, deg, b, ids, seed, min(steps, n-1), func(theta float64, _ []float64, residual float64) bool {
 			stop := lastTheta-theta <= cutStallTol*math.Abs(theta) || residual <= 1e-11
 			lastTheta = theta
 			return stop
