@@ -5,6 +5,8 @@
 package committee
 
 import (
+	"time"
+
 	"github.com/ramify-tax/ramify/format/repo"
 	"github.com/ramify-tax/ramify/review"
 	"github.com/ramify-tax/ramify/solve/graph"
@@ -23,10 +25,12 @@ import (
 // A conflict among the records comes back as the solver's
 // *solve.ConflictError, naming records by their compiled number.
 func Solve(p *repo.Repo, structure string, progress func(stage string, done, total int)) (*review.Committee, *regen.Compiled, error) {
-	if progress != nil {
-		progress("similarity graph", 0, 1)
-	}
+	// Building the views reports nothing itself and takes seconds on
+	// large repositories, so the stage is repeated while it runs and the
+	// terminal's elapsed time keeps moving.
+	stop := ticking(progress, "similarity graph")
 	views, err := regen.GraphViews(p, regen.Seed)
+	stop()
 	if err != nil {
 		return nil, nil, err
 	}
@@ -46,4 +50,36 @@ func Solve(p *repo.Repo, structure string, progress func(stage string, done, tot
 	}
 	c, err := review.CachedViewCommittee(review.CommitteeCacheDir(), graphs, compiled.Constraints, opt, size, review.Seed(structure))
 	return c, compiled, err
+}
+
+// tickEvery is how often ticking repeats its stage.
+const tickEvery = 250 * time.Millisecond
+
+// ticking calls progress(stage, 0, 1) at once and then every tickEvery
+// until the returned stop is called (nothing when progress is nil). stop
+// returns after the last call, so progress is never called from two
+// goroutines at once.
+func ticking(progress func(stage string, done, total int), stage string) (stop func()) {
+	if progress == nil {
+		return func() {}
+	}
+	progress(stage, 0, 1)
+	quit, finished := make(chan struct{}), make(chan struct{})
+	go func() {
+		defer close(finished)
+		t := time.NewTicker(tickEvery)
+		defer t.Stop()
+		for {
+			select {
+			case <-quit:
+				return
+			case <-t.C:
+				progress(stage, 0, 1)
+			}
+		}
+	}()
+	return func() {
+		close(quit)
+		<-finished
+	}
 }
