@@ -140,20 +140,25 @@ func exactSparse(s *sparseRows, k int, items []int32) *neighborLists {
 	}
 	return computeRows(s.n, items, newState, func(w *sparseScratch, i int, ids []int32, sims []float64) ([]int32, []float64) {
 		mark := int32(i + 1)
-		w.touched = w.touched[:0]
+		// The scratch slices live in locals through the hot loop, so the
+		// compiler neither reloads them nor re-checks vs's bounds.
+		acc, stamp, touched := w.acc, w.stamp, w.touched[:0]
 		ti, tv := s.row(i)
+		tv = tv[:len(ti)]
 		for p, t := range ti {
 			x := tv[p]
 			js, vs := post.list(t)
+			vs = vs[:len(js)]
 			for q, j := range js {
-				if w.stamp[j] != mark {
-					w.stamp[j] = mark
-					w.acc[j] = 0
-					w.touched = append(w.touched, j)
+				if stamp[j] != mark {
+					stamp[j] = mark
+					acc[j] = 0
+					touched = append(touched, j)
 				}
-				w.acc[j] += float64(x * vs[q])
+				acc[j] += float64(x * vs[q])
 			}
 		}
+		w.touched = touched
 		if k == 0 {
 			for _, j := range w.touched {
 				if int(j) != i && w.acc[j] > 0 {
